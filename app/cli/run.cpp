@@ -1,0 +1,46 @@
+#include "cli/run.h"
+
+#include <exception>
+#include <iostream>
+
+#include "cli/verbs.h"
+#include "common/error.h"
+#include "stridemark/version.h"
+
+namespace stridemark::cli {
+
+int runCommandLine(int argc, char** argv) {
+  CLI::App app{
+      "stridemark - score animal locomotion from video tags (headless part of Stridemark).\n"
+      "Measurements support, and never replace, examination by a licensed veterinarian."};
+  app.set_version_flag("--version", std::string("stridemark ") + kVersion);
+  app.require_subcommand(1);
+  VerbAction action;
+  // One line per verb, in the order `--help` lists them:
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::CallForHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForAllHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForVersion& e) {
+    return app.exit(e);
+  } catch (const CLI::ParseError& e) {
+    app.exit(e);
+    return kExitUsage;
+  }
+  // The one place where core errors reach the user.
+  try {
+    return action ? action() : kExitUsage;
+  } catch (const Error& e) {
+    std::cerr << "stridemark: " << e.what() << '\n';
+    return kExitBadInput;
+  } catch (const std::exception& e) {
+    std::cerr << "stridemark: internal error: " << e.what()
+              << "\nPlease report this with the command line and input that caused it.\n";
+    return kExitInternal;
+  }
+}
+
+}  // namespace stridemark::cli

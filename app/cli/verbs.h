@@ -1,0 +1,14 @@
+#pragma once
+// Each verb adds its subcommand to the app. When the subcommand is parsed, it stores in
+// `action` the work to run; main runs it inside the one place that catches errors.
+#include <functional>
+
+#include <CLI/CLI.hpp>
+
+namespace stridemark::cli {
+
+using VerbAction = std::function<int()>;
+
+// One line per verb (each defined in app/cli/verb_<name>.cpp):
+
+}  // namespace stridemark::cli

@@ -1,0 +1,140 @@
+#pragma once
+// The result of scoring one annotation: everything `stridemark score` writes as
+// stridemark.report.v1 (DESIGN §5) and everything the workstation's docks show.
+// Per-limb vectors are indexed by limb index in the annotation's LimbSet.
+// Analysis fills this (core/analysis); formats writes and reads it (core/formats).
+#include <cstdint>
+#include <limits>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "common/rational.h"
+#include "model/limb_set.h"
+
+namespace stridemark::analysis {
+
+inline constexpr double kUndefined = std::numeric_limits<double>::quiet_NaN();
+
+// n, mean, sample SD (n - 1), CV = SD / mean. NaN where undefined (n < 1, or n < 2 for SD).
+struct Stat {
+  int n = 0;
+  double mean = kUndefined;
+  double sd = kUndefined;
+  double cv = kUndefined;
+};
+
+// One complete cycle of one limb: touchdown -> next touchdown (its own stride).
+struct LimbCycle {
+  int limb = 0;
+  std::int64_t touchdown = 0;
+  std::optional<std::int64_t> liftoff;  // missing when the lift-off was not tagged
+  std::int64_t nextTouchdown = 0;
+  std::int64_t strideFrames() const { return nextTouchdown - touchdown; }
+  std::optional<std::int64_t> stanceFrames() const {
+    return liftoff ? std::optional(*liftoff - touchdown) : std::nullopt;
+  }
+};
+
+struct LimbSummary {
+  int strides = 0;  // complete, valid cycles
+  Stat strideS, stanceS, swingS, dutyFactor;
+};
+
+// One stride of the reference limb and the other limbs seen in its window.
+struct StrideRecord {
+  std::int64_t startFrame = 0;  // reference touchdown k
+  std::int64_t endFrame = 0;    // reference touchdown k + 1
+  double durationS = 0;
+  std::vector<std::optional<double>> dutyFactor;  // per limb: its cycle that starts in the window
+  std::vector<std::optional<double>> phase;       // per limb, [0, 1); reference limb = 0
+  std::string gait = "unclassified";
+  std::optional<std::string> band;      // Hildebrand band (symmetrical quadruped strides)
+  std::optional<std::string> quadrant;  // Cartmill et al. 2002 quadrant (LSLC, LSDC, DSDC, DSLC)
+  std::optional<std::string> sequence;  // "lateral" / "diagonal"
+  std::optional<std::string> lead;      // "left" / "right" for asymmetrical strides
+  bool symmetrical = false;
+  bool aerial = false;  // a whole-body suspension inside the stride
+  std::optional<double> hindDutyFactor;  // Hildebrand y (quadrupeds)
+  std::optional<double> limbPhase;       // Hildebrand x (quadrupeds)
+  // Diagonal advanced placement, LH-RF and RH-LF pairs, in frames of the capture rate (positive
+  // = hind first); filled for trot strides of quadrupeds.
+  std::optional<double> dapMs;
+  std::optional<double> dapPercent;
+  // Support: share of the stride with k limbs in stance (index k), and per combination label.
+  std::vector<double> supportByCount;
+  std::map<std::string, double> supportByCombination;
+  // Hexapods and multi-pair sets: ipsilateral phase lag (back-to-front) and wave direction.
+  std::optional<double> ipsilateralLag;
+  std::optional<std::string> waveDirection;  // "direct" / "retrograde"
+};
+
+struct PhaseSummary {
+  int n = 0;
+  double mean = kUndefined;  // cycles, [0, 1); NaN when R is 0 or n is 0
+  double r = kUndefined;     // mean resultant length
+  double circSd = kUndefined;  // sqrt(-2 ln R), cycles
+  double angularDeviation = kUndefined;  // sqrt(2 (1 - R)), cycles
+  double rayleighZ = kUndefined;
+  double rayleighP = kUndefined;  // Zar's approximation
+};
+
+struct HildebrandSummary {
+  double dutyFactor = kUndefined;  // mean hind-limb duty factor
+  double limbPhase = kUndefined;   // circular mean of LF relative to LH
+  std::string band;
+  std::string quadrant;
+};
+
+struct Bout {
+  std::string gait;
+  int firstStride = 0;  // indices into Report::strides
+  int lastStride = 0;
+  std::int64_t startFrame = 0;
+  std::int64_t endFrame = 0;
+};
+
+// Robinson symmetry index per left/right pair; key = pair name ("fore", "hind", "pair",
+// "segment1", ...). Positive when the right limb's value is larger.
+struct SymmetryValues {
+  std::map<std::string, double> si;     // percent
+  std::map<std::string, double> ratio;  // right / left
+};
+
+struct Symmetry {
+  SymmetryValues strideS, stanceS, swingS, dutyFactor;
+};
+
+struct SpeedSummary {
+  double ms = 0;
+  std::optional<double> froude;               // v^2 / (g h), g = 9.81
+  std::optional<double> dimensionlessSpeed;   // sqrt(Fr)
+  double strideLengthM = kUndefined;          // v * mean reference stride time
+  std::optional<double> relativeStrideLength;  // stride length / leg length
+};
+
+struct Problem {
+  std::int64_t frame = 0;
+  std::optional<int> limb;
+  std::string message;
+};
+
+struct Report {
+  model::LimbSet limbs = model::LimbSet::quadruped();
+  Rational fps{240, 1};
+  int referenceLimb = 0;
+  std::vector<LimbCycle> cycles;          // every valid cycle of every limb
+  std::vector<LimbSummary> limbSummary;   // per limb
+  std::vector<StrideRecord> strides;      // per reference stride
+  std::vector<PhaseSummary> phase;        // per limb
+  std::optional<HildebrandSummary> hildebrand;  // quadrupeds only
+  std::vector<double> support;            // share of scored time with k limbs in stance
+  std::map<std::string, double> supportByCombination;
+  std::vector<Bout> bouts;
+  Symmetry symmetry;
+  std::optional<SpeedSummary> speed;
+  std::vector<Problem> problems;
+};
+
+}  // namespace stridemark::analysis

@@ -1,0 +1,94 @@
+#pragma once
+// The annotation value types: events keyed by frame, spans where a limb is not visible, the
+// trial card and the project document. Plain values: the UI changes them only inside undo
+// commands; analysis reads them.
+#include <compare>
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "common/rational.h"
+#include "model/limb_set.h"
+
+namespace stridemark::model {
+
+enum class EventKind { touchdown, liftoff };
+
+std::string_view eventWord(EventKind kind);                     // "touchdown" / "liftoff"
+std::optional<EventKind> parseEventWord(std::string_view word);  // exact lower-case words
+
+struct Event {
+  std::int64_t frame = 0;
+  int limb = 0;
+  EventKind kind = EventKind::touchdown;
+  // Order: by limb, then frame, then touchdown before lift-off.
+  friend auto operator<=>(const Event& a, const Event& b) {
+    if (auto c = a.limb <=> b.limb; c != 0) return c;
+    if (auto c = a.frame <=> b.frame; c != 0) return c;
+    return static_cast<int>(a.kind) <=> static_cast<int>(b.kind);
+  }
+  friend bool operator==(const Event&, const Event&) = default;
+};
+
+// Frames [first, last] (inclusive) in which a limb cannot be seen; analysis treats its state
+// there as unknown.
+struct HiddenSpan {
+  int limb = 0;
+  std::int64_t first = 0;
+  std::int64_t last = 0;
+  friend bool operator==(const HiddenSpan&, const HiddenSpan&) = default;
+};
+
+struct FrameRange {
+  std::int64_t first = 0;
+  std::int64_t last = 0;  // inclusive
+  friend bool operator==(const FrameRange&, const FrameRange&) = default;
+};
+
+// What analysis consumes: a limb set, a capture rate and the tags.
+struct Annotation {
+  LimbSet limbs = LimbSet::quadruped();
+  Rational captureRate{240, 1};
+  int referenceLimb = LimbSet::quadruped().defaultReference();
+  std::vector<Event> events;  // kept sorted (see Event ordering) by normalize()
+  std::vector<HiddenSpan> hidden;
+  std::optional<FrameRange> clip;  // frames that exist in the video, when known
+
+  void normalize();  // sort events and hidden spans
+  // Events of one limb in frame order (the vector must be normalized).
+  std::vector<Event> eventsOf(int limb) const;
+  // Tag state at `frame`: true if the limb is in stance (the last event at or before the frame
+  // is a touchdown). Used by tag keys: a press marks touchdown in swing, lift-off in stance.
+  bool inStance(int limb, std::int64_t frame) const;
+};
+
+struct TrialCard {
+  std::string subject;
+  std::string species;
+  std::string condition;
+  std::string observer;
+  std::string notes;
+  std::optional<double> speedMs;      // belt or ground speed, m/s
+  std::string speedSource = "belt";   // "belt" or "ground"
+  std::optional<double> legLengthM;   // hip height / leg length used for Froude, m
+  friend bool operator==(const TrialCard&, const TrialCard&) = default;
+};
+
+struct VideoLink {
+  std::string path;        // as saved: relative to the project file when possible
+  std::string signature;   // size + hash of first and last MiB (core/video)
+  std::int64_t frameCount = 0;
+  Rational fileRate{0, 1};  // what the container claims
+  friend bool operator==(const VideoLink&, const VideoLink&) = default;
+};
+
+struct Project {
+  static constexpr int kSchemaVersion = 1;
+  Annotation annotation;
+  TrialCard trial;
+  std::optional<VideoLink> video;
+};
+
+}  // namespace stridemark::model

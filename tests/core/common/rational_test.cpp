@@ -1,0 +1,38 @@
+#include "common/rational.h"
+
+#include <gtest/gtest.h>
+
+#include "common/error.h"
+
+namespace stridemark {
+namespace {
+
+// Common practice, no source: NTSC-style rates are 30000/1001 exactly.
+TEST(Rational, ParsesIntegerDecimalAndFractionRates) {
+  EXPECT_EQ(parseRate("240"), (Rational{240, 1}));
+  EXPECT_EQ(parseRate("30000/1001"), (Rational{30000, 1001}));
+  EXPECT_EQ(parseRate("239.76"), (Rational{5994, 25}));
+  EXPECT_EQ(parseRate("1000/4"), (Rational{250, 1}));
+}
+
+TEST(Rational, RejectsNonRatesWithTheTextInTheMessage) {
+  for (const char* bad : {"", "abc", "-240", "0", "240fps", "1/0", "nan"}) {
+    try {
+      parseRate(bad, "--fps");
+      ADD_FAILURE() << "accepted '" << bad << "'";
+    } catch (const Error& e) {
+      EXPECT_EQ(e.category(), ErrorCategory::format);
+      EXPECT_NE(std::string(e.what()).find("--fps"), std::string::npos);
+    }
+  }
+}
+
+// Source: METHODS.md §1.3, t = frame / fps.
+TEST(Rational, FramesToSecondsIsExactForIntegerRates) {
+  EXPECT_DOUBLE_EQ(framesToSeconds(125, {250, 1}), 0.5);
+  EXPECT_EQ(secondsToFrame(0.5, {250, 1}), 125);
+  EXPECT_EQ(secondsToFrame(1.0, {30000, 1001}), 30);
+}
+
+}  // namespace
+}  // namespace stridemark
