@@ -1,0 +1,114 @@
+#pragma once
+// The player-facing frame source. It keeps native-format frames around the playhead under a
+// byte budget, decodes ahead in the direction of travel on one worker thread, and refills the
+// window before the playhead when stepping backwards so back steps are cache lookups (decode a
+// GOP span once, keep the frames; VIDEO-NOTES §4.2). A new request elsewhere cancels the
+// worker's current job through a generation counter.
+//
+// Threading: every public method is thread-safe. Callbacks given to request() run on the
+// worker thread; they must be quick and must not call back into the server synchronously
+// (post to your own thread instead).
+#include <condition_variable>
+#include <cstddef>
+#include <cstdint>
+#include <exception>
+#include <functional>
+#include <map>
+#include <memory>
+#include <mutex>
+#include <string>
+#include <thread>
+#include <vector>
+
+#include "video/decoded_frame.h"
+#include "video/frame_index.h"
+#include "video/frame_reader.h"
+
+namespace stridemark::video {
+
+struct FrameServerOptions {
+  std::size_t budgetBytes = std::size_t{1} << 30;  // 1 GiB default (setting)
+  int decodeThreads = 2;                           // frame threads for refill / decode-ahead
+  std::int64_t aheadFrames = 32;                   // decode-ahead depth when moving forward
+};
+
+struct FrameServerStats {
+  std::size_t cachedBytes = 0;
+  std::size_t peakCachedBytes = 0;
+  std::int64_t cachedFrames = 0;
+  std::int64_t hits = 0;
+  std::int64_t misses = 0;
+  std::int64_t cancelledJobs = 0;
+  std::int64_t windowRefills = 0;
+  std::int64_t windowFrames = 0;  // frames kept per backward window at the current budget
+};
+
+class FrameServer {
+ public:
+  using Callback =
+      std::function<void(std::int64_t n, std::shared_ptr<const DecodedFrame>, std::exception_ptr)>;
+
+  FrameServer(const std::string& path, std::shared_ptr<const FrameIndex> index,
+              FrameServerOptions options = {});
+  ~FrameServer();
+  FrameServer(const FrameServer&) = delete;
+  FrameServer& operator=(const FrameServer&) = delete;
+
+  // Blocking and exact: returns frame n (moving the playhead there) or throws stridemark::Error.
+  std::shared_ptr<const DecodedFrame> get(std::int64_t n);
+  // Non-blocking: the cached frame or null. Moves the playhead (so decode-ahead follows).
+  std::shared_ptr<const DecodedFrame> tryGet(std::int64_t n);
+  // Non-blocking: moves the playhead to n; `done` runs on the worker when the frame is ready
+  // (immediately on the caller's thread if it is cached). A later request to another frame
+  // cancels this one: `done` then receives a null frame and a null exception.
+  void request(std::int64_t n, Callback done);
+
+  void setBudget(std::size_t bytes);
+  std::size_t budget() const;
+  FrameServerStats stats() const;
+  const FrameIndex& index() const { return *index_; }
+  std::int64_t frameCount() const { return index_->frameCount(); }
+
+ private:
+  struct Pending {
+    std::int64_t frame = -1;
+    std::uint64_t generation = 0;
+    Callback done;
+  };
+  enum class Direction { forward, backward };
+
+  void moveTo(std::int64_t n);  // playhead bookkeeping; caller holds mutex_
+  std::shared_ptr<const DecodedFrame> lookup(std::int64_t n);  // caller holds mutex_
+  void workerLoop();
+  bool runDemand(std::unique_lock<std::mutex>& lock);
+  bool runBackground(std::unique_lock<std::mutex>& lock);
+  void decodeInto(std::int64_t first, std::int64_t last, std::int64_t wanted,
+                  std::uint64_t generation, std::unique_lock<std::mutex>& lock);
+  void insert(std::shared_ptr<const DecodedFrame> frame);  // caller holds mutex_
+  void evictOverBudget();                                  // caller holds mutex_
+  std::int64_t windowFrames() const;                       // caller holds mutex_
+  std::int64_t contiguousStart(std::int64_t n) const;      // caller holds mutex_
+  std::int64_t contiguousEnd(std::int64_t n) const;        // caller holds mutex_
+
+  std::shared_ptr<const FrameIndex> index_;
+  FrameServerOptions options_;
+  std::shared_ptr<FramePool> pool_;
+  std::unique_ptr<FrameReader> reader_;  // used only by the worker
+  std::size_t frameBytes_ = 0;
+
+  mutable std::mutex mutex_;
+  std::condition_variable wake_;     // worker waits on it
+  std::condition_variable arrived_;  // get() waits on it
+  std::map<std::int64_t, std::shared_ptr<const DecodedFrame>> cache_;
+  std::size_t cachedBytes_ = 0;
+  std::int64_t playhead_ = 0;
+  Direction direction_ = Direction::forward;
+  std::uint64_t generation_ = 0;
+  std::vector<Pending> pending_;
+  std::map<std::int64_t, std::exception_ptr> failures_;  // frame -> error, for get()
+  FrameServerStats stats_;
+  bool stopping_ = false;
+  std::thread worker_;  // last member: starts after everything above exists
+};
+
+}  // namespace stridemark::video
