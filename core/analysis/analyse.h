@@ -12,14 +12,17 @@ namespace stridemark::analysis {
 
 struct AnalysisOptions {
   // METHODS.md team decisions; configurable.
-  double symmetryTolerance = 0.10;  // |contralateral phase - 0.5| allowed per girdle
-  double asymmetricTau = 0.05;      // share of stride for "simultaneous" in §3.3
-  int minTauFrames = 2;             // ... but never less than this many frames
+  double symmetryTolerance = 0.10;   // |contralateral phase - 0.5| allowed per girdle
+  double asymmetricTau = 0.05;       // share of stride for "simultaneous" in §3.3
+  int minTauFrames = 2;              // ... but never less than this many frames
   std::optional<int> referenceLimb;  // overrides Annotation::referenceLimb
   std::optional<double> speedMs;     // overrides TrialCard speed
   std::optional<double> legLengthM;  // overrides TrialCard leg length
 };
 
 Report analyse(const model::Annotation& annotation, const AnalysisOptions& options = {});
+
+// Same, taking speed and leg length from the trial card unless the options override them.
+Report analyse(const model::Project& project, const AnalysisOptions& options = {});
 
 }  // namespace stridemark::analysis

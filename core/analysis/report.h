@@ -55,7 +55,7 @@ struct StrideRecord {
   std::optional<std::string> sequence;  // "lateral" / "diagonal"
   std::optional<std::string> lead;      // "left" / "right" for asymmetrical strides
   bool symmetrical = false;
-  bool aerial = false;  // a whole-body suspension inside the stride
+  bool aerial = false;                   // a whole-body suspension inside the stride
   std::optional<double> hindDutyFactor;  // Hildebrand y (quadrupeds)
   std::optional<double> limbPhase;       // Hildebrand x (quadrupeds)
   // Diagonal advanced placement, LH-RF and RH-LF pairs, in frames of the capture rate (positive
@@ -68,13 +68,19 @@ struct StrideRecord {
   // Hexapods and multi-pair sets: ipsilateral phase lag (back-to-front) and wave direction.
   std::optional<double> ipsilateralLag;
   std::optional<std::string> waveDirection;  // "direct" / "retrograde"
+  // Added by analysis: touchdowns of each limb inside the window (phase is null unless 1; more
+  // than 1 flags a stride mismatch or stumble), the template gait's mean circular distance, and
+  // the asymmetrical lags of METHODS §3.2 (fore, hind, pair; cycles).
+  std::vector<int> touchdownCount;
+  std::optional<double> templateDistance;
+  std::optional<double> foreLag, hindLag, pairLag;
 };
 
 struct PhaseSummary {
   int n = 0;
-  double mean = kUndefined;  // cycles, [0, 1); NaN when R is 0 or n is 0
-  double r = kUndefined;     // mean resultant length
-  double circSd = kUndefined;  // sqrt(-2 ln R), cycles
+  double mean = kUndefined;              // cycles, [0, 1); NaN when R is 0 or n is 0
+  double r = kUndefined;                 // mean resultant length
+  double circSd = kUndefined;            // sqrt(-2 ln R), cycles
   double angularDeviation = kUndefined;  // sqrt(2 (1 - R)), cycles
   double rayleighZ = kUndefined;
   double rayleighP = kUndefined;  // Zar's approximation
@@ -85,6 +91,14 @@ struct HildebrandSummary {
   double limbPhase = kUndefined;   // circular mean of LF relative to LH
   std::string band;
   std::string quadrant;
+};
+
+// Added by analysis: the change of gait where one bout ends and the next begins.
+struct Transition {
+  std::string fromGait;
+  std::string toGait;
+  std::int64_t frame = 0;  // start frame of the new bout
+  int stride = 0;          // index of the new bout's first stride
 };
 
 struct Bout {
@@ -108,9 +122,9 @@ struct Symmetry {
 
 struct SpeedSummary {
   double ms = 0;
-  std::optional<double> froude;               // v^2 / (g h), g = 9.81
-  std::optional<double> dimensionlessSpeed;   // sqrt(Fr)
-  double strideLengthM = kUndefined;          // v * mean reference stride time
+  std::optional<double> froude;                // v^2 / (g h), g = 9.81
+  std::optional<double> dimensionlessSpeed;    // sqrt(Fr)
+  double strideLengthM = kUndefined;           // v * mean reference stride time
   std::optional<double> relativeStrideLength;  // stride length / leg length
 };
 
@@ -124,14 +138,15 @@ struct Report {
   model::LimbSet limbs = model::LimbSet::quadruped();
   Rational fps{240, 1};
   int referenceLimb = 0;
-  std::vector<LimbCycle> cycles;          // every valid cycle of every limb
-  std::vector<LimbSummary> limbSummary;   // per limb
-  std::vector<StrideRecord> strides;      // per reference stride
-  std::vector<PhaseSummary> phase;        // per limb
+  std::vector<LimbCycle> cycles;                // every valid cycle of every limb
+  std::vector<LimbSummary> limbSummary;         // per limb
+  std::vector<StrideRecord> strides;            // per reference stride
+  std::vector<PhaseSummary> phase;              // per limb
   std::optional<HildebrandSummary> hildebrand;  // quadrupeds only
-  std::vector<double> support;            // share of scored time with k limbs in stance
+  std::vector<double> support;                  // share of scored time with k limbs in stance
   std::map<std::string, double> supportByCombination;
   std::vector<Bout> bouts;
+  std::vector<Transition> transitions;  // added by analysis
   Symmetry symmetry;
   std::optional<SpeedSummary> speed;
   std::vector<Problem> problems;

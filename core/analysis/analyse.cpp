@@ -1,0 +1,301 @@
+#include "analysis/analyse.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include "analysis/bouts.h"
+#include "analysis/circular.h"
+#include "analysis/cycles.h"
+#include "analysis/gait.h"
+#include "analysis/hildebrand.h"
+#include "analysis/phase.h"
+#include "analysis/speed.h"
+#include "analysis/stats.h"
+#include "analysis/summary.h"
+#include "analysis/support.h"
+#include "common/error.h"
+
+namespace stridemark::analysis {
+namespace {
+
+using model::Side;
+
+void checkOptions(const model::Annotation& annotation, const AnalysisOptions& options,
+                  int reference) {
+  const auto fail = [](const std::string& message) {
+    throw Error(ErrorCategory::analysis, message);
+  };
+  if (!annotation.captureRate.valid())
+    fail("capture rate " + toString(annotation.captureRate) +
+         " is not a positive frame rate; set the capture rate (frames per second) of the clip");
+  if (reference < 0 || reference >= annotation.limbs.size())
+    fail("reference limb #" + std::to_string(reference) + " is not in the " +
+         annotation.limbs.name() + " limb set; choose one of " + annotation.limbs.labelList());
+  if (!(options.symmetryTolerance >= 0 && options.symmetryTolerance <= 0.5))
+    fail("symmetry tolerance must be between 0 and 0.5 of a stride");
+  if (!(options.asymmetricTau >= 0 && options.asymmetricTau < 0.5) || options.minTauFrames < 0)
+    fail("the simultaneity tolerance must be between 0 and 0.5 of a stride, at least 0 frames");
+  if (options.speedMs && !(*options.speedMs >= 0 && std::isfinite(*options.speedMs)))
+    fail("speed must be a finite number of metres per second, 0 or more");
+  if (options.legLengthM && !(*options.legLengthM > 0 && std::isfinite(*options.legLengthM)))
+    fail("leg length must be a positive number of metres");
+}
+
+// Problem spans of every limb, merged into disjoint ascending spans.
+std::vector<FlaggedSpan> mergedFlags(const std::vector<LimbTrack>& tracks) {
+  std::vector<FlaggedSpan> all;
+  for (const LimbTrack& t : tracks) all.insert(all.end(), t.flagged.begin(), t.flagged.end());
+  std::sort(all.begin(), all.end(),
+            [](const FlaggedSpan& a, const FlaggedSpan& b) { return a.first < b.first; });
+  std::vector<FlaggedSpan> merged;
+  for (const FlaggedSpan& f : all) {
+    if (!merged.empty() && f.first <= merged.back().last + 1) {
+      merged.back().last = std::max(merged.back().last, f.last);
+    } else {
+      merged.push_back(f);
+    }
+  }
+  return merged;
+}
+
+bool touchesFlag(const std::vector<FlaggedSpan>& flags, std::int64_t first, std::int64_t end) {
+  auto it = std::lower_bound(flags.begin(), flags.end(), first,
+                             [](const FlaggedSpan& f, std::int64_t v) { return f.last < v; });
+  return it != flags.end() && it->first < end;
+}
+
+class StrideBuilder {
+ public:
+  StrideBuilder(const model::Annotation& annotation, const AnalysisOptions& options,
+                const CycleScan& scan, const SupportTimeline& timeline)
+      : limbs_(annotation.limbs),
+        fps_(annotation.captureRate),
+        options_(options),
+        tracks_(scan.tracks),
+        timeline_(timeline) {}
+
+  StrideRecord build(const LimbCycle& reference) const {
+    StrideRecord s;
+    s.startFrame = reference.touchdown;
+    s.endFrame = reference.nextTouchdown;
+    s.durationS = framesToSeconds(reference.strideFrames(), fps_);
+    fillLimbs(s);
+    const SupportShares support = timeline_.window(s.startFrame, s.endFrame);
+    s.aerial = support.aerial;
+    if (support.complete) {
+      s.supportByCount = support.byCount;
+      s.supportByCombination = support.byCombination;
+    }
+    const double tau =
+        std::max(options_.asymmetricTau,
+                 options_.minTauFrames / static_cast<double>(reference.strideFrames()));
+    switch (limbs_.kind()) {
+      case model::LimbSetKind::quadruped:
+        classifyQuadruped(s, tau);
+        break;
+      case model::LimbSetKind::biped:
+        classifyBiped(s, tau);
+        break;
+      default:
+        classifyMultiPair(s);
+    }
+    return s;
+  }
+
+ private:
+  const std::vector<std::int64_t>& touchdowns(int limb) const {
+    return tracks_[static_cast<std::size_t>(limb)].touchdowns;
+  }
+
+  void fillLimbs(StrideRecord& s) const {
+    const std::size_t n = static_cast<std::size_t>(limbs_.size());
+    s.phase.assign(n, std::nullopt);
+    s.dutyFactor.assign(n, std::nullopt);
+    s.touchdownCount.assign(n, 0);
+    for (int limb = 0; limb < limbs_.size(); ++limb) {
+      const auto i = static_cast<std::size_t>(limb);
+      const WindowPhase wp = phaseInWindow(touchdowns(limb), s.startFrame, s.endFrame);
+      s.touchdownCount[i] = wp.touchdowns;
+      s.phase[i] = wp.phase;
+      if (!wp.first) continue;
+      const LimbCycle* cycle = cycleStartingAt(tracks_[i], *wp.first);
+      if (cycle && cycle->liftoff)
+        s.dutyFactor[i] = static_cast<double>(*cycle->stanceFrames()) /
+                          static_cast<double>(cycle->strideFrames());
+    }
+  }
+
+  // Phase of `target` in the cycle of `base` that starts first in the stride; falls back to the
+  // difference of their phases in the reference stride when that cycle is not usable.
+  std::optional<double> pairPhase(const StrideRecord& s, int base, int target) const {
+    const WindowPhase first = phaseInWindow(touchdowns(base), s.startFrame, s.endFrame);
+    if (first.first) {
+      if (const LimbCycle* c =
+              cycleStartingAt(tracks_[static_cast<std::size_t>(base)], *first.first)) {
+        const WindowPhase wp = phaseInWindow(touchdowns(target), c->touchdown, c->nextTouchdown);
+        if (wp.phase) return wp.phase;
+        if (wp.ambiguous()) return std::nullopt;
+      }
+    }
+    const auto& pb = s.phase[static_cast<std::size_t>(base)];
+    const auto& pt = s.phase[static_cast<std::size_t>(target)];
+    if (pb && pt) return wrapPhase(*pt - *pb);
+    return std::nullopt;
+  }
+
+  std::optional<double> meanDutyFactor(const StrideRecord& s,
+                                       std::initializer_list<int> limbs) const {
+    double sum = 0;
+    int n = 0;
+    for (int limb : limbs) {
+      if (const auto& df = s.dutyFactor[static_cast<std::size_t>(limb)]) {
+        sum += *df;
+        ++n;
+      }
+    }
+    if (n == 0) return std::nullopt;
+    return sum / n;
+  }
+
+  void classifyQuadruped(StrideRecord& s, double tau) const {
+    const int lf = *limbs_.at(Side::left, 0), rf = *limbs_.at(Side::right, 0);
+    const int lh = *limbs_.at(Side::left, 1), rh = *limbs_.at(Side::right, 1);
+    s.hindDutyFactor = meanDutyFactor(s, {lh, rh});
+    s.limbPhase = pairPhase(s, lh, lf);
+    const auto hindContra = pairPhase(s, lh, rh);
+    const auto foreContra = pairPhase(s, lf, rf);
+    if (hindContra && foreContra &&
+        isSymmetrical(*hindContra, *foreContra, options_.symmetryTolerance)) {
+      s.symmetrical = true;
+      if (!s.limbPhase || !s.hindDutyFactor) return;
+      s.band = hildebrandBand(*s.limbPhase);
+      s.quadrant = cartmillQuadrant(*s.limbPhase);
+      s.sequence = footfallSequence(*s.limbPhase);
+      s.gait = symmetricalQuadrupedGait(*s.band, *s.hindDutyFactor);
+      if (s.gait == "trot") fillDap(s, {{lh, rf}, {rh, lf}});
+      return;
+    }
+    const auto& p = s.phase;
+    const auto at = [&](int limb) { return p[static_cast<std::size_t>(limb)]; };
+    if (!at(lf) || !at(rf) || !at(lh) || !at(rh)) return;
+    const AsymmetricalGait g = classifyAsymmetrical({*at(lf), *at(rf), *at(lh), *at(rh)}, tau);
+    s.gait = g.gait;
+    s.lead = g.lead;
+    s.foreLag = g.foreLag;
+    s.hindLag = g.hindLag;
+    s.pairLag = g.pairLag;
+  }
+
+  void fillDap(StrideRecord& s, std::initializer_list<std::pair<int, int>> diagonals) const {
+    double ms = 0, percent = 0;
+    int n = 0;
+    for (const auto& [hind, fore] : diagonals) {
+      const WindowPhase h = phaseInWindow(touchdowns(hind), s.startFrame, s.endFrame);
+      if (!h.first) continue;
+      const auto f = nearestTouchdown(touchdowns(fore), *h.first);
+      if (!f) continue;
+      const AdvancedPlacement dap =
+          advancedPlacement(*h.first, *f, s.endFrame - s.startFrame, fps_);
+      ms += dap.ms;
+      percent += dap.percent;
+      ++n;
+    }
+    if (n == 0) return;
+    s.dapMs = ms / n;
+    s.dapPercent = percent / n;
+  }
+
+  void classifyBiped(StrideRecord& s, double tau) const {
+    const int l = *limbs_.at(Side::left, 0), r = *limbs_.at(Side::right, 0);
+    const auto contra = pairPhase(s, l, r);
+    const auto df = meanDutyFactor(s, {l, r});
+    if (!contra || !df) return;
+    s.symmetrical = circularDistance(*contra, 0.5) <= options_.symmetryTolerance + 1e-9;
+    s.gait = bipedGait(*contra, *df, tau, options_.symmetryTolerance);
+    if (s.gait == "skip") s.lead = *contra < 0.5 ? "right" : "left";
+  }
+
+  void classifyMultiPair(StrideRecord& s) const {
+    std::vector<double> phases;
+    phases.reserve(s.phase.size());
+    for (const auto& p : s.phase) {
+      if (!p) return;
+      phases.push_back(*p);
+    }
+    const TemplateMatch match = nearestTemplate(limbs_, phases);
+    s.gait = match.gait;
+    s.templateDistance = match.distance;
+    s.symmetrical = true;
+    for (int seg = 0; seg < limbs_.pairs(); ++seg) {
+      const auto l = limbs_.at(Side::left, seg), r = limbs_.at(Side::right, seg);
+      if (l && r &&
+          circularDistance(
+              phases[static_cast<std::size_t>(*r)] - phases[static_cast<std::size_t>(*l)], 0.5) >
+              options_.symmetryTolerance + 1e-9)
+        s.symmetrical = false;
+    }
+    if (const auto wave = ipsilateralWave(limbs_, phases, options_.asymmetricTau)) {
+      s.ipsilateralLag = wave->lag;
+      s.waveDirection = wave->direction;
+    }
+  }
+
+  const model::LimbSet& limbs_;
+  Rational fps_;
+  const AnalysisOptions& options_;
+  const std::vector<LimbTrack>& tracks_;
+  const SupportTimeline& timeline_;
+};
+
+}  // namespace
+
+Report analyse(const model::Annotation& annotation, const AnalysisOptions& options) {
+  const int reference = options.referenceLimb.value_or(annotation.referenceLimb);
+  checkOptions(annotation, options, reference);
+  Report report;
+  report.limbs = annotation.limbs;
+  report.fps = annotation.captureRate;
+  report.referenceLimb = reference;
+
+  CycleScan scan = scanCycles(annotation);
+  const SupportTimeline timeline(annotation.limbs, scan.tracks);
+  const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
+
+  const StrideBuilder builder(annotation, options, scan, timeline);
+  const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(reference)].cycles;
+  report.strides.reserve(referenceCycles.size());
+  for (const LimbCycle& cycle : referenceCycles) {
+    if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
+    report.strides.push_back(builder.build(cycle));
+  }
+
+  std::size_t cycleCount = 0;
+  for (const LimbTrack& t : scan.tracks) cycleCount += t.cycles.size();
+  report.cycles.reserve(cycleCount);
+  for (const LimbTrack& t : scan.tracks)
+    report.cycles.insert(report.cycles.end(), t.cycles.begin(), t.cycles.end());
+
+  report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
+  report.phase = summarisePhases(report.strides, annotation.limbs.size());
+  if (annotation.limbs.kind() == model::LimbSetKind::quadruped)
+    report.hildebrand = summariseHildebrand(report.strides);
+  const SupportShares overall = timeline.overall();
+  report.support = overall.byCount;
+  report.supportByCombination = overall.byCombination;
+  report.bouts = findBouts(report.strides);
+  report.transitions = findTransitions(report.bouts);
+  report.symmetry = summariseSymmetry(annotation.limbs, report.limbSummary);
+  report.speed = summariseSpeed(options.speedMs, options.legLengthM,
+                                report.limbSummary[static_cast<std::size_t>(reference)]);
+  report.problems = std::move(scan.problems);
+  return report;
+}
+
+Report analyse(const model::Project& project, const AnalysisOptions& options) {
+  AnalysisOptions merged = options;
+  if (!merged.speedMs) merged.speedMs = project.trial.speedMs;
+  if (!merged.legLengthM) merged.legLengthM = project.trial.legLengthM;
+  return analyse(project.annotation, merged);
+}
+
+}  // namespace stridemark::analysis

@@ -1,0 +1,256 @@
+#include "analysis/cycles.h"
+
+#include <algorithm>
+#include <string>
+
+namespace stridemark::analysis {
+namespace {
+
+using model::EventKind;
+
+struct Tag {
+  std::int64_t frame = 0;
+  EventKind kind = EventKind::touchdown;
+};
+
+enum class PairStatus { ok, occluded, bad };
+
+std::string describe(EventKind kind) {
+  return kind == EventKind::touchdown ? "touchdown" : "lift-off";
+}
+
+// Merged hidden spans of one limb as half-open intervals [first, last + 1).
+std::vector<StateInterval> hiddenIntervals(const model::Annotation& annotation, int limb,
+                                           std::vector<Problem>& problems) {
+  std::vector<StateInterval> spans;
+  for (const model::HiddenSpan& span : annotation.hidden) {
+    if (span.limb != limb) continue;
+    if (span.last < span.first) {
+      problems.push_back({span.first, limb,
+                          "hidden span of " + annotation.limbs.label(limb) + " ends (frame " +
+                              std::to_string(span.last) +
+                              ") before it starts; it was ignored - "
+                              "fix its first and last frame"});
+      continue;
+    }
+    spans.push_back({span.first, span.last + 1, false});
+  }
+  std::sort(spans.begin(), spans.end(),
+            [](const StateInterval& a, const StateInterval& b) { return a.first < b.first; });
+  std::vector<StateInterval> merged;
+  for (const StateInterval& s : spans) {
+    if (!merged.empty() && s.first <= merged.back().end) {
+      merged.back().end = std::max(merged.back().end, s.end);
+    } else {
+      merged.push_back(s);
+    }
+  }
+  return merged;
+}
+
+// True when any hidden interval overlaps frames [first, end).
+bool overlapsHidden(const std::vector<StateInterval>& hidden, std::int64_t first,
+                    std::int64_t end) {
+  auto it = std::upper_bound(hidden.begin(), hidden.end(), first,
+                             [](std::int64_t f, const StateInterval& s) { return f < s.end; });
+  return it != hidden.end() && it->first < end;
+}
+
+// Appends [first, end) minus the hidden intervals to `out`.
+void appendVisible(const std::vector<StateInterval>& hidden, StateInterval interval,
+                   std::vector<StateInterval>& out) {
+  auto it = std::upper_bound(hidden.begin(), hidden.end(), interval.first,
+                             [](std::int64_t f, const StateInterval& s) { return f < s.end; });
+  std::int64_t cursor = interval.first;
+  for (; it != hidden.end() && it->first < interval.end; ++it) {
+    if (it->first > cursor) out.push_back({cursor, it->first, interval.stance});
+    cursor = std::max(cursor, it->end);
+  }
+  if (cursor < interval.end) out.push_back({cursor, interval.end, interval.stance});
+}
+
+class LimbScanner {
+ public:
+  LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems)
+      : annotation_(annotation), limb_(limb), problems_(problems) {
+    hidden_ = hiddenIntervals(annotation, limb, problems);
+  }
+
+  LimbTrack scan(std::vector<Tag> tags) {
+    std::sort(tags.begin(), tags.end(), [](const Tag& a, const Tag& b) {
+      return a.frame != b.frame ? a.frame < b.frame : a.kind < b.kind;
+    });
+    tags = dropUnusable(tags);
+    orderSameFrame(tags);
+    const std::vector<PairStatus> status = checkPairs(tags);
+    buildCycles(tags, status);
+    for (const Tag& t : tags)
+      if (t.kind == EventKind::touchdown) track_.touchdowns.push_back(t.frame);
+    std::sort(track_.flagged.begin(), track_.flagged.end(),
+              [](const FlaggedSpan& a, const FlaggedSpan& b) { return a.first < b.first; });
+    return std::move(track_);
+  }
+
+ private:
+  const std::string& label() const { return annotation_.limbs.label(limb_); }
+
+  void report(std::int64_t frame, std::string message, std::int64_t flagFrom) {
+    problems_.push_back({frame, limb_, std::move(message)});
+    track_.flagged.push_back({flagFrom, frame});
+  }
+
+  // Duplicates, tags outside the clip and tags inside hidden spans are reported and ignored.
+  std::vector<Tag> dropUnusable(const std::vector<Tag>& tags) {
+    std::vector<Tag> kept;
+    kept.reserve(tags.size());
+    const auto& clip = annotation_.clip;
+    for (const Tag& t : tags) {
+      const std::string what =
+          describe(t.kind) + " of " + label() + " at frame " + std::to_string(t.frame);
+      if (!kept.empty() && kept.back().frame == t.frame && kept.back().kind == t.kind) {
+        report(t.frame, "duplicate " + what + "; delete one of the two tags", t.frame);
+      } else if (clip && (t.frame < clip->first || t.frame > clip->last)) {
+        report(t.frame,
+               what + " lies outside the clip (frames " + std::to_string(clip->first) + "-" +
+                   std::to_string(clip->last) + "); it was ignored - delete or move the tag",
+               t.frame);
+      } else if (overlapsHidden(hidden_, t.frame, t.frame + 1)) {
+        report(t.frame,
+               what + " lies inside a span where " + label() +
+                   " is marked hidden; it was ignored - delete the tag or shorten the span",
+               t.frame);
+      } else {
+        kept.push_back(t);
+      }
+    }
+    return kept;
+  }
+
+  // A touchdown and a lift-off on one frame: read them in the order the state implies (a limb
+  // in stance lifts off first), so the zero-length phase is the one reported.
+  static void orderSameFrame(std::vector<Tag>& tags) {
+    for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
+      if (tags[i].frame != tags[i + 1].frame) continue;
+      const bool inStance = i > 0 && tags[i - 1].kind == EventKind::touchdown;
+      if (inStance && tags[i].kind == EventKind::touchdown) std::swap(tags[i], tags[i + 1]);
+    }
+  }
+
+  std::vector<PairStatus> checkPairs(const std::vector<Tag>& tags) {
+    std::vector<PairStatus> status(tags.size() > 0 ? tags.size() - 1 : 0, PairStatus::ok);
+    for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
+      const Tag& a = tags[i];
+      const Tag& b = tags[i + 1];
+      const std::string at = " of " + label() + " at frame " + std::to_string(b.frame);
+      if (a.kind != b.kind) {
+        if (a.frame == b.frame) {
+          const bool stance = a.kind == EventKind::touchdown;
+          report(b.frame,
+                 std::string(stance ? "zero-length stance" : "zero-length swing") + at +
+                     (stance ? ": touchdown and lift-off" : ": lift-off and touchdown") +
+                     " on the same frame - move one of them",
+                 a.frame);
+          status[i] = PairStatus::bad;
+        } else {
+          appendVisible(hidden_, {a.frame, b.frame, a.kind == EventKind::touchdown}, track_.known);
+        }
+      } else if (overlapsHidden(hidden_, a.frame + 1, b.frame)) {
+        status[i] = PairStatus::occluded;  // the missing tag fell in a hidden span
+        addKnownAroundOcclusion(a, b);
+      } else {
+        status[i] = PairStatus::bad;
+        if (a.kind == EventKind::touchdown) {
+          report(b.frame,
+                 "second touchdown" + at + " inside the stance that began at frame " +
+                     std::to_string(a.frame) +
+                     "; tag the missing lift-off between them or delete one touchdown",
+                 a.frame);
+        } else {
+          report(b.frame,
+                 "lift-off" + at + " has no touchdown since the lift-off at frame " +
+                     std::to_string(a.frame) +
+                     "; tag the missing touchdown between them or delete one lift-off",
+                 a.frame);
+        }
+      }
+    }
+    return status;
+  }
+
+  // Two like tags around a hidden span: the state is known from the first tag up to the span
+  // and from the span up to the second tag.
+  void addKnownAroundOcclusion(const Tag& a, const Tag& b) {
+    auto first = std::upper_bound(hidden_.begin(), hidden_.end(), a.frame,
+                                  [](std::int64_t f, const StateInterval& s) { return f < s.end; });
+    const bool stanceAfterA = a.kind == EventKind::touchdown;
+    if (first->first > a.frame) track_.known.push_back({a.frame, first->first, stanceAfterA});
+    auto last =
+        std::lower_bound(hidden_.begin(), hidden_.end(), b.frame,
+                         [](const StateInterval& s, std::int64_t f) { return s.first < f; });
+    --last;  // the last span starting before b
+    if (last->end < b.frame) track_.known.push_back({last->end, b.frame, !stanceAfterA});
+  }
+
+  void buildCycles(const std::vector<Tag>& tags, const std::vector<PairStatus>& status) {
+    std::size_t next = 0;
+    for (std::size_t i = 0; i < tags.size(); ++i) {
+      if (tags[i].kind != EventKind::touchdown) continue;
+      next = std::max(next, i + 1);
+      while (next < tags.size() && tags[next].kind != EventKind::touchdown) ++next;
+      if (next >= tags.size()) break;
+      const bool clean = std::all_of(status.begin() + static_cast<std::ptrdiff_t>(i),
+                                     status.begin() + static_cast<std::ptrdiff_t>(next),
+                                     [](PairStatus s) { return s != PairStatus::bad; });
+      if (!clean) continue;
+      LimbCycle cycle{limb_, tags[i].frame, std::nullopt, tags[next].frame};
+      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
+        cycle.liftoff = tags[i + 1].frame;
+      track_.cycles.push_back(cycle);
+    }
+  }
+
+  const model::Annotation& annotation_;
+  int limb_;
+  std::vector<Problem>& problems_;
+  std::vector<StateInterval> hidden_;
+  LimbTrack track_;
+};
+
+}  // namespace
+
+CycleScan scanCycles(const model::Annotation& annotation) {
+  CycleScan scan;
+  const int limbCount = annotation.limbs.size();
+  std::vector<std::vector<Tag>> tags(static_cast<std::size_t>(limbCount));
+  for (const model::Event& e : annotation.events) {
+    if (e.limb < 0 || e.limb >= limbCount) {
+      scan.problems.push_back({e.frame, std::nullopt,
+                               "tag at frame " + std::to_string(e.frame) + " names limb #" +
+                                   std::to_string(e.limb) + ", which the " +
+                                   annotation.limbs.name() + " limb set does not have (" +
+                                   annotation.limbs.labelList() + "); it was ignored"});
+      continue;
+    }
+    tags[static_cast<std::size_t>(e.limb)].push_back({e.frame, e.kind});
+  }
+  scan.tracks.reserve(tags.size());
+  for (int limb = 0; limb < limbCount; ++limb) {
+    LimbScanner scanner(annotation, limb, scan.problems);
+    scan.tracks.push_back(scanner.scan(std::move(tags[static_cast<std::size_t>(limb)])));
+  }
+  std::stable_sort(scan.problems.begin(), scan.problems.end(),
+                   [](const Problem& a, const Problem& b) {
+                     if (a.frame != b.frame) return a.frame < b.frame;
+                     return a.limb.value_or(-1) < b.limb.value_or(-1);
+                   });
+  return scan;
+}
+
+const LimbCycle* cycleStartingAt(const LimbTrack& track, std::int64_t touchdown) {
+  auto it = std::lower_bound(track.cycles.begin(), track.cycles.end(), touchdown,
+                             [](const LimbCycle& c, std::int64_t f) { return c.touchdown < f; });
+  if (it == track.cycles.end() || it->touchdown != touchdown) return nullptr;
+  return &*it;
+}
+
+}  // namespace stridemark::analysis

@@ -1,0 +1,153 @@
+#include "analysis/gait.h"
+
+#include <cmath>
+#include <limits>
+
+#include "analysis/circular.h"
+
+namespace stridemark::analysis {
+namespace {
+
+using model::Side;
+
+// A pair's first and second touchdown, and the lag between them (cycles, <= 0.5).
+struct Couplet {
+  Side first = Side::left;
+  Side second = Side::right;
+  double firstPhase = 0;
+  double lag = 0;
+};
+
+Couplet couplet(double left, double right) {
+  const double rightAfterLeft = wrapPhase(right - left);
+  if (rightAfterLeft <= 0.5) return {Side::left, Side::right, left, rightAfterLeft};
+  return {Side::right, Side::left, right, 1.0 - rightAfterLeft};
+}
+
+std::string sideName(Side side) {
+  return side == Side::left ? "left" : "right";
+}
+
+double phaseOf(Side side, double left, double right) {
+  return side == Side::left ? left : right;
+}
+
+}  // namespace
+
+std::string symmetricalQuadrupedGait(const std::string& band, double hindDutyFactor) {
+  if (band == "trot") return "trot";
+  if (band == "pace") return "pace";
+  return hindDutyFactor >= 0.5 ? "walk" : "amble";
+}
+
+AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& p, double tau) {
+  const Couplet fore = couplet(p.lf, p.rf);
+  const Couplet hind = couplet(p.lh, p.rh);
+  AsymmetricalGait out;
+  out.foreLag = fore.lag;
+  out.hindLag = hind.lag;
+  out.pairLag = wrapPhase(hind.firstPhase - fore.firstPhase);
+  const bool foreTogether = fore.lag < tau;
+  const bool hindTogether = hind.lag < tau;
+  if (foreTogether && hindTogether) {
+    out.gait = circularDistance(hind.firstPhase, fore.firstPhase) < tau ? "pronk" : "bound";
+    return out;
+  }
+  out.lead = sideName(fore.second);
+  if (hindTogether) {
+    out.gait = "half-bound";
+    return out;
+  }
+  const double leadHind = phaseOf(hind.second, p.lh, p.rh);
+  const double trailFore = phaseOf(fore.first, p.lf, p.rf);
+  if (circularDistance(leadHind, trailFore) < tau) {
+    out.gait = "canter";
+    return out;
+  }
+  out.gait = hind.second == fore.second ? "transverse gallop" : "rotary gallop";
+  return out;
+}
+
+std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double tau,
+                      double symmetryTolerance) {
+  if (circularDistance(rightPhaseRelLeft, 0.0) < tau) return "hop";
+  if (circularDistance(rightPhaseRelLeft, 0.5) <= symmetryTolerance + 1e-9)
+    return meanDutyFactor >= 0.5 ? "walk" : "run";
+  return "skip";
+}
+
+std::vector<GaitTemplate> coordinationTemplates(const model::LimbSet& limbs) {
+  // Each template: left leg of segment s (0 = front) lands `lag` after the leg behind it, the
+  // right leg of the segment `contra` after the left one (METHODS §4.2, generalised to N pairs).
+  const int pairs = limbs.pairs();
+  struct Form {
+    const char* gait;
+    double lag;
+    double contra;
+  };
+  const double waveLag = 1.0 / (2.0 * pairs);
+  const Form forms[] = {
+      {"tripod", 0.5, 0.5},
+      {"tetrapod", 1.0 / 3.0, 1.0 / 3.0},
+      {"tetrapod", 1.0 / 3.0, 2.0 / 3.0},
+      {"tetrapod", 1.0 / 3.0, 0.5},
+      {"tetrapod", 2.0 / 3.0, 1.0 / 3.0},
+      {"tetrapod", 2.0 / 3.0, 2.0 / 3.0},
+      {"tetrapod", 2.0 / 3.0, 0.5},
+      {"wave", waveLag, 0.5},
+      {"wave", -waveLag, 0.5},
+  };
+  std::vector<GaitTemplate> out;
+  for (const Form& form : forms) {
+    GaitTemplate t{form.gait, std::vector<double>(static_cast<std::size_t>(limbs.size()))};
+    for (int i = 0; i < limbs.size(); ++i) {
+      const model::Limb& limb = limbs.limb(i);
+      const double left = (pairs - 1 - limb.segment) * form.lag;
+      t.offsets[static_cast<std::size_t>(i)] =
+          wrapPhase(limb.side == Side::left ? left : left + form.contra);
+    }
+    out.push_back(std::move(t));
+  }
+  return out;
+}
+
+TemplateMatch nearestTemplate(const model::LimbSet& limbs, std::span<const double> phases) {
+  TemplateMatch best;
+  best.distance = std::numeric_limits<double>::infinity();
+  std::vector<double> residual(phases.size());
+  for (const GaitTemplate& t : coordinationTemplates(limbs)) {
+    for (std::size_t i = 0; i < phases.size(); ++i) residual[i] = phases[i] - t.offsets[i];
+    const double shift = circularMean(residual, 1.0);
+    if (std::isnan(shift)) continue;
+    double sum = 0;
+    for (double r : residual) sum += circularDistance(r, shift);
+    const double distance = sum / static_cast<double>(phases.size());
+    if (distance < best.distance - 1e-12) best = {t.gait, distance};
+  }
+  if (!std::isfinite(best.distance)) return {};
+  return best;
+}
+
+std::optional<IpsilateralWave> ipsilateralWave(const model::LimbSet& limbs,
+                                               std::span<const double> phases, double tolerance) {
+  std::vector<double> lags;
+  for (Side side : {Side::left, Side::right}) {
+    for (int s = 0; s + 1 < limbs.pairs(); ++s) {
+      const auto front = limbs.at(side, s);
+      const auto back = limbs.at(side, s + 1);
+      if (!front || !back) continue;
+      lags.push_back(phases[static_cast<std::size_t>(*front)] -
+                     phases[static_cast<std::size_t>(*back)]);
+    }
+  }
+  if (lags.empty()) return std::nullopt;
+  const double mean = circularMean(lags, 1.0);
+  if (std::isnan(mean)) return std::nullopt;
+  IpsilateralWave out{mean, std::nullopt};
+  const double centred = centredPhase(mean);
+  if (std::abs(centred) > tolerance && 0.5 - std::abs(centred) > tolerance)
+    out.direction = centred > 0 ? "direct" : "retrograde";
+  return out;
+}
+
+}  // namespace stridemark::analysis

@@ -1,0 +1,61 @@
+#pragma once
+// Gait labels per stride (METHODS.md team decisions, §2.3, §3.3, §4): quadruped symmetrical and
+// asymmetrical gaits with the lead, biped walk/run/hop/skip, and nearest-template labels with
+// the ipsilateral wave for hexapods and multi-pair sets.
+#include <optional>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "model/limb_set.h"
+
+namespace stridemark::analysis {
+
+// Symmetrical quadruped stride: band trot -> trot, band pace -> pace, else walk (hind DF >= 0.5)
+// or amble.
+std::string symmetricalQuadrupedGait(const std::string& band, double hindDutyFactor);
+
+// Touchdown phases of one asymmetrical stride, in cycles of a common stride.
+struct QuadrupedPhases {
+  double lf = 0, rf = 0, lh = 0, rh = 0;
+};
+
+struct AsymmetricalGait {
+  std::string gait;                 // pronk, bound, half-bound, canter, transverse/rotary gallop
+  std::optional<std::string> lead;  // leading forelimb "left"/"right" (second fore down)
+  double foreLag = 0, hindLag = 0, pairLag = 0;  // FL, HL, PL of METHODS §3.2, cycles
+};
+
+// The operational classifier of METHODS §3.3; `tau` in cycles of the stride.
+AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& phases, double tau);
+
+// Biped: hop when the feet land together (within tau), walk/run when the right foot lands half a
+// stride after the left (within symmetryTolerance; walk when mean DF >= 0.5), else skip.
+std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double tau,
+                      double symmetryTolerance);
+
+// Template touchdown offsets per limb (limb-set order) for hexapods and multi-pair sets.
+struct GaitTemplate {
+  std::string gait;  // tripod, tetrapod, wave
+  std::vector<double> offsets;
+};
+std::vector<GaitTemplate> coordinationTemplates(const model::LimbSet& limbs);
+
+struct TemplateMatch {
+  std::string gait = "unclassified";
+  double distance = 0;  // mean circular distance (cycles) after the best common shift
+};
+// Nearest template by circular distance; phases per limb in limb-set order.
+TemplateMatch nearestTemplate(const model::LimbSet& limbs, std::span<const double> phases);
+
+struct IpsilateralWave {
+  double lag = 0;                        // anterior minus posterior neighbour, cycles [0, 1)
+  std::optional<std::string> direction;  // "direct" (back to front), "retrograde"
+};
+// Circular mean of the lag between neighbouring legs of a side (METHODS §4.3). Null when the
+// set has fewer than two segments or the lags cancel out.
+std::optional<IpsilateralWave> ipsilateralWave(const model::LimbSet& limbs,
+                                               std::span<const double> phases,
+                                               double tolerance = 0.05);
+
+}  // namespace stridemark::analysis

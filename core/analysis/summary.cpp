@@ -1,0 +1,122 @@
+#include "analysis/summary.h"
+
+#include <cmath>
+
+#include "analysis/circular.h"
+#include "analysis/hildebrand.h"
+#include "analysis/speed.h"
+#include "analysis/stats.h"
+#include "analysis/symmetry.h"
+
+namespace stridemark::analysis {
+
+std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
+  std::vector<LimbSummary> out;
+  std::vector<double> stride, stance, swing, duty;
+  for (const LimbTrack& track : tracks) {
+    stride.clear();
+    stance.clear();
+    swing.clear();
+    duty.clear();
+    for (const LimbCycle& c : track.cycles) {
+      stride.push_back(framesToSeconds(c.strideFrames(), fps));
+      if (!c.liftoff) continue;
+      stance.push_back(framesToSeconds(*c.stanceFrames(), fps));
+      swing.push_back(framesToSeconds(c.nextTouchdown - *c.liftoff, fps));
+      duty.push_back(static_cast<double>(*c.stanceFrames()) /
+                     static_cast<double>(c.strideFrames()));
+    }
+    LimbSummary s;
+    s.strides = static_cast<int>(track.cycles.size());
+    s.strideS = describe(stride);
+    s.stanceS = describe(stance);
+    s.swingS = describe(swing);
+    s.dutyFactor = describe(duty);
+    out.push_back(s);
+  }
+  return out;
+}
+
+std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strides, int limbCount) {
+  std::vector<PhaseSummary> out;
+  std::vector<double> phases;
+  for (int limb = 0; limb < limbCount; ++limb) {
+    phases.clear();
+    for (const StrideRecord& s : strides)
+      if (const auto& p = s.phase[static_cast<std::size_t>(limb)]) phases.push_back(*p);
+    const CircularStats c = circularStats(phases);
+    PhaseSummary p;
+    p.n = c.n;
+    if (c.n > 0) {
+      p.r = c.r;
+      p.angularDeviation = c.angularDev;
+      p.rayleighZ = c.rayleighZ;
+      p.rayleighP = c.rayleighP;
+      if (c.defined) {
+        p.mean = c.mean;
+        p.circSd = c.circSd;
+      }
+    }
+    out.push_back(p);
+  }
+  return out;
+}
+
+std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides) {
+  std::vector<double> phases;
+  double dutySum = 0;
+  for (const StrideRecord& s : strides) {
+    if (!s.symmetrical || !s.limbPhase || !s.hindDutyFactor) continue;
+    phases.push_back(*s.limbPhase);
+    dutySum += *s.hindDutyFactor;
+  }
+  if (phases.empty()) return std::nullopt;
+  HildebrandSummary out;
+  out.dutyFactor = dutySum / static_cast<double>(phases.size());
+  out.limbPhase = circularMean(phases, 1.0);
+  if (std::isnan(out.limbPhase)) return out;
+  out.band = hildebrandBand(out.limbPhase);
+  out.quadrant = cartmillQuadrant(out.limbPhase).value_or("");
+  return out;
+}
+
+namespace {
+
+void addPair(SymmetryValues& values, const std::string& name, const Stat& left, const Stat& right) {
+  if (left.n == 0 || right.n == 0 || left.mean + right.mean == 0 || left.mean == 0) return;
+  values.si[name] = symmetryIndex(right.mean, left.mean);
+  values.ratio[name] = symmetryRatio(right.mean, left.mean);
+}
+
+}  // namespace
+
+Symmetry summariseSymmetry(const model::LimbSet& limbs,
+                           const std::vector<LimbSummary>& limbSummary) {
+  Symmetry out;
+  for (const LimbPair& pair : leftRightPairs(limbs)) {
+    const LimbSummary& l = limbSummary[static_cast<std::size_t>(pair.left)];
+    const LimbSummary& r = limbSummary[static_cast<std::size_t>(pair.right)];
+    addPair(out.strideS, pair.name, l.strideS, r.strideS);
+    addPair(out.stanceS, pair.name, l.stanceS, r.stanceS);
+    addPair(out.swingS, pair.name, l.swingS, r.swingS);
+    addPair(out.dutyFactor, pair.name, l.dutyFactor, r.dutyFactor);
+  }
+  return out;
+}
+
+std::optional<SpeedSummary> summariseSpeed(std::optional<double> speedMs,
+                                           std::optional<double> legLengthM,
+                                           const LimbSummary& reference) {
+  if (!speedMs) return std::nullopt;
+  SpeedSummary out;
+  out.ms = *speedMs;
+  if (reference.strideS.n > 0) out.strideLengthM = strideLength(*speedMs, reference.strideS.mean);
+  if (legLengthM) {
+    out.froude = froudeNumber(*speedMs, *legLengthM);
+    out.dimensionlessSpeed = dimensionlessSpeed(*speedMs, *legLengthM);
+    if (!std::isnan(out.strideLengthM)) out.relativeStrideLength = out.strideLengthM / *legLengthM;
+  }
+  return out;
+}
+
+}  // namespace stridemark::analysis
