@@ -1,0 +1,117 @@
+#include "formats/file_io.h"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <memory>
+#include <vector>
+
+#include "common/error.h"
+
+namespace stridemark::formats {
+namespace {
+
+struct FileCloser {
+  void operator()(std::FILE* f) const { std::fclose(f); }
+};
+using FileHandle = std::unique_ptr<std::FILE, FileCloser>;
+
+std::string systemReason(int errorNumber) {
+  return std::strerror(errorNumber);
+}
+
+// Syncs a folder so a rename inside it survives a power cut. Best effort: some file systems
+// refuse to open folders for reading, and the rename itself has already succeeded.
+void syncFolder(const std::filesystem::path& folder) {
+  const int fd = ::open(folder.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+  if (fd < 0) return;
+  ::fsync(fd);
+  ::close(fd);
+}
+
+}  // namespace
+
+std::string readWholeFile(const std::filesystem::path& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) {
+    throw Error(ErrorCategory::io,
+                path.string() + ": is a folder, not a file — give the path of the file itself");
+  }
+  FileHandle file(std::fopen(path.c_str(), "rb"));
+  if (!file) {
+    throw Error(ErrorCategory::io, path.string() + ": cannot open (" + systemReason(errno) +
+                                       ") — check the path and the file's permissions");
+  }
+  std::string content;
+  std::vector<char> chunk(1 << 20);
+  while (true) {
+    const std::size_t got = std::fread(chunk.data(), 1, chunk.size(), file.get());
+    content.append(chunk.data(), got);
+    if (got < chunk.size()) break;
+  }
+  if (std::ferror(file.get())) {
+    throw Error(ErrorCategory::io, path.string() + ": read failed (" + systemReason(errno) +
+                                       ") — check the disk or copy the file elsewhere");
+  }
+  return content;
+}
+
+AtomicFile::AtomicFile(std::filesystem::path target) : target_(std::move(target)) {
+  std::filesystem::path folder = target_.parent_path();
+  if (folder.empty()) folder = ".";
+  std::string pattern = (folder / target_.filename()).string() + ".tmp-XXXXXX";
+  std::vector<char> name(pattern.begin(), pattern.end());
+  name.push_back('\0');
+  fd_ = ::mkstemp(name.data());
+  if (fd_ < 0) fail("cannot create a temporary file in its folder", errno);
+  temp_ = name.data();
+  // mkstemp creates 0600; keep the old file's mode, or use the usual 0644 for a new one.
+  struct stat old {};
+  const mode_t mode = ::stat(target_.c_str(), &old) == 0 ? (old.st_mode & 07777) : 0644;
+  ::fchmod(fd_, mode);
+}
+
+AtomicFile::~AtomicFile() {
+  if (fd_ >= 0) ::close(fd_);
+  if (!committed_ && !temp_.empty()) ::unlink(temp_.c_str());
+}
+
+void AtomicFile::fail(std::string_view what, int errorNumber) {
+  throw Error(ErrorCategory::io, target_.string() + ": " + std::string(what) + " (" +
+                                     systemReason(errorNumber) +
+                                     ") — the previous file, if any, is unchanged; check the "
+                                     "folder's permissions and free space");
+}
+
+void AtomicFile::write(std::string_view bytes) {
+  while (!bytes.empty()) {
+    const ssize_t wrote = ::write(fd_, bytes.data(), bytes.size());
+    if (wrote < 0) {
+      if (errno == EINTR) continue;
+      fail("write failed", errno);
+    }
+    bytes.remove_prefix(static_cast<std::size_t>(wrote));
+  }
+}
+
+void AtomicFile::commit() {
+  if (::fsync(fd_) != 0) fail("could not flush to disk", errno);
+  const int closed = ::close(fd_);
+  fd_ = -1;
+  if (closed != 0) fail("could not close the temporary file", errno);
+  if (::rename(temp_.c_str(), target_.c_str()) != 0) fail("could not replace the file", errno);
+  committed_ = true;
+  syncFolder(target_.parent_path().empty() ? std::filesystem::path(".") : target_.parent_path());
+}
+
+void writeFileAtomically(const std::filesystem::path& path, std::string_view content) {
+  AtomicFile file(path);
+  file.write(content);
+  file.commit();
+}
+
+}  // namespace stridemark::formats

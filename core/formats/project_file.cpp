@@ -1,0 +1,215 @@
+#include "formats/project_file.h"
+
+#include <algorithm>
+
+#include "common/error.h"
+#include "formats/file_io.h"
+#include "formats/json_in.h"
+
+namespace stridemark::formats {
+namespace {
+
+using Json = nlohmann::ordered_json;
+
+Json optionalNumber(const std::optional<double>& value) {
+  return value ? Json(*value) : Json(nullptr);
+}
+
+Json trialJson(const model::TrialCard& trial) {
+  return Json{{"subject", trial.subject},
+              {"species", trial.species},
+              {"condition", trial.condition},
+              {"observer", trial.observer},
+              {"notes", trial.notes},
+              {"speed_m_s", optionalNumber(trial.speedMs)},
+              {"speed_source", trial.speedSource},
+              {"leg_length_m", optionalNumber(trial.legLengthM)}};
+}
+
+Json videoJson(const std::optional<model::VideoLink>& video) {
+  if (!video) return nullptr;
+  return Json{
+      {"path", video->path},
+      {"signature", video->signature},
+      {"frame_count", video->frameCount},
+      {"file_rate", video->fileRate.valid() ? Json(toString(video->fileRate)) : Json(nullptr)}};
+}
+
+// ---- reading ----
+
+std::string textOr(const JsonIn& object, std::string_view key, std::string fallback = {}) {
+  const auto value = object.find(key);
+  return value ? value->text() : fallback;
+}
+
+Rational rateAt(const JsonIn& value) {
+  try {
+    return parseRate(value.text(), "rate");
+  } catch (const Error& e) {
+    value.fail(e.what());
+  }
+}
+
+int limbAt(const JsonIn& value, const model::LimbSet& limbs) {
+  const std::string label = value.text();
+  const auto index = limbs.indexOf(label);
+  if (!index) {
+    value.fail("unknown limb '" + label + "' for limb set " + limbs.name() + " — use one of " +
+               limbs.labelList());
+  }
+  return *index;
+}
+
+std::int64_t frameAt(const JsonIn& value) {
+  const std::int64_t frame = value.integer();
+  if (frame < 0)
+    value.fail("frame " + std::to_string(frame) + " is negative — frames count from 0");
+  return frame;
+}
+
+std::optional<double> positiveOrNull(const JsonIn& object, std::string_view key) {
+  const auto value = object.find(key);
+  if (!value) return std::nullopt;
+  const double number = value->number();
+  if (number <= 0) value->fail("expected a positive number or null");
+  return number;
+}
+
+model::TrialCard readTrial(const JsonIn& in) {
+  model::TrialCard trial;
+  trial.subject = textOr(in, "subject");
+  trial.species = textOr(in, "species");
+  trial.condition = textOr(in, "condition");
+  trial.observer = textOr(in, "observer");
+  trial.notes = textOr(in, "notes");
+  trial.speedMs = positiveOrNull(in, "speed_m_s");
+  trial.speedSource = textOr(in, "speed_source", "belt");
+  if (trial.speedSource != "belt" && trial.speedSource != "ground") {
+    in.at("speed_source").fail("expected \"belt\" or \"ground\"");
+  }
+  trial.legLengthM = positiveOrNull(in, "leg_length_m");
+  return trial;
+}
+
+model::VideoLink readVideo(const JsonIn& in) {
+  model::VideoLink video;
+  video.path = in.at("path").text();
+  video.signature = textOr(in, "signature");
+  if (const auto frames = in.find("frame_count")) {
+    video.frameCount = frames->integer();
+    if (video.frameCount < 0) frames->fail("expected 0 or more frames");
+  }
+  if (const auto rate = in.find("file_rate")) video.fileRate = rateAt(*rate);
+  return video;
+}
+
+void readEvents(const JsonIn& in, model::Annotation& annotation) {
+  const std::size_t n = in.arraySize();
+  annotation.events.reserve(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    const JsonIn item = in.at(i);
+    model::Event event;
+    event.limb = limbAt(item.at("limb"), annotation.limbs);
+    const JsonIn word = item.at("event");
+    const auto kind = model::parseEventWord(word.text());
+    if (!kind) word.fail("unknown event '" + word.text() + "' — use touchdown or liftoff");
+    event.kind = *kind;
+    event.frame = frameAt(item.at("frame"));
+    annotation.events.push_back(event);
+  }
+}
+
+void readHidden(const JsonIn& in, model::Annotation& annotation) {
+  for (std::size_t i = 0; i < in.arraySize(); ++i) {
+    const JsonIn item = in.at(i);
+    model::HiddenSpan span;
+    span.limb = limbAt(item.at("limb"), annotation.limbs);
+    span.first = frameAt(item.at("first"));
+    span.last = frameAt(item.at("last"));
+    if (span.last < span.first) item.at("last").fail("last frame is before the first frame");
+    annotation.hidden.push_back(span);
+  }
+}
+
+model::Project readCurrent(const JsonIn& root) {
+  const JsonIn schema = root.at("schema");
+  if (schema.text() != kProjectSchema) {
+    schema.fail("expected \"" + std::string(kProjectSchema) + "\"");
+  }
+  model::Project project;
+  model::Annotation& annotation = project.annotation;
+  try {
+    annotation.limbs = model::LimbSet::fromName(root.at("limb_set").text());
+  } catch (const Error& e) {
+    root.at("limb_set").fail(e.what());
+  }
+  annotation.captureRate = rateAt(root.at("capture_rate"));
+  const auto reference = root.find("reference_limb");
+  annotation.referenceLimb =
+      reference ? limbAt(*reference, annotation.limbs) : annotation.limbs.defaultReference();
+  if (const auto clip = root.find("clip")) {
+    const model::FrameRange range{frameAt(clip->at("first")), frameAt(clip->at("last"))};
+    if (range.last < range.first) clip->at("last").fail("last frame is before the first frame");
+    annotation.clip = range;
+  }
+  if (const auto trial = root.find("trial")) project.trial = readTrial(*trial);
+  if (const auto video = root.find("video")) project.video = readVideo(*video);
+  readEvents(root.at("events"), annotation);
+  if (const auto hidden = root.find("hidden")) readHidden(*hidden, annotation);
+  annotation.normalize();
+  return project;
+}
+
+}  // namespace
+
+std::string projectJsonText(const model::Project& project) {
+  const model::Annotation& annotation = project.annotation;
+  Json events = Json::array();
+  std::vector<model::Event> sorted = annotation.events;
+  std::sort(sorted.begin(), sorted.end());
+  for (const auto& event : sorted) {
+    events.push_back({{"limb", annotation.limbs.label(event.limb)},
+                      {"event", std::string(model::eventWord(event.kind))},
+                      {"frame", event.frame}});
+  }
+  Json hidden = Json::array();
+  for (const auto& span : annotation.hidden) {
+    hidden.push_back(
+        {{"limb", annotation.limbs.label(span.limb)}, {"first", span.first}, {"last", span.last}});
+  }
+  Json document{{"schema", std::string(kProjectSchema)},
+                {"schema_version", model::Project::kSchemaVersion},
+                {"limb_set", annotation.limbs.name()},
+                {"reference_limb", annotation.limbs.label(annotation.referenceLimb)},
+                {"capture_rate", toString(annotation.captureRate)},
+                {"clip", annotation.clip ? Json{{"first", annotation.clip->first},
+                                                {"last", annotation.clip->last}}
+                                         : Json(nullptr)},
+                {"trial", trialJson(project.trial)},
+                {"video", videoJson(project.video)},
+                {"events", std::move(events)},
+                {"hidden", std::move(hidden)}};
+  return document.dump(1) + "\n";
+}
+
+void writeProjectFile(const std::filesystem::path& path, const model::Project& project) {
+  writeFileAtomically(path, projectJsonText(project));
+}
+
+model::Project parseProjectJson(std::string_view text, std::string_view fileName) {
+  nlohmann::json document = parseJsonText(text, fileName);
+  int version = projectSchemaVersion(document, fileName);
+  const auto& steps = projectMigrations();
+  while (version < model::Project::kSchemaVersion) {
+    steps.at(static_cast<std::size_t>(version))(document, fileName);
+    ++version;
+  }
+  return readCurrent(JsonIn(document, fileName));
+}
+
+model::Project readProjectFile(const std::filesystem::path& path) {
+  const std::string text = readWholeFile(path);
+  return parseProjectJson(text, path.string());
+}
+
+}  // namespace stridemark::formats

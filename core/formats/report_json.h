@@ -1,0 +1,33 @@
+#pragma once
+// The report JSON, schema stridemark.report.v1, exactly as DESIGN §5. Numbers that are
+// undefined (NaN in analysis::Report) are written as null.
+//
+// Additions beyond DESIGN §5 live under one top-level key, "extra":
+//   caution, fps_exact (rational text), phase.<limb>.{angular_deviation, rayleigh_z},
+//   hildebrand.quadrant, support_by_combination, symmetry.stride_s, symmetry.ratio.<measure>,
+//   speed.dimensionless_speed, strides[i].{quadrant, hind_duty_factor, limb_phase, dap_ms,
+//   dap_percent, ipsilateral_lag, wave_direction} (parallel to "strides").
+#include <filesystem>
+#include <string>
+#include <string_view>
+
+#include "analysis/report.h"
+#include "formats/json_out.h"
+
+namespace stridemark::formats {
+
+inline constexpr std::string_view kReportSchema = "stridemark.report.v1";
+inline constexpr std::string_view kCaution =
+    "Gait measurements support, and never replace, examination by a licensed veterinarian; "
+    "defer to local practice and regulations for animal handling.";
+
+void writeReportJson(const analysis::Report& report, JsonOut& out);
+std::string reportJsonText(const analysis::Report& report);
+// Atomic: a failed write leaves an existing file unchanged.
+void writeReportJsonFile(const std::filesystem::path& path, const analysis::Report& report);
+
+// Reader (tests, later export). Per-limb cycles are not part of the JSON and stay empty.
+analysis::Report parseReportJson(std::string_view text, std::string_view fileName);
+analysis::Report readReportJsonFile(const std::filesystem::path& path);
+
+}  // namespace stridemark::formats
