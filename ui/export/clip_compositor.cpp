@@ -1,0 +1,223 @@
+#include "ui/export/clip_compositor.h"
+
+#include <QPainter>
+#include <condition_variable>
+#include <deque>
+#include <exception>
+#include <mutex>
+#include <optional>
+#include <thread>
+
+#include "common/error.h"
+#include "video/convert.h"
+#include "video/encoder.h"
+#include "video/frame_index.h"
+#include "video/frame_reader.h"
+
+namespace stridemark::ui::exports {
+
+namespace {
+
+constexpr std::size_t kQueueDepth = 4;  // images in flight between the two threads
+
+int evenUp(int v) {
+  return v + (v % 2);
+}
+
+Error cancelledError() {
+  return Error(ErrorCategory::export_, "marked-clip export cancelled; no clip was written.");
+}
+
+// Images travel worker -> encoder through `ready` and come back through `spare`, so the
+// pipeline allocates kQueueDepth images once instead of one per frame.
+class ImageQueue {
+ public:
+  struct Item {
+    QImage image;
+    std::int64_t frame = 0;
+  };
+
+  ImageQueue(QSize size, std::size_t depth) {
+    for (std::size_t i = 0; i < depth; ++i) {
+      QImage image(size, QImage::Format_RGBA8888);
+      image.fill(Qt::black);
+      spare_.push_back(std::move(image));
+    }
+  }
+
+  // Worker side. Returns nothing when the queue was closed (cancel or encoder failure).
+  std::optional<QImage> takeSpare() {
+    std::unique_lock lock(mutex_);
+    changed_.wait(lock, [&] { return closed_ || !spare_.empty(); });
+    if (closed_) return std::nullopt;
+    QImage image = std::move(spare_.front());
+    spare_.pop_front();
+    return image;
+  }
+  void pushReady(Item item) {
+    std::lock_guard lock(mutex_);
+    ready_.push_back(std::move(item));
+    changed_.notify_all();
+  }
+  // Encoder side. Returns nothing when the worker is done and everything was taken.
+  std::optional<Item> takeReady() {
+    std::unique_lock lock(mutex_);
+    changed_.wait(lock, [&] { return !ready_.empty() || producerDone_; });
+    if (ready_.empty()) return std::nullopt;
+    Item item = std::move(ready_.front());
+    ready_.pop_front();
+    return item;
+  }
+  void giveBack(QImage image) {
+    std::lock_guard lock(mutex_);
+    spare_.push_back(std::move(image));
+    changed_.notify_all();
+  }
+  void producerFinished() {
+    std::lock_guard lock(mutex_);
+    producerDone_ = true;
+    changed_.notify_all();
+  }
+  void close() {
+    std::lock_guard lock(mutex_);
+    closed_ = true;
+    changed_.notify_all();
+  }
+
+ private:
+  std::mutex mutex_;
+  std::condition_variable changed_;
+  std::deque<QImage> spare_;
+  std::deque<Item> ready_;
+  bool producerDone_ = false;
+  bool closed_ = false;
+};
+
+struct Layout {
+  QSize output;      // encoded size (even)
+  QRectF videoArea;  // where the frame goes
+  QRectF panelArea;  // side panel, empty when none
+};
+
+Layout layoutFor(int width, int height, const ClipSettings& s) {
+  Layout l;
+  l.videoArea = QRectF(0, 0, width, height);
+  int total = width;
+  if (s.sidePanel) {
+    const int panel = evenUp(static_cast<int>(height * s.sidePanelWidthShare));
+    l.panelArea = QRectF(width, 0, panel, height);
+    total += panel;
+  }
+  l.output = QSize(evenUp(total), evenUp(height));
+  return l;
+}
+
+// Worker: decode the span, convert each frame into a recycled RGBA image and draw on it.
+void produceFrames(video::FrameReader& reader, const ClipSettings& s, const Layout& layout,
+                   const OverlayModel& overlay, ImageQueue& queue,
+                   const std::atomic<bool>& cancel) {
+  video::FrameConverter converter;
+  reader.decodeSpan(s.first, s.last, [&](video::DecodedFrame&& frame) {
+    if (cancel.load()) return false;
+    std::optional<QImage> image = queue.takeSpare();
+    if (!image) return false;
+    converter.convert(frame, video::PackedFormat::rgba, image->bits(),
+                      static_cast<int>(image->bytesPerLine()));
+    QPainter painter(&*image);
+    if (s.sidePanel) {
+      painter.fillRect(layout.panelArea, Qt::white);
+      s.sidePanel(painter, layout.panelArea, frame.index());
+    }
+    if (s.drawOverlay) drawOverlay(painter, layout.videoArea, overlay, frame.index());
+    painter.end();
+    queue.pushReady({std::move(*image), frame.index()});
+    return true;
+  });
+}
+
+}  // namespace
+
+Rational defaultPlaybackRate(Rational captureRate) {
+  if (captureRate.valid() && captureRate.toDouble() > 60.0) return Rational{30, 1};
+  return captureRate.valid() ? captureRate : Rational{30, 1};
+}
+
+ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
+                            const std::filesystem::path& outPath, const ClipProgress& progress,
+                            const std::atomic<bool>& cancel) {
+  auto index =
+      s.index ? s.index
+              : std::make_shared<const video::FrameIndex>(video::FrameIndex::build(s.videoPath));
+  const std::int64_t count = index->frameCount();
+  if (count == 0) {
+    throw Error(ErrorCategory::export_, "video '" + s.videoPath + "' has no frames to export.");
+  }
+  if (s.first < 0 || s.last < s.first || s.last >= count) {
+    throw Error(ErrorCategory::export_,
+                "frame range " + std::to_string(s.first) + "-" + std::to_string(s.last) +
+                    " is outside the video '" + s.videoPath + "' (frames 0-" +
+                    std::to_string(count - 1) + "). Choose --from/--to inside it.");
+  }
+  video::ReaderOptions readerOptions;
+  readerOptions.decodeThreads = s.decoderThreads;
+  video::FrameReader reader(s.videoPath, index, readerOptions);
+  // The first frame tells us the size (and fails early on an undecodable file).
+  const video::DecodedFrame probe = reader.frameAt(s.first);
+  const Layout layout = layoutFor(probe.width(), probe.height(), s);
+
+  video::EncoderOptions options;
+  options.path = outPath;
+  options.width = layout.output.width();
+  options.height = layout.output.height();
+  options.fileRate = s.playbackRate;
+  options.codec = video::VideoCodec::h264;
+  options.input = video::PixelLayout::rgba32;
+  options.threads = s.encoderThreads;
+  options.x264Preset = s.x264Preset;
+  options.x264Crf = s.x264Crf;
+  options.comment = "Marked clip made by Stridemark";
+  video::Encoder encoder(options);
+
+  ImageQueue queue(layout.output, kQueueDepth);
+  std::exception_ptr workerError;
+  std::thread worker([&] {
+    try {
+      produceFrames(reader, s, layout, overlay, queue, cancel);
+    } catch (...) {
+      workerError = std::current_exception();
+    }
+    queue.producerFinished();
+  });
+  // Stop the worker on any exit from this scope, including an encoder exception.
+  struct JoinOnExit {
+    ImageQueue& queue;
+    std::thread& worker;
+    ~JoinOnExit() {
+      queue.close();
+      if (worker.joinable()) worker.join();
+    }
+  } joiner{queue, worker};
+
+  const std::int64_t total = s.last - s.first + 1;
+  std::int64_t done = 0;
+  while (std::optional<ImageQueue::Item> item = queue.takeReady()) {
+    if (cancel.load()) break;
+    encoder.write(item->image.constBits(), item->image.bytesPerLine());
+    queue.giveBack(std::move(item->image));
+    ++done;
+    if (progress) progress(done, total);
+  }
+  queue.close();
+  if (worker.joinable()) worker.join();
+  if (workerError) std::rethrow_exception(workerError);
+  if (cancel.load()) throw cancelledError();
+  if (done != total) {
+    throw Error(ErrorCategory::export_, "marked clip stopped after " + std::to_string(done) +
+                                            " of " + std::to_string(total) + " frames of '" +
+                                            s.videoPath + "'.");
+  }
+  encoder.finish();
+  return {done, layout.output.width(), layout.output.height()};
+}
+
+}  // namespace stridemark::ui::exports
