@@ -1,0 +1,97 @@
+#pragma once
+// Undo commands: the only code that changes a ProjectDocument's model. Each command stores
+// what it needs to go both ways; consecutive nudges of the same events merge into one entry.
+#include <QUndoCommand>
+#include <cstdint>
+#include <vector>
+
+#include "model/annotation.h"
+
+namespace stridemark::ui {
+
+class ProjectDocument;
+
+// Base: gives commands write access to the document and notifies after each step.
+class EditCommand : public QUndoCommand {
+ public:
+  EditCommand(ProjectDocument* doc, const QString& text) : QUndoCommand(text), doc_(doc) {}
+
+ protected:
+  model::Project& project();
+  void finished(bool trialToo = false);
+  ProjectDocument* doc_;
+};
+
+class AddEventCommand : public EditCommand {
+ public:
+  AddEventCommand(ProjectDocument* doc, const model::Event& event);
+  void redo() override;
+  void undo() override;
+
+ private:
+  model::Event event_;
+};
+
+class RemoveEventsCommand : public EditCommand {
+ public:
+  RemoveEventsCommand(ProjectDocument* doc, std::vector<model::Event> events);
+  void redo() override;
+  void undo() override;
+
+ private:
+  std::vector<model::Event> events_;
+};
+
+class MoveEventsCommand : public EditCommand {
+ public:
+  static constexpr int kNudgeId = 0x5e01;
+  MoveEventsCommand(ProjectDocument* doc, std::vector<model::Event> events, std::int64_t delta,
+                    bool nudge);
+  void redo() override;
+  void undo() override;
+  int id() const override { return nudge_ ? kNudgeId : -1; }
+  bool mergeWith(const QUndoCommand* other) override;
+  std::vector<model::Event> movedEvents() const;  // where the events are after redo()
+
+ private:
+  void shift(const std::vector<model::Event>& from, std::int64_t delta);
+  std::vector<model::Event> events_;  // positions before the move
+  std::int64_t delta_;
+  bool nudge_;
+};
+
+class SetTrialCardCommand : public EditCommand {
+ public:
+  SetTrialCardCommand(ProjectDocument* doc, model::TrialCard card);
+  void redo() override;
+  void undo() override;
+
+ private:
+  model::TrialCard before_, after_;
+};
+
+class HiddenSpanCommand : public EditCommand {
+ public:
+  HiddenSpanCommand(ProjectDocument* doc, const model::HiddenSpan& span, bool add);
+  void redo() override;
+  void undo() override;
+
+ private:
+  void apply(bool add);
+  model::HiddenSpan span_;
+  bool add_;
+};
+
+// Capture rate and reference limb: analysis settings kept in the annotation.
+class AnnotationSettingsCommand : public EditCommand {
+ public:
+  AnnotationSettingsCommand(ProjectDocument* doc, Rational rate, int referenceLimb);
+  void redo() override;
+  void undo() override;
+
+ private:
+  Rational rateBefore_, rateAfter_;
+  int refBefore_, refAfter_;
+};
+
+}  // namespace stridemark::ui

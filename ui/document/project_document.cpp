@@ -1,0 +1,180 @@
+#include "ui/document/project_document.h"
+
+#include <QDir>
+#include <QFile>
+#include <QFileInfo>
+#include <algorithm>
+
+#include "common/error.h"
+#include "ui/document/commands.h"
+#include "ui/document/journal.h"
+#include "ui/document/project_io.h"
+
+namespace stridemark::ui {
+
+ProjectDocument::ProjectDocument(QObject* parent) : QObject(parent) {
+  // The journal follows the history: every push, undo or redo rewrites it.
+  connect(&undo_, &QUndoStack::indexChanged, this, [this] {
+    if (resetting_) return;
+    try {
+      if (undo_.isClean()) {
+        removeJournal();
+      } else {
+        writeJournal();
+      }
+    } catch (const Error& e) {
+      emit journalFailed(QString::fromStdString(e.what()));
+    }
+  });
+}
+
+ProjectDocument::~ProjectDocument() = default;
+
+QString ProjectDocument::videoPath() const {
+  if (!project_.video) return {};
+  const QString stored = QString::fromStdString(project_.video->path);
+  if (QFileInfo(stored).isAbsolute() || projectPath_.isEmpty()) return stored;
+  return QFileInfo(projectPath_).dir().absoluteFilePath(stored);
+}
+
+QString ProjectDocument::journalPathFor(const QString& projectOrVideoPath) {
+  return projectOrVideoPath + QLatin1String(journal::kSuffix);
+}
+
+QString ProjectDocument::journalPath() const {
+  if (!projectPath_.isEmpty()) return journalPathFor(projectPath_);
+  const QString video = videoPath();
+  return video.isEmpty() ? QString() : journalPathFor(video);
+}
+
+void ProjectDocument::reset(model::Project project, const QString& projectPath, bool modified) {
+  project.annotation.normalize();
+  project_ = std::move(project);
+  projectPath_ = projectPath;
+  resetting_ = true;
+  undo_.clear();
+  resetting_ = false;
+  if (modified) {
+    // A recovered state is unsaved: mark clean at an index that can never be reached again.
+    undo_.resetClean();
+    writeJournal();
+  }
+  ++revision_;
+  emit projectReset();
+  emit annotationChanged();
+  emit trialChanged();
+  emit pathChanged(projectPath_);
+}
+
+void ProjectDocument::saveAs(const QString& path) {
+  model::Project toSave = project_;
+  if (toSave.video) {
+    // Store the video relative to the project file when it lives beside or below it.
+    const QString absVideo = videoPath();
+    const QString rel = QFileInfo(path).dir().relativeFilePath(absVideo);
+    toSave.video->path = (rel.startsWith(QLatin1String("..")) ? absVideo : rel).toStdString();
+  }
+  saveProjectFile(path, toSave);
+  const QString oldJournal = journalPath();
+  project_ = std::move(toSave);
+  projectPath_ = path;
+  undo_.setClean();
+  if (!oldJournal.isEmpty()) QFile::remove(oldJournal);
+  removeJournal();
+  emit pathChanged(projectPath_);
+}
+
+bool ProjectDocument::contains(const model::Event& event) const {
+  const auto& events = project_.annotation.events;
+  return std::binary_search(events.begin(), events.end(), event);
+}
+
+std::optional<model::Event> ProjectDocument::tag(int limb, std::int64_t frame) {
+  const bool stance = project_.annotation.inStance(limb, frame);
+  const model::Event event{frame, limb,
+                           stance ? model::EventKind::liftoff : model::EventKind::touchdown};
+  if (!addEvent(event)) return std::nullopt;
+  return event;
+}
+
+bool ProjectDocument::addEvent(const model::Event& event) {
+  if (event.limb < 0 || event.limb >= project_.annotation.limbs.size() || contains(event))
+    return false;
+  undo_.push(new AddEventCommand(this, event));
+  return true;
+}
+
+void ProjectDocument::removeEvents(const std::vector<model::Event>& events) {
+  std::vector<model::Event> present;
+  for (const auto& e : events)
+    if (contains(e)) present.push_back(e);
+  if (!present.empty()) undo_.push(new RemoveEventsCommand(this, std::move(present)));
+}
+
+bool ProjectDocument::moveEvents(const std::vector<model::Event>& events, std::int64_t delta,
+                                 bool nudge) {
+  if (events.empty() || delta == 0) return false;
+  for (const auto& e : events) {
+    if (!contains(e)) return false;
+    model::Event target = e;
+    target.frame += delta;
+    if (target.frame < 0) return false;
+    if (project_.annotation.clip && target.frame > project_.annotation.clip->last) return false;
+    // Refuse to land on an event that is not itself moving.
+    const bool moving = std::find(events.begin(), events.end(), target) != events.end();
+    if (contains(target) && !moving) return false;
+  }
+  undo_.push(new MoveEventsCommand(this, events, delta, nudge));
+  return true;
+}
+
+void ProjectDocument::setTrialCard(const model::TrialCard& card) {
+  if (card == project_.trial) return;
+  undo_.push(new SetTrialCardCommand(this, card));
+}
+
+void ProjectDocument::addHiddenSpan(const model::HiddenSpan& span) {
+  auto s = span;
+  if (s.first > s.last) std::swap(s.first, s.last);
+  undo_.push(new HiddenSpanCommand(this, s, true));
+}
+
+void ProjectDocument::removeHiddenSpan(const model::HiddenSpan& span) {
+  const auto& spans = project_.annotation.hidden;
+  if (std::find(spans.begin(), spans.end(), span) == spans.end()) return;
+  undo_.push(new HiddenSpanCommand(this, span, false));
+}
+
+void ProjectDocument::setCaptureRate(Rational rate) {
+  if (!rate.valid() || rate == project_.annotation.captureRate) return;
+  undo_.push(new AnnotationSettingsCommand(this, reduced(rate), project_.annotation.referenceLimb));
+}
+
+void ProjectDocument::setReferenceLimb(int limb) {
+  if (limb < 0 || limb >= project_.annotation.limbs.size() ||
+      limb == project_.annotation.referenceLimb)
+    return;
+  undo_.push(new AnnotationSettingsCommand(this, project_.annotation.captureRate, limb));
+}
+
+void ProjectDocument::afterEdit(bool trialToo) {
+  ++revision_;
+  emit annotationChanged();
+  if (trialToo) emit trialChanged();
+}
+
+void ProjectDocument::writeJournal() const {
+  const QString file = journalPath();
+  if (!file.isEmpty()) journal::write(file, project_, projectPath_);
+}
+
+void ProjectDocument::removeJournal() const {
+  const QString file = journalPath();
+  if (!file.isEmpty()) QFile::remove(file);
+}
+
+std::optional<model::Project> ProjectDocument::readJournal(const QString& journalFile) {
+  return journal::read(journalFile);
+}
+
+}  // namespace stridemark::ui

@@ -1,0 +1,87 @@
+#pragma once
+// The open project: owns the model::Project value and the undo stack. Every change to the
+// model goes through an undo command (commands.h); the document only notifies listeners and
+// keeps the autosave journal current after each edit.
+#include <QObject>
+#include <QString>
+#include <QUndoStack>
+#include <cstdint>
+#include <optional>
+#include <vector>
+
+#include "model/annotation.h"
+
+namespace stridemark::ui {
+
+class ProjectDocument : public QObject {
+  Q_OBJECT
+ public:
+  explicit ProjectDocument(QObject* parent = nullptr);
+  ~ProjectDocument() override;
+
+  const model::Project& project() const { return project_; }
+  const model::Annotation& annotation() const { return project_.annotation; }
+  QUndoStack* undoStack() { return &undo_; }
+
+  // Where the project was last saved or opened from; empty for a project never saved.
+  QString projectPath() const { return projectPath_; }
+  // Absolute path of the linked video, resolved against the project file.
+  QString videoPath() const;
+  // The journal file next to the project (or next to the video while unsaved).
+  QString journalPath() const;
+  bool isModified() const { return !undo_.isClean(); }
+  // Grows on every change; lets async consumers drop stale results.
+  std::uint64_t revision() const { return revision_; }
+
+  // Replaces the whole project (open, new, recover). Clears history; `modified` marks the
+  // loaded state as unsaved (used after recovering a journal).
+  void reset(model::Project project, const QString& projectPath, bool modified = false);
+  // Atomic save through core/formats; clears the modified flag and removes the journal.
+  void saveAs(const QString& path);
+  void save() { saveAs(projectPath_); }
+
+  // --- edits (each pushes one undo command) ---
+  // Marks touchdown if the limb is in swing at `frame`, lift-off if it is in stance. Returns
+  // the event added, or nothing when an identical event already exists there.
+  std::optional<model::Event> tag(int limb, std::int64_t frame);
+  bool addEvent(const model::Event& event);
+  void removeEvents(const std::vector<model::Event>& events);
+  // Moves events by `delta` frames. Nudges (one-frame key moves) merge into one history entry.
+  bool moveEvents(const std::vector<model::Event>& events, std::int64_t delta, bool nudge);
+  void setTrialCard(const model::TrialCard& card);
+  void addHiddenSpan(const model::HiddenSpan& span);
+  void removeHiddenSpan(const model::HiddenSpan& span);
+  void setCaptureRate(Rational rate);
+  void setReferenceLimb(int limb);
+
+  // True when `event` (same limb, frame and kind) is present.
+  bool contains(const model::Event& event) const;
+
+  // Journal handling. writeJournal() is called after every edit; readJournal() returns the
+  // journalled project if one exists for `journalFile`.
+  void writeJournal() const;
+  void removeJournal() const;
+  static std::optional<model::Project> readJournal(const QString& journalFile);
+  static QString journalPathFor(const QString& projectOrVideoPath);
+
+ signals:
+  void annotationChanged();
+  void trialChanged();
+  void projectReset();
+  void pathChanged(const QString& path);
+  // The journal could not be written (disk full, read-only folder): the UI must warn.
+  void journalFailed(const QString& message);
+
+ private:
+  friend class EditCommand;
+  model::Project& mutableProject() { return project_; }
+  void afterEdit(bool trialToo);
+
+  model::Project project_;
+  QUndoStack undo_;
+  QString projectPath_;
+  std::uint64_t revision_ = 0;
+  bool resetting_ = false;
+};
+
+}  // namespace stridemark::ui

@@ -1,0 +1,239 @@
+#include "ui/figures/analysis_figures.h"
+
+#include <QPainterPath>
+#include <array>
+#include <cmath>
+#include <numbers>
+
+namespace stridemark::ui::figures {
+
+namespace {
+
+struct Band {
+  double from, to;  // limb phase
+  const char* shortName;
+};
+
+// METHODS.md §2.2 scheme B: eight 12.5 %-wide bands; pace wraps around 0/1.
+constexpr std::array<Band, 9> kBands{{{0.0, 0.0625, "P"},
+                                      {0.0625, 0.1875, "LS-LC"},
+                                      {0.1875, 0.3125, "LS-SF"},
+                                      {0.3125, 0.4375, "LS-DC"},
+                                      {0.4375, 0.5625, "T"},
+                                      {0.5625, 0.6875, "DS-DC"},
+                                      {0.6875, 0.8125, "DS-SF"},
+                                      {0.8125, 0.9375, "DS-LC"},
+                                      {0.9375, 1.0, "P"}}};
+
+void drawEmpty(QPainter& p, const QRectF& rect, const FigureStyle& style, const QString& text) {
+  p.setPen(style.muted);
+  p.setFont(style.font());
+  p.drawText(rect, Qt::AlignCenter | Qt::TextWordWrap, text);
+}
+
+void drawMarker(QPainter& p, QPointF c, double r, const QColor& fill, const QColor& edge) {
+  p.setPen(QPen(edge, 1));
+  p.setBrush(fill);
+  p.drawEllipse(c, r, r);
+}
+
+}  // namespace
+
+void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& report,
+                  const FigureStyle& style) {
+  p.save();
+  p.setRenderHint(QPainter::Antialiasing, true);
+  p.fillRect(rect, style.background);
+  const double fp = style.fontPx;
+  const QRectF plot = rect.adjusted(fp * 3.6, fp * 2.6, -fp * 1.2, -fp * 3.2);
+  auto px = [&](double phase, double duty) {
+    return QPointF(plot.left() + phase * plot.width(), plot.bottom() - duty * plot.height());
+  };
+  // Bands: alternate shading so neighbours read apart; trot and pace slightly stronger.
+  p.setFont(style.font(-3));
+  for (std::size_t i = 0; i < kBands.size(); ++i) {
+    const auto& b = kBands[i];
+    const QRectF r(px(b.from, 1), px(b.to, 0));
+    QColor shade = style.highlight;
+    const bool strong = b.shortName[0] == 'T' || b.shortName[0] == 'P';
+    shade.setAlphaF(strong ? 0.16 : (i % 2 ? 0.08 : 0.03));
+    p.fillRect(r, shade);
+    p.setPen(style.muted);
+    p.drawText(QRectF(r.left(), plot.top() - fp * 1.4, r.width(), fp * 1.3), Qt::AlignCenter,
+               QString::fromLatin1(b.shortName));
+  }
+  // Grid, axes, walking/running line.
+  p.setPen(QPen(style.grid, 1));
+  for (int i = 0; i <= 10; ++i) {
+    p.drawLine(px(i / 10.0, 0), px(i / 10.0, 1));
+    p.drawLine(px(0, i / 10.0), px(1, i / 10.0));
+  }
+  p.setPen(QPen(style.foreground, 1.2, Qt::DashLine));
+  p.drawLine(px(0, 0.5), px(1, 0.5));
+  p.setPen(QPen(style.foreground, 1.2));
+  p.setBrush(Qt::NoBrush);
+  p.drawRect(plot);
+  p.setFont(style.font(-2));
+  for (int i = 0; i <= 4; ++i) {
+    const double v = i / 4.0;
+    p.drawText(QRectF(px(v, 0).x() - 20, plot.bottom() + 2, 40, fp * 1.3), Qt::AlignCenter,
+               QString::number(v * 100) + "%");
+    p.drawText(QRectF(plot.left() - fp * 3.4, px(0, v).y() - fp * 0.7, fp * 3.2, fp * 1.4),
+               Qt::AlignRight | Qt::AlignVCenter, QString::number(v * 100) + "%");
+  }
+  p.setFont(style.font(-1));
+  p.drawText(QRectF(plot.left(), plot.bottom() + fp * 1.4, plot.width(), fp * 1.6), Qt::AlignCenter,
+             QStringLiteral("limb phase (fore touchdown after ipsilateral hind, % of stride)"));
+  p.save();
+  p.translate(rect.left() + fp * 0.2, plot.center().y());
+  p.rotate(-90);
+  p.drawText(QRectF(-plot.height() / 2, 0, plot.height(), fp * 1.4), Qt::AlignCenter,
+             QStringLiteral("hind duty factor"));
+  p.restore();
+  p.drawText(QRectF(plot.right() - 90, px(0, 0.5).y() - fp * 1.4, 88, fp * 1.3), Qt::AlignRight,
+             QStringLiteral("walking ↑ running ↓"));
+  // Strides.
+  int plotted = 0;
+  for (const auto& s : report.strides) {
+    if (!s.limbPhase || !s.hindDutyFactor) continue;
+    QColor fill = style.foreground;
+    fill.setAlphaF(s.symmetrical ? 0.75 : 0.25);
+    drawMarker(p, px(*s.limbPhase, std::clamp(*s.hindDutyFactor, 0.0, 1.0)), fp * 0.35, fill,
+               style.foreground);
+    ++plotted;
+  }
+  if (report.hildebrand && std::isfinite(report.hildebrand->limbPhase) &&
+      std::isfinite(report.hildebrand->dutyFactor)) {
+    const QPointF c = px(report.hildebrand->limbPhase, report.hildebrand->dutyFactor);
+    drawMarker(p, c, fp * 0.6, QColor(0xd5, 0x5e, 0x00), style.foreground);
+    p.setPen(style.foreground);
+    p.setFont(style.font(-1, true));
+    p.drawText(c + QPointF(fp * 0.8, -fp * 0.5),
+               QStringLiteral("mean · %1").arg(QString::fromStdString(report.hildebrand->band)));
+  }
+  if (plotted == 0) {
+    drawEmpty(p, plot, style,
+              report.limbs.kind() == model::LimbSetKind::quadruped
+                  ? QStringLiteral("No complete quadruped strides yet")
+                  : QStringLiteral("The Gait map needs a quadruped limb set"));
+  }
+  p.restore();
+}
+
+void paintPhaseDial(QPainter& p, const QRectF& rect, const analysis::Report& report,
+                    const FigureStyle& style) {
+  p.save();
+  p.setRenderHint(QPainter::Antialiasing, true);
+  p.fillRect(rect, style.background);
+  const double fp = style.fontPx;
+  const double legendW = fp * 7;
+  const QRectF area = rect.adjusted(fp, fp * 1.6, -legendW, -fp);
+  const double radius = std::min(area.width(), area.height()) / 2;
+  const QPointF centre = area.center();
+  const int n = report.limbs.size();
+  const double inner = radius * 0.25;
+  auto ringR = [&](int limb) { return inner + (radius - inner) * (limb + 1) / n; };
+  auto at = [&](double phase, double r) {
+    const double a = 2 * std::numbers::pi * phase;
+    return QPointF(centre.x() + r * std::sin(a), centre.y() - r * std::cos(a));
+  };
+  p.setPen(QPen(style.grid, 1));
+  p.setBrush(Qt::NoBrush);
+  for (int limb = 0; limb < n; ++limb) p.drawEllipse(centre, ringR(limb), ringR(limb));
+  p.setFont(style.font(-2));
+  for (int q = 0; q < 4; ++q) {
+    p.setPen(QPen(style.grid, 1));
+    p.drawLine(centre, at(q / 4.0, radius));
+    p.setPen(style.muted);
+    const QPointF lp = at(q / 4.0, radius + fp * 0.9);
+    p.drawText(QRectF(lp.x() - 20, lp.y() - fp * 0.7, 40, fp * 1.4), Qt::AlignCenter,
+               QString::number(q * 25) + "%");
+  }
+  for (int limb = 0; limb < n; ++limb) {
+    const QColor c = limbColour(limb);
+    for (const auto& s : report.strides) {
+      const auto& ph = s.phase.size() > static_cast<std::size_t>(limb)
+                           ? s.phase[static_cast<std::size_t>(limb)]
+                           : std::optional<double>();
+      if (ph) drawMarker(p, at(*ph, ringR(limb)), fp * 0.28, c, c.darker(140));
+    }
+    if (static_cast<std::size_t>(limb) < report.phase.size()) {
+      const auto& ps = report.phase[static_cast<std::size_t>(limb)];
+      if (std::isfinite(ps.mean) && std::isfinite(ps.r)) {
+        p.setPen(QPen(c, 3, limbDash(report.limbs, limb), Qt::RoundCap));
+        p.drawLine(centre, at(ps.mean, inner + (radius - inner) * ps.r));
+      }
+    }
+  }
+  // Legend with label text as the second cue.
+  p.setFont(style.font(-1));
+  for (int limb = 0; limb < n; ++limb) {
+    const double y = rect.top() + fp * 1.6 + limb * fp * 1.6;
+    const double x = rect.right() - legendW + fp * 0.5;
+    p.setPen(QPen(limbColour(limb), 3, limbDash(report.limbs, limb)));
+    p.drawLine(QPointF(x, y + fp * 0.6), QPointF(x + fp * 1.5, y + fp * 0.6));
+    p.setPen(style.foreground);
+    QString text = QString::fromStdString(report.limbs.label(limb));
+    if (static_cast<std::size_t>(limb) < report.phase.size() &&
+        std::isfinite(report.phase[static_cast<std::size_t>(limb)].mean))
+      text +=
+          QStringLiteral("  %1").arg(report.phase[static_cast<std::size_t>(limb)].mean, 0, 'f', 2);
+    p.drawText(QRectF(x + fp * 2, y, legendW - fp * 2.5, fp * 1.3), Qt::AlignVCenter, text);
+  }
+  p.setPen(style.muted);
+  p.setFont(style.font(-2));
+  p.drawText(QRectF(rect.left(), rect.top(), rect.width(), fp * 1.4), Qt::AlignLeft,
+             QStringLiteral("phase relative to %1; spoke length = r")
+                 .arg(QString::fromStdString(report.limbs.label(report.referenceLimb))));
+  if (report.strides.empty()) drawEmpty(p, area, style, QStringLiteral("No strides yet"));
+  p.restore();
+}
+
+void paintStrideDutyPlot(QPainter& p, const QRectF& rect, const analysis::Report& report,
+                         const FigureStyle& style) {
+  p.save();
+  p.setRenderHint(QPainter::Antialiasing, true);
+  p.fillRect(rect, style.background);
+  const double fp = style.fontPx;
+  const QRectF plot = rect.adjusted(fp * 3.4, fp, -fp, -fp * 2.4);
+  const auto count = report.strides.size();
+  auto px = [&](std::size_t i, double v) {
+    const double t = count > 1 ? static_cast<double>(i) / static_cast<double>(count - 1) : 0.5;
+    return QPointF(plot.left() + t * plot.width(), plot.bottom() - v * plot.height());
+  };
+  p.setPen(QPen(style.grid, 1));
+  for (int i = 0; i <= 4; ++i) {
+    const double y = plot.bottom() - i / 4.0 * plot.height();
+    p.drawLine(QPointF(plot.left(), y), QPointF(plot.right(), y));
+  }
+  p.setPen(style.foreground);
+  p.setBrush(Qt::NoBrush);
+  p.drawRect(plot);
+  p.setFont(style.font(-2));
+  for (int i = 0; i <= 4; ++i)
+    p.drawText(QRectF(rect.left(), px(0, i / 4.0).y() - fp * 0.7, fp * 3.1, fp * 1.4),
+               Qt::AlignRight | Qt::AlignVCenter, QString::number(i * 25) + "%");
+  p.drawText(QRectF(plot.left(), plot.bottom() + 2, plot.width(), fp * 1.4), Qt::AlignCenter,
+             QStringLiteral("duty factor per stride (%1 strides)").arg(count));
+  for (int limb = 0; limb < report.limbs.size(); ++limb) {
+    QPainterPath path;
+    bool started = false;
+    for (std::size_t i = 0; i < count; ++i) {
+      const auto& df = report.strides[i].dutyFactor;
+      if (static_cast<std::size_t>(limb) >= df.size() || !df[static_cast<std::size_t>(limb)]) {
+        started = false;
+        continue;
+      }
+      const QPointF pt = px(i, std::clamp(*df[static_cast<std::size_t>(limb)], 0.0, 1.0));
+      started ? path.lineTo(pt) : path.moveTo(pt);
+      started = true;
+      drawMarker(p, pt, fp * 0.2, limbColour(limb), limbColour(limb));
+    }
+    p.setPen(QPen(limbColour(limb), 1.8, limbDash(report.limbs, limb)));
+    p.setBrush(Qt::NoBrush);
+    p.drawPath(path);
+  }
+  p.restore();
+}
+
+}  // namespace stridemark::ui::figures
