@@ -67,24 +67,24 @@ bool touchesFlag(const std::vector<FlaggedSpan>& flags, std::int64_t first, std:
 class StrideBuilder {
  public:
   StrideBuilder(const model::Annotation& annotation, const AnalysisOptions& options,
-                const CycleScan& scan, const SupportTimeline& timeline)
+                const CycleScan& scan, SupportTimeline& timeline)
       : limbs_(annotation.limbs),
         fps_(annotation.captureRate),
         options_(options),
         tracks_(scan.tracks),
         timeline_(timeline) {}
 
-  StrideRecord build(const LimbCycle& reference) const {
-    StrideRecord s;
+  // Fills `s` in place (the report's vector owns it: no per-stride temporaries).
+  void build(const LimbCycle& reference, StrideRecord& s) {
     s.startFrame = reference.touchdown;
     s.endFrame = reference.nextTouchdown;
     s.durationS = framesToSeconds(reference.strideFrames(), fps_);
     fillLimbs(s);
-    const SupportShares support = timeline_.window(s.startFrame, s.endFrame);
+    SupportShares support = timeline_.window(s.startFrame, s.endFrame);
     s.aerial = support.aerial;
     if (support.complete) {
-      s.supportByCount = support.byCount;
-      s.supportByCombination = support.byCombination;
+      s.supportByCount = std::move(support.byCount);
+      s.supportByCombination = std::move(support.byCombination);
     }
     const double tau =
         std::max(options_.asymmetricTau,
@@ -99,7 +99,6 @@ class StrideBuilder {
       default:
         classifyMultiPair(s);
     }
-    return s;
   }
 
  private:
@@ -244,8 +243,25 @@ class StrideBuilder {
   Rational fps_;
   const AnalysisOptions& options_;
   const std::vector<LimbTrack>& tracks_;
-  const SupportTimeline& timeline_;
+  SupportTimeline& timeline_;
 };
+
+// Reference strides (those touching an annotation problem are left out) and support shares.
+void buildStrides(const model::Annotation& annotation, const AnalysisOptions& options,
+                  const CycleScan& scan, Report& report) {
+  SupportTimeline timeline(annotation.limbs, scan.tracks);
+  const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
+  StrideBuilder builder(annotation, options, scan, timeline);
+  const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles;
+  report.strides.reserve(referenceCycles.size());
+  for (const LimbCycle& cycle : referenceCycles) {
+    if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
+    builder.build(cycle, report.strides.emplace_back());
+  }
+  SupportShares overall = timeline.overall();
+  report.support = std::move(overall.byCount);
+  report.supportByCombination = std::move(overall.byCombination);
+}
 
 }  // namespace
 
@@ -258,30 +274,21 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.referenceLimb = reference;
 
   CycleScan scan = scanCycles(annotation);
-  const SupportTimeline timeline(annotation.limbs, scan.tracks);
-  const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
-
-  const StrideBuilder builder(annotation, options, scan, timeline);
-  const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(reference)].cycles;
-  report.strides.reserve(referenceCycles.size());
-  for (const LimbCycle& cycle : referenceCycles) {
-    if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
-    report.strides.push_back(builder.build(cycle));
-  }
-
+  report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
+  buildStrides(annotation, options, scan, report);
+  // Cycles move into the report once strides and support no longer need the tracks.
   std::size_t cycleCount = 0;
   for (const LimbTrack& t : scan.tracks) cycleCount += t.cycles.size();
   report.cycles.reserve(cycleCount);
-  for (const LimbTrack& t : scan.tracks)
+  for (LimbTrack& t : scan.tracks) {
+    t.known = {};
     report.cycles.insert(report.cycles.end(), t.cycles.begin(), t.cycles.end());
+    t.cycles = {};
+  }
 
-  report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   report.phase = summarisePhases(report.strides, annotation.limbs.size());
   if (annotation.limbs.kind() == model::LimbSetKind::quadruped)
     report.hildebrand = summariseHildebrand(report.strides);
-  const SupportShares overall = timeline.overall();
-  report.support = overall.byCount;
-  report.supportByCombination = overall.byCombination;
   report.bouts = findBouts(report.strides);
   report.transitions = findTransitions(report.bouts);
   report.symmetry = summariseSymmetry(annotation.limbs, report.limbSummary);

@@ -82,6 +82,9 @@ class LimbScanner {
     });
     tags = dropUnusable(tags);
     orderSameFrame(tags);
+    track_.known.reserve(tags.size() + 2 * hidden_.size());
+    track_.touchdowns.reserve(tags.size() / 2 + 1);
+    track_.cycles.reserve(tags.size() / 2 + 1);
     const std::vector<PairStatus> status = checkPairs(tags);
     buildCycles(tags, status);
     for (const Tag& t : tags)
@@ -105,18 +108,19 @@ class LimbScanner {
     kept.reserve(tags.size());
     const auto& clip = annotation_.clip;
     for (const Tag& t : tags) {
-      const std::string what =
-          describe(t.kind) + " of " + label() + " at frame " + std::to_string(t.frame);
+      const auto what = [&] {
+        return describe(t.kind) + " of " + label() + " at frame " + std::to_string(t.frame);
+      };
       if (!kept.empty() && kept.back().frame == t.frame && kept.back().kind == t.kind) {
-        report(t.frame, "duplicate " + what + "; delete one of the two tags", t.frame);
+        report(t.frame, "duplicate " + what() + "; delete one of the two tags", t.frame);
       } else if (clip && (t.frame < clip->first || t.frame > clip->last)) {
         report(t.frame,
-               what + " lies outside the clip (frames " + std::to_string(clip->first) + "-" +
+               what() + " lies outside the clip (frames " + std::to_string(clip->first) + "-" +
                    std::to_string(clip->last) + "); it was ignored - delete or move the tag",
                t.frame);
       } else if (overlapsHidden(hidden_, t.frame, t.frame + 1)) {
         report(t.frame,
-               what + " lies inside a span where " + label() +
+               what() + " lies inside a span where " + label() +
                    " is marked hidden; it was ignored - delete the tag or shorten the span",
                t.frame);
       } else {
@@ -141,12 +145,12 @@ class LimbScanner {
     for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
       const Tag& a = tags[i];
       const Tag& b = tags[i + 1];
-      const std::string at = " of " + label() + " at frame " + std::to_string(b.frame);
+      const auto at = [&] { return " of " + label() + " at frame " + std::to_string(b.frame); };
       if (a.kind != b.kind) {
         if (a.frame == b.frame) {
           const bool stance = a.kind == EventKind::touchdown;
           report(b.frame,
-                 std::string(stance ? "zero-length stance" : "zero-length swing") + at +
+                 std::string(stance ? "zero-length stance" : "zero-length swing") + at() +
                      (stance ? ": touchdown and lift-off" : ": lift-off and touchdown") +
                      " on the same frame - move one of them",
                  a.frame);
@@ -161,13 +165,13 @@ class LimbScanner {
         status[i] = PairStatus::bad;
         if (a.kind == EventKind::touchdown) {
           report(b.frame,
-                 "second touchdown" + at + " inside the stance that began at frame " +
+                 "second touchdown" + at() + " inside the stance that began at frame " +
                      std::to_string(a.frame) +
                      "; tag the missing lift-off between them or delete one touchdown",
                  a.frame);
         } else {
           report(b.frame,
-                 "lift-off" + at + " has no touchdown since the lift-off at frame " +
+                 "lift-off" + at() + " has no touchdown since the lift-off at frame " +
                      std::to_string(a.frame) +
                      "; tag the missing touchdown between them or delete one lift-off",
                  a.frame);

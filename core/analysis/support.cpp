@@ -2,14 +2,12 @@
 
 #include <algorithm>
 #include <bit>
-#include <queue>
 
 namespace stridemark::analysis {
 namespace {
 
 using model::LimbSet;
 using model::LimbSetKind;
-using model::Side;
 
 std::string joined(const LimbSet& limbs, std::uint64_t mask, bool sortLabels) {
   std::vector<std::string> labels;
@@ -31,25 +29,6 @@ std::string quadrupedPairName(const LimbSet& limbs, int a, int b) {
   return (la.side == lb.side ? "lateral " : "diagonal ") + labels;
 }
 
-// One limb's state as the sweep passes through its known intervals.
-struct LimbCursor {
-  const std::vector<StateInterval>* intervals = nullptr;
-  std::size_t next = 0;
-  int state = 0;  // 0 unknown, 1 swing, 2 stance
-
-  // Updates the state at `frame` and returns the frame of the limb's next change, or -1.
-  std::int64_t advance(std::int64_t frame) {
-    const auto& iv = *intervals;
-    while (next < iv.size() && iv[next].end <= frame) ++next;
-    if (next < iv.size() && iv[next].first <= frame) {
-      state = iv[next].stance ? 2 : 1;
-      return iv[next].end;
-    }
-    state = 0;
-    return next < iv.size() ? iv[next].first : -1;
-  }
-};
-
 }  // namespace
 
 std::string combinationName(const LimbSet& limbs, std::uint64_t mask) {
@@ -65,97 +44,129 @@ std::string combinationName(const LimbSet& limbs, std::uint64_t mask) {
 }
 
 SupportTimeline::SupportTimeline(const LimbSet& limbs, const std::vector<LimbTrack>& tracks)
-    : limbs_(limbs), named_(limbs.size() <= 64) {
-  build(tracks);
+    : limbs_(limbs), tracks_(tracks), named_(limbs.size() <= 64) {
+  restart();
 }
 
-void SupportTimeline::build(const std::vector<LimbTrack>& tracks) {
-  // k-way merge of the limbs' interval boundaries: O(n log limbs), no global sort.
-  using Change = std::pair<std::int64_t, int>;  // frame, limb
-  std::priority_queue<Change, std::vector<Change>, std::greater<>> queue;
-  std::vector<LimbCursor> cursors(tracks.size());
-  for (std::size_t i = 0; i < tracks.size(); ++i) {
-    cursors[i].intervals = &tracks[i].known;
-    if (!tracks[i].known.empty()) queue.push({tracks[i].known.front().first, static_cast<int>(i)});
-  }
-  const int limbCount = static_cast<int>(tracks.size());
-  int unknown = limbCount;
-  int stance = 0;
-  std::uint64_t mask = 0;
-  while (!queue.empty()) {
-    const std::int64_t frame = queue.top().first;
-    while (!queue.empty() && queue.top().first == frame) {
-      const int limb = queue.top().second;
-      queue.pop();
-      LimbCursor& cursor = cursors[static_cast<std::size_t>(limb)];
-      const int before = cursor.state;
-      const std::int64_t nextChange = cursor.advance(frame);
-      unknown += (cursor.state == 0) - (before == 0);
-      stance += (cursor.state == 2) - (before == 2);
-      if (named_ && (cursor.state == 2) != (before == 2)) mask ^= std::uint64_t{1} << limb;
-      if (nextChange >= 0) queue.push({nextChange, limb});
-    }
-    if (!segments_.empty() && segments_.back().end < 0) segments_.back().end = frame;
-    if (queue.empty()) break;
-    const bool known = unknown == 0;
-    if (!segments_.empty() && segments_.back().known == known && segments_.back().mask == mask &&
-        segments_.back().count == stance) {
-      segments_.back().end = -1;  // same state continues
-    } else {
-      segments_.push_back({frame, -1, known ? mask : 0, known ? stance : 0, known});
-    }
-  }
-  if (!segments_.empty() && segments_.back().end < 0) segments_.pop_back();
+void SupportTimeline::restart() {
+  queue_ = {};
+  cursors_.assign(tracks_.size(), Cursor{});
+  for (std::size_t i = 0; i < tracks_.size(); ++i)
+    if (!tracks_[i].known.empty())
+      queue_.push({tracks_[i].known.front().first, static_cast<int>(i)});
+  unknown_ = static_cast<int>(tracks_.size());
+  stance_ = 0;
+  mask_ = 0;
+  started_ = false;
+  producedTo_ = 0;
+  buffer_.clear();
 }
 
-const std::string& SupportTimeline::nameOf(std::uint64_t mask) const {
+bool SupportTimeline::produce() {
+  while (!queue_.empty()) {
+    const std::int64_t frame = queue_.top().first;
+    const bool known = unknown_ == 0;
+    const Segment previous{segmentStart_, frame, known ? mask_ : 0, known ? stance_ : 0, known};
+    while (!queue_.empty() && queue_.top().first == frame) {
+      const int limb = queue_.top().second;
+      queue_.pop();
+      Cursor& c = cursors_[static_cast<std::size_t>(limb)];
+      const auto& iv = tracks_[static_cast<std::size_t>(limb)].known;
+      const int before = c.state;
+      while (c.next < iv.size() && iv[c.next].end <= frame) ++c.next;
+      std::int64_t nextChange = -1;
+      if (c.next < iv.size() && iv[c.next].first <= frame) {
+        c.state = iv[c.next].stance ? 2 : 1;
+        nextChange = iv[c.next].end;
+      } else {
+        c.state = 0;
+        if (c.next < iv.size()) nextChange = iv[c.next].first;
+      }
+      unknown_ += (c.state == 0) - (before == 0);
+      stance_ += (c.state == 2) - (before == 2);
+      if (named_ && (c.state == 2) != (before == 2)) mask_ ^= std::uint64_t{1} << limb;
+      if (nextChange >= 0) queue_.push({nextChange, limb});
+    }
+    const bool hadSegment = started_ && previous.end > previous.first;
+    started_ = true;
+    segmentStart_ = frame;
+    if (hadSegment) {
+      buffer_.push_back(previous);
+      producedTo_ = previous.end;
+      return true;
+    }
+  }
+  return false;
+}
+
+void SupportTimeline::accumulate(const Segment& s, std::int64_t first, std::int64_t end,
+                                 SupportShares& out, std::int64_t& covered) {
+  const std::int64_t frames = std::min(end, s.end) - std::max(first, s.first);
+  if (frames <= 0 || !s.known) return;
+  covered += frames;
+  out.byCount[static_cast<std::size_t>(s.count)] += static_cast<double>(frames);
+  if (s.count == 0) out.aerial = true;
+  if (!named_) return;
+  auto slot = std::find_if(scratch_.begin(), scratch_.end(),
+                           [&](const auto& e) { return e.first == s.mask; });
+  if (slot == scratch_.end()) {
+    scratch_.push_back({s.mask, frames});
+  } else {
+    slot->second += frames;
+  }
+}
+
+void SupportTimeline::finish(SupportShares& out, std::int64_t covered) {
+  out.knownFrames = covered;
+  if (covered == 0) {
+    out.byCount.clear();
+    return;
+  }
+  for (double& share : out.byCount) share /= static_cast<double>(covered);
+  for (const auto& [m, frames] : scratch_)
+    out.byCombination[nameOf(m)] += static_cast<double>(frames) / static_cast<double>(covered);
+}
+
+const std::string& SupportTimeline::nameOf(std::uint64_t mask) {
   auto it = names_.find(mask);
   if (it == names_.end()) it = names_.emplace(mask, combinationName(limbs_, mask)).first;
   return it->second;
 }
 
-SupportShares SupportTimeline::summarise(std::vector<Segment>::const_iterator begin,
-                                         std::int64_t first, std::int64_t end) const {
+SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end) {
+  const bool passed = buffer_.empty() ? first < producedTo_ : first < buffer_.front().first;
+  if (passed) restart();
+  // Drop segments wholly before the window; produce until the window is covered.
+  auto behind =
+      std::find_if(buffer_.begin(), buffer_.end(), [&](const Segment& s) { return s.end > first; });
+  buffer_.erase(buffer_.begin(), behind);
+  while ((buffer_.empty() || buffer_.back().end < end) && produce()) {
+    if (buffer_.size() == 1 && buffer_.front().end <= first) buffer_.clear();
+  }
   SupportShares out;
   out.byCount.assign(static_cast<std::size_t>(limbs_.size()) + 1, 0.0);
   scratch_.clear();
   std::int64_t covered = 0;
-  for (auto it = begin; it != segments_.end() && it->first < end; ++it) {
-    const std::int64_t frames = std::min(end, it->end) - std::max(first, it->first);
-    if (frames <= 0 || !it->known) continue;
-    covered += frames;
-    out.byCount[static_cast<std::size_t>(it->count)] += static_cast<double>(frames);
-    if (it->count == 0) out.aerial = true;
-    if (!named_) continue;
-    auto slot = std::find_if(scratch_.begin(), scratch_.end(),
-                             [&](const auto& s) { return s.first == it->mask; });
-    if (slot == scratch_.end()) {
-      scratch_.push_back({it->mask, frames});
-    } else {
-      slot->second += frames;
-    }
-  }
-  out.knownFrames = covered;
+  for (const Segment& s : buffer_) accumulate(s, first, end, out, covered);
   out.complete = covered == end - first;
-  if (covered == 0) {
-    out.byCount.clear();
-    return out;
-  }
-  for (double& share : out.byCount) share /= static_cast<double>(covered);
-  for (const auto& [m, frames] : scratch_)
-    out.byCombination[nameOf(m)] += static_cast<double>(frames) / static_cast<double>(covered);
+  finish(out, covered);
   return out;
 }
 
-SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end) const {
-  auto begin = std::upper_bound(segments_.begin(), segments_.end(), first,
-                                [](std::int64_t f, const Segment& s) { return f < s.end; });
-  return summarise(begin, first, end);
-}
-
-SupportShares SupportTimeline::overall() const {
-  if (segments_.empty()) return {};
-  return summarise(segments_.begin(), segments_.front().first, segments_.back().end);
+SupportShares SupportTimeline::overall() {
+  restart();
+  SupportShares out;
+  out.byCount.assign(static_cast<std::size_t>(limbs_.size()) + 1, 0.0);
+  scratch_.clear();
+  std::int64_t covered = 0;
+  while (produce()) {
+    const Segment s = buffer_.back();
+    buffer_.clear();
+    accumulate(s, s.first, s.end, out, covered);
+  }
+  finish(out, covered);
+  restart();
+  return out;
 }
 
 }  // namespace stridemark::analysis

@@ -2,8 +2,12 @@
 // Support patterns (METHODS.md §5): which limbs are in stance, frame by frame, summarised as
 // the share of time with k limbs down and per named combination. Time where any limb's state is
 // unknown (before its first tag, after its last, hidden, or flagged) is not scored.
+//
+// The timeline is swept, never stored: memory stays O(limbs + one window) however long the
+// annotation is.
 #include <cstdint>
 #include <map>
+#include <queue>
 #include <string>
 #include <unordered_map>
 #include <vector>
@@ -26,15 +30,17 @@ struct SupportShares {
   bool aerial = false;    // some known frame had no limb in stance
 };
 
+// Forward-only sweep over the limbs' known stance/swing intervals (k-way merge, O(log limbs)
+// per change). `tracks` must outlive the sweep. Not thread-safe.
 class SupportTimeline {
  public:
-  // Combination names are kept for sets of at most 64 limbs.
   SupportTimeline(const model::LimbSet& limbs, const std::vector<LimbTrack>& tracks);
 
-  // Shares over frames [first, end).
-  SupportShares window(std::int64_t first, std::int64_t end) const;
-  // Shares over every frame where all limbs' states are known.
-  SupportShares overall() const;
+  // Shares over frames [first, end). Windows are cheapest in ascending order of `first`; an
+  // earlier window restarts the sweep.
+  SupportShares window(std::int64_t first, std::int64_t end);
+  // Shares over every frame where all limbs' states are known (one full sweep).
+  SupportShares overall();
 
  private:
   struct Segment {
@@ -44,16 +50,33 @@ class SupportTimeline {
     int count = 0;
     bool known = false;
   };
-  void build(const std::vector<LimbTrack>& tracks);
-  SupportShares summarise(std::vector<Segment>::const_iterator begin, std::int64_t first,
-                          std::int64_t end) const;
-  const std::string& nameOf(std::uint64_t mask) const;
+  struct Cursor {
+    std::size_t next = 0;
+    int state = 0;  // 0 unknown, 1 swing, 2 stance
+  };
+  using Change = std::pair<std::int64_t, int>;  // frame, limb
+
+  void restart();
+  bool produce();  // appends the next segment to buffer_; false at the end
+  void accumulate(const Segment& s, std::int64_t first, std::int64_t end, SupportShares& out,
+                  std::int64_t& covered);
+  void finish(SupportShares& out, std::int64_t covered);
+  const std::string& nameOf(std::uint64_t mask);
 
   model::LimbSet limbs_;
+  const std::vector<LimbTrack>& tracks_;
   bool named_ = false;
-  std::vector<Segment> segments_;
-  mutable std::unordered_map<std::uint64_t, std::string> names_;
-  mutable std::vector<std::pair<std::uint64_t, std::int64_t>> scratch_;
+  // Sweep state.
+  std::priority_queue<Change, std::vector<Change>, std::greater<>> queue_;
+  std::vector<Cursor> cursors_;
+  int unknown_ = 0, stance_ = 0;
+  std::uint64_t mask_ = 0;
+  std::int64_t segmentStart_ = 0;
+  bool started_ = false;
+  std::int64_t producedTo_ = 0;  // end of the last segment produced
+  std::vector<Segment> buffer_;  // produced segments not yet behind every window
+  std::unordered_map<std::uint64_t, std::string> names_;
+  std::vector<std::pair<std::uint64_t, std::int64_t>> scratch_;
 };
 
 }  // namespace stridemark::analysis

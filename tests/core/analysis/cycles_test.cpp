@@ -1,0 +1,214 @@
+#include "analysis/cycles.h"
+
+#include <gtest/gtest.h>
+
+#include <algorithm>
+
+#include "analysis/analyse.h"
+#include "event_train.h"
+
+namespace stridemark::analysis {
+namespace {
+
+using model::EventKind;
+using testing::symmetricalQuadruped;
+
+constexpr EventKind TD = EventKind::touchdown;
+constexpr EventKind LO = EventKind::liftoff;
+
+model::Annotation quadruped(Rational fps = {250, 1}) {
+  model::Annotation a;
+  a.captureRate = fps;
+  a.referenceLimb = 2;  // LH
+  return a;
+}
+
+void tag(model::Annotation& a, const char* limb, EventKind kind, std::int64_t frame) {
+  a.events.push_back({frame, *a.limbs.indexOf(limb), kind});
+}
+
+TEST(Cycles, StrideStanceSwingDutyFactorFrequency) {
+  // Source: METHODS check 1, definitions §1.1 [calc]: LH TD 100 and 225, LO 160 at 250 fps ->
+  // T 0.500 s, stance 0.240 s, DF 0.480, f 2.0 Hz.
+  model::Annotation a = quadruped();
+  tag(a, "LH", TD, 100);
+  tag(a, "LH", LO, 160);
+  tag(a, "LH", TD, 225);
+  const Report r = analyse(a);
+  const LimbSummary& lh = r.limbSummary[2];
+  ASSERT_EQ(lh.strides, 1);
+  EXPECT_DOUBLE_EQ(lh.strideS.mean, 0.5);
+  EXPECT_DOUBLE_EQ(lh.stanceS.mean, 0.24);
+  EXPECT_DOUBLE_EQ(lh.swingS.mean, 0.26);
+  EXPECT_DOUBLE_EQ(lh.dutyFactor.mean, 0.48);
+  EXPECT_DOUBLE_EQ(1.0 / lh.strideS.mean, 2.0);
+  EXPECT_TRUE(r.problems.empty());
+}
+
+TEST(Cycles, MidStanceStartAndEndAreNotProblems) {
+  // Source: DESIGN §5: a first lift-off or a last touchdown is normal.
+  model::Annotation a = quadruped();
+  tag(a, "LH", LO, 10);
+  tag(a, "LH", TD, 100);
+  tag(a, "LH", LO, 160);
+  tag(a, "LH", TD, 225);
+  tag(a, "LH", LO, 290);
+  tag(a, "LH", TD, 350);
+  const CycleScan scan = scanCycles(a);
+  EXPECT_TRUE(scan.problems.empty());
+  ASSERT_EQ(scan.tracks[2].cycles.size(), 2u);
+  EXPECT_EQ(scan.tracks[2].cycles[0].touchdown, 100);
+  EXPECT_EQ(scan.tracks[2].cycles[1].nextTouchdown, 350);
+  // Known state runs from the first tag to the last: swing 10-100 ... swing 290-350.
+  ASSERT_FALSE(scan.tracks[2].known.empty());
+  EXPECT_EQ(scan.tracks[2].known.front().first, 10);
+  EXPECT_EQ(scan.tracks[2].known.back().end, 350);
+}
+
+// Common practice, no source: each tagging error is reported at its frame and limb and only the
+// strides it touches are left out. A 6-stride trot train with LH as reference.
+class ProblemTest : public ::testing::Test {
+ protected:
+  model::Annotation train = symmetricalQuadruped(0.4, 0.5, 1200, 6);
+  const int lf = 0;
+  const int lh = 2;
+
+  Report run() {
+    train.normalize();
+    return analyse(train);
+  }
+  static bool hasStrideStarting(const Report& r, std::int64_t frame) {
+    for (const StrideRecord& s : r.strides)
+      if (s.startFrame == frame) return true;
+    return false;
+  }
+};
+
+TEST_F(ProblemTest, CleanTrainHasSixStrides) {
+  const Report r = run();
+  EXPECT_TRUE(r.problems.empty());
+  EXPECT_EQ(r.strides.size(), 6u);
+}
+
+TEST_F(ProblemTest, SecondTouchdownInsideStance) {
+  // LH strides start at 1000, 2200, ... 7000; LF lands at +600 with stance 480 frames.
+  // LF stance 4000-4480 lies in the LH stride 3400-4600: an extra touchdown at 4100.
+  train.events.push_back({4100, lf, TD});
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 4100);
+  EXPECT_EQ(r.problems[0].limb, lf);
+  EXPECT_NE(r.problems[0].message.find("second touchdown"), std::string::npos);
+  EXPECT_EQ(r.strides.size(), 5u);
+  EXPECT_FALSE(hasStrideStarting(r, 3400));
+  EXPECT_TRUE(hasStrideStarting(r, 2200));
+  EXPECT_TRUE(hasStrideStarting(r, 4600));
+}
+
+TEST_F(ProblemTest, TwoLiftOffsInARow) {
+  // LH swing 3880-4600: an extra lift-off at 4000 has no touchdown before it.
+  train.events.push_back({4000, lh, LO});
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 4000);
+  EXPECT_EQ(r.problems[0].limb, lh);
+  EXPECT_NE(r.problems[0].message.find("no touchdown"), std::string::npos);
+  EXPECT_EQ(r.strides.size(), 5u);
+  EXPECT_FALSE(hasStrideStarting(r, 3400));
+}
+
+TEST_F(ProblemTest, ZeroLengthStance) {
+  // LF: move lift-off 4480 onto the touchdown at 4000.
+  for (auto& e : train.events)
+    if (e.limb == lf && e.frame == 4480) e.frame = 4000;
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 4000);
+  EXPECT_EQ(r.problems[0].limb, lf);
+  EXPECT_NE(r.problems[0].message.find("zero-length stance"), std::string::npos);
+  EXPECT_EQ(r.strides.size(), 5u);
+  EXPECT_FALSE(hasStrideStarting(r, 3400));
+}
+
+TEST_F(ProblemTest, ZeroLengthSwing) {
+  // LH: lift-off 3880 moved onto the next touchdown at 4600.
+  for (auto& e : train.events)
+    if (e.limb == lh && e.frame == 3880) e.frame = 4600;
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 4600);
+  EXPECT_EQ(r.problems[0].limb, lh);
+  EXPECT_NE(r.problems[0].message.find("zero-length swing"), std::string::npos);
+  EXPECT_FALSE(hasStrideStarting(r, 3400));
+  EXPECT_TRUE(hasStrideStarting(r, 2200));
+}
+
+TEST_F(ProblemTest, DuplicateEvent) {
+  train.events.push_back({5800, lh, TD});
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 5800);
+  EXPECT_EQ(r.problems[0].limb, lh);
+  EXPECT_NE(r.problems[0].message.find("duplicate"), std::string::npos);
+  EXPECT_FALSE(hasStrideStarting(r, 5800));
+  EXPECT_EQ(r.strides.size(), 5u);
+}
+
+TEST_F(ProblemTest, EventsOutsideClip) {
+  train.clip = model::FrameRange{0, 20000};
+  train.events.push_back({25000, lh, TD});
+  train.events.push_back({-5, lf, LO});
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 2u);
+  EXPECT_EQ(r.problems[0].frame, -5);
+  EXPECT_EQ(r.problems[0].limb, lf);
+  EXPECT_EQ(r.problems[1].frame, 25000);
+  EXPECT_NE(r.problems[1].message.find("outside the clip"), std::string::npos);
+  EXPECT_EQ(r.strides.size(), 6u);
+}
+
+TEST_F(ProblemTest, UnknownLimbIndexIsReportedNotFatal) {
+  train.events.push_back({1500, 9, TD});
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_FALSE(r.problems[0].limb.has_value());
+  EXPECT_EQ(r.strides.size(), 6u);
+}
+
+TEST_F(ProblemTest, HiddenSpanMakesStateUnknownWithoutProblem) {
+  // LF hidden around its lift-off at 4480: the lift-off tag is removed, as a scorer would.
+  train.events.erase(
+      std::remove(train.events.begin(), train.events.end(), model::Event{4480, lf, LO}),
+      train.events.end());
+  train.hidden.push_back({lf, 4300, 4550});
+  const Report r = run();
+  EXPECT_TRUE(r.problems.empty());
+  EXPECT_EQ(r.strides.size(), 6u);
+  // The LF cycle 4000-5200 keeps its stride time but has no duty factor.
+  const StrideRecord& s = r.strides[2];
+  ASSERT_EQ(s.startFrame, 3400);
+  EXPECT_FALSE(s.dutyFactor[static_cast<std::size_t>(lf)].has_value());
+  EXPECT_TRUE(s.phase[static_cast<std::size_t>(lf)].has_value());
+  EXPECT_TRUE(s.supportByCount.empty());  // part of the window is unknown
+  int lfCycles = 0, lfWithStance = 0;
+  for (const LimbCycle& c : r.cycles) {
+    if (c.limb != lf) continue;
+    ++lfCycles;
+    lfWithStance += c.liftoff.has_value();
+  }
+  EXPECT_EQ(lfCycles, 6);
+  EXPECT_EQ(lfWithStance, 5);
+  EXPECT_EQ(r.limbSummary[static_cast<std::size_t>(lf)].dutyFactor.n, 5);
+}
+
+TEST_F(ProblemTest, TagInsideHiddenSpanIsReported) {
+  train.hidden.push_back({lf, 3900, 4050});  // covers the LF touchdown at 4000
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 1u);
+  EXPECT_EQ(r.problems[0].frame, 4000);
+  EXPECT_EQ(r.problems[0].limb, lf);
+  EXPECT_NE(r.problems[0].message.find("hidden"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace stridemark::analysis
