@@ -1,0 +1,208 @@
+#include "synth/scene.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include <opencv2/imgproc.hpp>
+
+namespace stridemark::synth::detail {
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+
+int rounded(double v) {
+  return static_cast<int>(std::lround(v));
+}
+
+// Vertical colour ramp from `top` to `bottom` over the rows of `img`.
+void verticalRamp(cv::Mat& img, const cv::Scalar& top, const cv::Scalar& bottom) {
+  for (int y = 0; y < img.rows; ++y) {
+    const double w = img.rows > 1 ? static_cast<double>(y) / (img.rows - 1) : 0.0;
+    img.row(y).setTo(top * (1 - w) + bottom * w);
+  }
+}
+
+// Small random speckles that make ground motion visible (and trackable).
+void speckle(cv::Mat& tile, cv::RNG& rng, int count, int maxRadius, const cv::Scalar& base,
+             double spread) {
+  for (int i = 0; i < count; ++i) {
+    const cv::Point c(rng.uniform(0, tile.cols), rng.uniform(0, tile.rows));
+    const double f = 1.0 + rng.uniform(-spread, spread);
+    const int r = rng.uniform(1, maxRadius + 1);
+    for (int dx : {-tile.cols, 0, tile.cols})
+      cv::circle(tile, c + cv::Point(dx, 0), r, base * f, cv::FILLED, cv::LINE_AA);
+  }
+}
+
+// Tile (one period) plus its first `width` columns again: any offset in [0, period) reads a
+// seamless window of `width` columns.
+cv::Mat wrapStrip(const cv::Mat& tile, int width) {
+  cv::Mat strip(tile.rows, tile.cols + width, tile.type());
+  tile.copyTo(strip(cv::Rect(0, 0, tile.cols, tile.rows)));
+  int filled = 0;
+  while (filled < width) {
+    const int n = std::min(tile.cols, width - filled);
+    tile(cv::Rect(0, 0, n, tile.rows)).copyTo(strip(cv::Rect(tile.cols + filled, 0, n, tile.rows)));
+    filled += n;
+  }
+  return strip;
+}
+
+int periodFor(double spacingPx, int atLeast) {
+  const double spacing = std::max(8.0, spacingPx);
+  const int n = std::max(1, static_cast<int>(std::ceil(atLeast / spacing)));
+  return std::max(8, rounded(spacing * n));
+}
+
+}  // namespace
+
+Backdrop::Backdrop(Scene scene, const SceneLayout& layout, std::uint64_t seed) : layout_(layout) {
+  base_.create(layout.height, layout.width, CV_8UC3);
+  if (scene == Scene::treadmill)
+    buildTreadmill(seed);
+  else
+    buildOverground(seed);
+}
+
+Backdrop::Layer Backdrop::makeLayer(int x0, int y0, int width, int height, int period,
+                                    double parallax) const {
+  Layer layer;
+  layer.x0 = std::clamp(x0, 0, layout_.width - 1);
+  layer.y0 = std::clamp(y0, 0, layout_.height - 1);
+  layer.width = std::min(width, layout_.width - layer.x0);
+  layer.period = period;
+  layer.parallax = parallax;
+  layer.strip.create(std::min(height, layout_.height - layer.y0), period + layer.width, CV_8UC3);
+  return layer;
+}
+
+void Backdrop::buildTreadmill(std::uint64_t seed) {
+  cv::RNG rng(seed * 2654435761ULL + 17);
+  const double Ls = layout_.leg * layout_.scale;
+  const int W = layout_.width, H = layout_.height;
+  const int beltTop = rounded(layout_.groundY + layout_.farDy - 0.06 * Ls);
+  const int beltBottom = rounded(layout_.groundY + 0.05 * Ls);
+  const int deckBottom = std::min(H, beltBottom + rounded(0.16 * Ls));
+  // Lab wall with panels, a skirting board and a floor.
+  cv::Mat wall = base_(cv::Rect(0, 0, W, beltTop));
+  verticalRamp(wall, cv::Scalar(214, 208, 200), cv::Scalar(176, 172, 166));
+  for (int x = rounded(0.13 * W); x < W; x += rounded(0.27 * W))
+    cv::line(base_, {x, 0}, {x, beltTop}, cv::Scalar(160, 156, 150), 2, cv::LINE_AA);
+  base_(cv::Rect(0, beltTop, W, H - beltTop)).setTo(cv::Scalar(96, 100, 104));
+  // Treadmill deck under the belt and the side rail behind the animal.
+  const int x0 = rounded(0.03 * W), x1 = rounded(0.97 * W);
+  cv::rectangle(base_, {x0, beltBottom}, {x1, deckBottom}, cv::Scalar(58, 60, 64), cv::FILLED);
+  cv::rectangle(base_, {x0, beltBottom}, {x1, beltBottom + 3}, cv::Scalar(150, 150, 150),
+                cv::FILLED);
+  cv::rectangle(base_, {rounded(0.1 * W), beltBottom + rounded(0.06 * Ls)},
+                {rounded(0.3 * W), beltBottom + rounded(0.1 * Ls)}, cv::Scalar(40, 110, 190),
+                cv::FILLED);  // safety label stripe
+  const int railY = rounded(layout_.groundY - 1.35 * Ls);
+  for (int x : {x0 + 6, x1 - 6})
+    cv::line(base_, {x, railY}, {x, beltTop}, cv::Scalar(120, 120, 124),
+             std::max(3, rounded(0.04 * Ls)), cv::LINE_AA);
+  cv::line(base_, {x0 + 6, railY}, {x1 - 6, railY}, cv::Scalar(135, 135, 140),
+           std::max(3, rounded(0.035 * Ls)), cv::LINE_AA);
+  // Moving belt: dark rubber, grain, transverse seams every 0.3 m.
+  const double seam = 0.3 * layout_.scale;
+  const int period = periodFor(seam, 400);
+  Layer belt = makeLayer(x0, beltTop, x1 - x0, beltBottom - beltTop, period, 1.0);
+  cv::Mat tile(belt.strip.rows, period, CV_8UC3, cv::Scalar(52, 54, 56));
+  speckle(tile, rng, period * tile.rows / 18, 1, cv::Scalar(70, 72, 74), 0.45);
+  speckle(tile, rng, period / 25, 2, cv::Scalar(92, 94, 96), 0.2);
+  const int seams = std::max(1, rounded(period / seam));
+  for (int i = 0; i < seams; ++i) {
+    const int x = rounded(i * static_cast<double>(period) / seams);
+    cv::line(tile, {x, 0}, {x, tile.rows}, cv::Scalar(88, 90, 92), 2, cv::LINE_AA);
+  }
+  belt.strip = wrapStrip(tile, belt.width);
+  layers_.push_back(std::move(belt));
+}
+
+void Backdrop::buildOverground(std::uint64_t seed) {
+  cv::RNG rng(seed * 2654435761ULL + 29);
+  const double Ls = layout_.leg * layout_.scale;
+  const int W = layout_.width, H = layout_.height;
+  const int nearTop = std::clamp(rounded(layout_.groundY + layout_.farDy - 0.12 * Ls), 1, H - 2);
+  const int horizon = std::clamp(rounded(layout_.groundY - 1.25 * Ls), 1, nearTop - 1);
+  verticalRamp(base_, cv::Scalar(235, 200, 160), cv::Scalar(225, 215, 200));  // sky
+
+  // Distant hills, barely moving.
+  const int hillTop = std::max(0, horizon - rounded(0.5 * Ls));
+  const int hillPeriod = periodFor(W * 0.75, W);
+  Layer hills = makeLayer(0, hillTop, W, horizon - hillTop, hillPeriod, 0.08);
+  cv::Mat hillTile(hills.strip.rows, hillPeriod, CV_8UC3);
+  base_(cv::Rect(0, hillTop, 1, hills.strip.rows)).copyTo(hillTile.col(0));
+  for (int x = 1; x < hillPeriod; ++x) hillTile.col(0).copyTo(hillTile.col(x));
+  std::vector<cv::Point> ridge;
+  const double phase = rng.uniform(0.0, 2 * kPi);
+  for (int x = 0; x <= hillPeriod; x += 4) {
+    const double t = 2 * kPi * x / hillPeriod;
+    const double h = 0.55 + 0.25 * std::sin(t + phase) + 0.15 * std::sin(3 * t + 2 * phase);
+    ridge.emplace_back(x, rounded(hillTile.rows * (1.0 - h)));
+  }
+  ridge.emplace_back(hillPeriod, hillTile.rows);
+  ridge.emplace_back(0, hillTile.rows);
+  cv::fillPoly(hillTile, std::vector<std::vector<cv::Point>>{ridge}, cv::Scalar(120, 150, 130),
+               cv::LINE_AA);
+  hills.strip = wrapStrip(hillTile, hills.width);
+  layers_.push_back(std::move(hills));
+
+  // Far meadow: slower than the track the animal runs on.
+  const int farPeriod = periodFor(0.5 * layout_.scale, 400);
+  Layer meadow = makeLayer(0, horizon, W, nearTop - horizon, farPeriod, 0.6);
+  cv::Mat farTile(meadow.strip.rows, farPeriod, CV_8UC3);
+  verticalRamp(farTile, cv::Scalar(80, 150, 120), cv::Scalar(60, 135, 95));
+  speckle(farTile, rng, farPeriod * farTile.rows / 60, 1, cv::Scalar(50, 120, 80), 0.3);
+  meadow.strip = wrapStrip(farTile, meadow.width);
+  layers_.push_back(std::move(meadow));
+
+  // Paddock fence behind the animal (masked over sky and meadow).
+  const double postSpacing = 2.0 * layout_.scale * 0.85;
+  const int fencePeriod = periodFor(postSpacing, 500);
+  const int fenceBase = horizon + rounded(0.25 * Ls);
+  const int fenceTop = std::max(0, fenceBase - rounded(0.9 * Ls));
+  Layer fence = makeLayer(0, fenceTop, W, fenceBase - fenceTop, fencePeriod, 0.85);
+  cv::Mat fenceTile(fence.strip.rows, fencePeriod, CV_8UC3, cv::Scalar(70, 100, 130));
+  cv::Mat fenceMask(fence.strip.rows, fencePeriod, CV_8UC1, cv::Scalar(0));
+  const int posts = std::max(1, rounded(fencePeriod / postSpacing));
+  const int postW = std::max(3, rounded(0.05 * Ls));
+  for (int i = 0; i < posts; ++i) {
+    const int x = rounded(i * static_cast<double>(fencePeriod) / posts);
+    for (int dx : {-fencePeriod, 0, fencePeriod})
+      cv::rectangle(fenceMask, {x + dx, 0}, {x + dx + postW, fenceMask.rows}, 255, cv::FILLED);
+  }
+  for (double rail : {0.12, 0.5})
+    cv::rectangle(fenceMask, {0, rounded(rail * fenceMask.rows)},
+                  {fencePeriod, rounded(rail * fenceMask.rows) + std::max(2, postW / 2)}, 255,
+                  cv::FILLED);
+  fence.strip = wrapStrip(fenceTile, fence.width);
+  fence.mask = wrapStrip(fenceMask, fence.width);
+  layers_.push_back(std::move(fence));
+
+  // Track surface under the feet: moves exactly with the ground.
+  const int nearPeriod = periodFor(0.25 * layout_.scale, 400);
+  Layer track = makeLayer(0, nearTop, W, H - nearTop, nearPeriod, 1.0);
+  cv::Mat nearTile(track.strip.rows, nearPeriod, CV_8UC3);
+  verticalRamp(nearTile, cv::Scalar(75, 125, 140), cv::Scalar(60, 105, 125));
+  speckle(nearTile, rng, nearPeriod * nearTile.rows / 20, 1, cv::Scalar(55, 95, 115), 0.35);
+  speckle(nearTile, rng, nearPeriod * nearTile.rows / 400, 3, cv::Scalar(60, 140, 90), 0.25);
+  track.strip = wrapStrip(nearTile, track.width);
+  layers_.push_back(std::move(track));
+}
+
+void Backdrop::paint(cv::Mat& out, double groundShiftPx) const {
+  base_.copyTo(out);
+  for (const auto& layer : layers_) {
+    long offset = std::lround(groundShiftPx * layer.parallax) % layer.period;
+    if (offset < 0) offset += layer.period;
+    const cv::Rect source(static_cast<int>(offset), 0, layer.width, layer.strip.rows);
+    cv::Mat target = out(cv::Rect(layer.x0, layer.y0, layer.width, layer.strip.rows));
+    if (layer.mask.empty())
+      layer.strip(source).copyTo(target);
+    else
+      layer.strip(source).copyTo(target, layer.mask(source));
+  }
+}
+
+}  // namespace stridemark::synth::detail

@@ -1,0 +1,137 @@
+// Written files, checked from outside: Debian's ffprobe for the video, our readers for the
+// events CSV and project file.
+#include <gtest/gtest.h>
+
+#include <array>
+#include <cstdio>
+#include <filesystem>
+#include <memory>
+#include <sstream>
+#include <string>
+
+#include "common/error.h"
+#include "formats/events_csv.h"
+#include "formats/file_io.h"
+#include "formats/project_file.h"
+#include "synth/synth.h"
+
+namespace stridemark::synth {
+namespace {
+
+namespace fs = std::filesystem;
+
+std::string runCommand(const std::string& command) {
+  std::unique_ptr<FILE, int (*)(FILE*)> pipe(popen(command.c_str(), "r"), pclose);
+  if (!pipe) return {};
+  std::string out;
+  std::array<char, 4096> buffer{};
+  while (std::fgets(buffer.data(), buffer.size(), pipe.get())) out += buffer.data();
+  return out;
+}
+
+// ffprobe (Debian ffmpeg) decodes every frame and reports count, size and rates.
+std::string probe(const fs::path& video) {
+  return runCommand(
+      "ffprobe -v error -count_frames -select_streams v:0 -show_entries "
+      "stream=codec_name,pix_fmt,width,height,r_frame_rate,nb_read_frames "
+      "-of default=noprint_wrappers=1 '" +
+      video.string() + "'");
+}
+
+fs::path freshDir(const std::string& name) {
+  const fs::path dir =
+      fs::temp_directory_path() / ("stridemark-synth-" + name + "-" + std::to_string(::getpid()));
+  fs::remove_all(dir);
+  return dir;
+}
+
+SynthOptions smallClip(const fs::path& dir) {
+  SynthOptions o;
+  o.outDir = dir;
+  o.gaits = {"walk:0.8", "trot:0.7"};
+  o.timeline.captureRate = {90, 1};
+  o.fileRate = {30, 1};
+  o.render.width = 320;
+  o.render.height = 240;
+  o.render.noise = 3;
+  return o;
+}
+
+// Source: ffprobe(1) from Debian ffmpeg is the reference for what the file holds.
+TEST(Output, H264FileHasExactFrameCountSizeAndStoredRate) {
+  const fs::path dir = freshDir("h264");
+  const auto result = generate(smallClip(dir));
+  EXPECT_EQ(result.frameCount, 135);
+  const std::string info = probe(result.video);
+  EXPECT_NE(info.find("codec_name=h264"), std::string::npos) << info;
+  EXPECT_NE(info.find("pix_fmt=yuv420p"), std::string::npos) << info;
+  EXPECT_NE(info.find("width=320"), std::string::npos) << info;
+  EXPECT_NE(info.find("height=240"), std::string::npos) << info;
+  EXPECT_NE(info.find("r_frame_rate=30/1"), std::string::npos) << info;
+  EXPECT_NE(info.find("nb_read_frames=135"), std::string::npos) << info;
+  fs::remove_all(dir);
+}
+
+TEST(Output, MjpegFileWhenAsked) {
+  const fs::path dir = freshDir("mjpeg");
+  auto options = smallClip(dir);
+  options.codec = ClipCodec::mjpeg;
+  options.fileRate = {0, 1};  // stored at the capture rate
+  const auto result = generate(options);
+  EXPECT_EQ(result.video.extension(), ".avi");
+  const std::string info = probe(result.video);
+  EXPECT_NE(info.find("codec_name=mjpeg"), std::string::npos) << info;
+  EXPECT_NE(info.find("r_frame_rate=90/1"), std::string::npos) << info;
+  EXPECT_NE(info.find("nb_read_frames=135"), std::string::npos) << info;
+  fs::remove_all(dir);
+}
+
+TEST(Output, EventsCsvAndProjectHoldTheGroundTruth) {
+  const fs::path dir = freshDir("truth");
+  auto options = smallClip(dir);
+  options.writeVideo = false;
+  options.timeline.legLengthM = 0.61;
+  const auto result = generate(options);
+  const auto truth = groundTruth(options);
+  const auto csv = formats::readEventsCsv(result.events);
+  auto events = csv.events;
+  std::sort(events.begin(), events.end());
+  EXPECT_EQ(events, truth.events);
+  EXPECT_EQ(result.eventCount, truth.events.size());
+  const auto project = formats::readProjectFile(result.project);
+  EXPECT_EQ(project.annotation.events, truth.events);
+  EXPECT_EQ(project.annotation.captureRate, (Rational{90, 1}));
+  ASSERT_TRUE(project.trial.legLengthM);
+  EXPECT_DOUBLE_EQ(*project.trial.legLengthM, 0.61);
+  ASSERT_TRUE(project.trial.speedMs);
+  EXPECT_NEAR(*project.trial.speedMs, result.meanSpeedMs, 1e-9);
+  const std::string manifest = formats::readWholeFile(result.manifest);
+  EXPECT_NE(manifest.find("\"synthetic\": true"), std::string::npos);
+  EXPECT_NE(manifest.find("trot"), std::string::npos);
+  fs::remove_all(dir);
+}
+
+TEST(Output, ProjectLinksTheVideo) {
+  const fs::path dir = freshDir("link");
+  const auto result = generate(smallClip(dir));
+  const auto project = formats::readProjectFile(result.project);
+  ASSERT_TRUE(project.video);
+  EXPECT_EQ(project.video->frameCount, 135);
+  EXPECT_EQ(project.video->fileRate, (Rational{30, 1}));
+  EXPECT_TRUE(fs::exists(dir / project.video->path));
+  fs::remove_all(dir);
+}
+
+TEST(Output, UnwritableFolderIsAClearError) {
+  auto options = smallClip("/proc/stridemark-cannot-write-here");
+  options.writeVideo = false;
+  try {
+    generate(options);
+    FAIL() << "expected an error";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("/proc/stridemark-cannot-write-here"), std::string::npos);
+  }
+}
+
+}  // namespace
+}  // namespace stridemark::synth

@@ -1,0 +1,48 @@
+// Every committed sample regenerates: running `stridemark synth` with the arguments kept in the
+// sample's manifest reproduces its events CSV byte for byte.
+#include <gtest/gtest.h>
+
+#include <cstdlib>
+#include <filesystem>
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "formats/file_io.h"
+
+namespace {
+
+namespace fs = std::filesystem;
+
+std::string quoted(const std::string& s) {
+  std::string out = "'";
+  for (char c : s) out += c == '\'' ? std::string("'\\''") : std::string(1, c);
+  return out + "'";
+}
+
+TEST(Samples, EventsRegenerateByteForByte) {
+  const fs::path samples = fs::path(STRIDEMARK_SOURCE_DIR) / "samples";
+  int checked = 0;
+  for (const auto& entry : fs::directory_iterator(samples)) {
+    const fs::path manifestPath = entry.path() / "manifest.json";
+    if (!fs::exists(manifestPath)) continue;
+    const auto manifest = nlohmann::json::parse(stridemark::formats::readWholeFile(manifestPath));
+    const fs::path out =
+        fs::temp_directory_path() / ("stridemark-sample-" + entry.path().filename().string() + "-" +
+                                     std::to_string(::getpid()));
+    fs::remove_all(out);
+    std::string command = std::string(STRIDEMARK_CLI) + " synth --out " + quoted(out.string());
+    for (const auto& arg : manifest.at("arguments"))
+      command += " " + quoted(arg.get<std::string>());
+    command += " --no-video > /dev/null";
+    ASSERT_EQ(std::system(command.c_str()), 0) << command;
+    EXPECT_EQ(stridemark::formats::readWholeFile(out / "events.csv"),
+              stridemark::formats::readWholeFile(entry.path() / "events.csv"))
+        << entry.path() << " no longer regenerates; command: " << command;
+    fs::remove_all(out);
+    ++checked;
+  }
+  EXPECT_GE(checked, 3);
+}
+
+}  // namespace
