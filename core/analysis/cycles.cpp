@@ -237,6 +237,16 @@ CycleScan scanCycles(const model::Annotation& annotation) {
     }
     tags[static_cast<std::size_t>(e.limb)].push_back({e.frame, e.kind});
   }
+  for (const model::HiddenSpan& span : annotation.hidden) {
+    if (span.limb >= 0 && span.limb < limbCount) continue;
+    scan.problems.push_back({span.first, std::nullopt,
+                             "hidden span at frames " + std::to_string(span.first) + "-" +
+                                 std::to_string(span.last) + " names limb #" +
+                                 std::to_string(span.limb) + ", which the " +
+                                 annotation.limbs.name() +
+                                 " limb set does not have; it was "
+                                 "ignored"});
+  }
   scan.tracks.reserve(tags.size());
   for (int limb = 0; limb < limbCount; ++limb) {
     LimbScanner scanner(annotation, limb, scan.problems);

@@ -175,6 +175,17 @@ TEST_F(ProblemTest, UnknownLimbIndexIsReportedNotFatal) {
   EXPECT_EQ(r.strides.size(), 6u);
 }
 
+TEST_F(ProblemTest, BadHiddenSpansAreReported) {
+  train.hidden.push_back({7, 100, 200});   // no such limb
+  train.hidden.push_back({lf, 900, 800});  // ends before it starts
+  const Report r = run();
+  ASSERT_EQ(r.problems.size(), 2u);
+  EXPECT_FALSE(r.problems[0].limb.has_value());
+  EXPECT_EQ(r.problems[1].frame, 900);
+  EXPECT_EQ(r.problems[1].limb, lf);
+  EXPECT_EQ(r.strides.size(), 6u);
+}
+
 TEST_F(ProblemTest, HiddenSpanMakesStateUnknownWithoutProblem) {
   // LF hidden around its lift-off at 4480: the lift-off tag is removed, as a scorer would.
   train.events.erase(

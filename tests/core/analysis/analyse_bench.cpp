@@ -1,0 +1,48 @@
+// Benchmark (not a ctest): analyse a 1,000,000-event quadruped annotation and print JSON with
+// the time of `analyse` and, as the in-run reference, the time of sorting the same events
+// (Annotation::normalize). Usage: analyse_bench [strides-per-limb=125000] [repeats=3]
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstdlib>
+#include <random>
+#include <vector>
+
+#include "analysis/analyse.h"
+#include "event_train.h"
+
+namespace {
+
+double secondsSince(std::chrono::steady_clock::time_point start) {
+  return std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  const int strides = argc > 1 ? std::atoi(argv[1]) : 125000;
+  const int repeats = argc > 2 ? std::atoi(argv[2]) : 3;
+  const stridemark::model::Annotation base =
+      stridemark::testing::symmetricalQuadruped(0.6, 0.25, 120, strides);
+  double bestAnalyse = 1e30, bestSort = 1e30, firstAnalyse = 0;
+  std::size_t strideCount = 0;
+  for (int rep = 0; rep < repeats; ++rep) {
+    stridemark::model::Annotation shuffled = base;
+    std::shuffle(shuffled.events.begin(), shuffled.events.end(), std::mt19937(7));
+    auto start = std::chrono::steady_clock::now();
+    shuffled.normalize();
+    bestSort = std::min(bestSort, secondsSince(start));
+    start = std::chrono::steady_clock::now();
+    const stridemark::analysis::Report report = stridemark::analysis::analyse(base);
+    const double t = secondsSince(start);
+    if (rep == 0) firstAnalyse = t;
+    bestAnalyse = std::min(bestAnalyse, t);
+    strideCount = report.strides.size();
+  }
+  std::printf(
+      "{\"benchmark\": \"analyse_quadruped\", \"events\": %zu, \"strides\": %zu, "
+      "\"analyse_first_s\": %.4f, \"analyse_best_s\": %.4f, \"sort_events_best_s\": %.4f, "
+      "\"ratio_analyse_to_sort\": %.3f}\n",
+      base.events.size(), strideCount, firstAnalyse, bestAnalyse, bestSort, bestAnalyse / bestSort);
+  return 0;
+}
