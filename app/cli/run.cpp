@@ -17,6 +17,8 @@ int runCommandLine(int argc, char** argv) {
   app.require_subcommand(1);
   VerbAction action;
   // One line per verb, in the order `--help` lists them:
+  addProbeVerb(app, action);
+  addFrameVerb(app, action);
 
   try {
     app.parse(argc, argv);

@@ -21,7 +21,8 @@ struct PacketEntry {
   std::int32_t size = 0;    // bytes
   std::int64_t frame = -1;  // presentation-order frame number, -1 when not presented
   bool keyframe = false;
-  bool damaged = false;  // demuxer flagged the packet corrupt
+  bool damaged = false;    // demuxer flagged the packet corrupt
+  bool discarded = false;  // an edit list hides it: decoded for reference, never shown
 };
 
 // A 64-bit FNV-1a over the first and last MiB plus the file size.
@@ -74,6 +75,8 @@ class FrameIndex {
   bool timestampsSynthesised() const { return synthesised_; }
   // Packets the container announced but the scan could not read (truncated file).
   std::int64_t missingPackets() const { return missingPackets_; }
+  // Empty, or why the scan stopped before the end of the file (read error text).
+  const std::string& scanProblem() const { return scanProblem_; }
 
  private:
   void finish();  // derives frame order and lookups from packets_
@@ -88,6 +91,7 @@ class FrameIndex {
   bool sidecarWritten_ = false;
   bool loadedFromSidecar_ = false;
   std::int64_t missingPackets_ = 0;
+  std::string scanProblem_;
 };
 
 }  // namespace stridemark::video

@@ -72,32 +72,43 @@ class FrameServer {
  private:
   struct Pending {
     std::int64_t frame = -1;
-    std::uint64_t generation = 0;
+    bool blocking = false;  // a get() waiting: never cancelled by later requests
     Callback done;
+  };
+  struct Ready {
+    Callback done;
+    std::int64_t frame;
+    std::shared_ptr<const DecodedFrame> picture;
+    std::exception_ptr error;
   };
   enum class Direction { forward, backward };
 
-  void moveTo(std::int64_t n);  // playhead bookkeeping; caller holds mutex_
-  std::shared_ptr<const DecodedFrame> lookup(std::int64_t n);  // caller holds mutex_
+  // All private helpers named "...Locked" expect mutex_ to be held.
+  void moveToLocked(std::int64_t n);
+  void demandLocked(std::int64_t n, bool blocking, Callback done, std::vector<Ready>& cancelled);
+  bool jobWillProduceLocked(std::int64_t n) const;
   void workerLoop();
-  bool runDemand(std::unique_lock<std::mutex>& lock);
+  void runDemand(std::unique_lock<std::mutex>& lock);
   bool runBackground(std::unique_lock<std::mutex>& lock);
-  void decodeInto(std::int64_t first, std::int64_t last, std::int64_t wanted,
-                  std::uint64_t generation, std::unique_lock<std::mutex>& lock);
-  void insert(std::shared_ptr<const DecodedFrame> frame);  // caller holds mutex_
-  void evictOverBudget();                                  // caller holds mutex_
-  std::int64_t windowFrames() const;                       // caller holds mutex_
-  std::int64_t contiguousStart(std::int64_t n) const;      // caller holds mutex_
-  std::int64_t contiguousEnd(std::int64_t n) const;        // caller holds mutex_
+  // Decodes [first, last] on the worker with the mutex released; frames go into the cache.
+  void decodeSpan(std::int64_t first, std::int64_t last, std::unique_lock<std::mutex>& lock);
+  void insertLocked(std::shared_ptr<const DecodedFrame> frame, std::vector<Ready>& ready);
+  void failLocked(std::int64_t first, std::int64_t last, std::exception_ptr error,
+                  std::vector<Ready>& ready);
+  void evictOverBudgetLocked();
+  std::int64_t windowFramesLocked() const;
+  std::int64_t keyFrameNumber(std::int64_t n) const;
+  std::int64_t contiguousStartLocked(std::int64_t n) const;
+  static void deliver(std::vector<Ready>& ready);
 
   std::shared_ptr<const FrameIndex> index_;
   FrameServerOptions options_;
   std::shared_ptr<FramePool> pool_;
-  std::unique_ptr<FrameReader> reader_;  // used only by the worker
+  std::unique_ptr<FrameReader> reader_;  // used only by the worker thread
   std::size_t frameBytes_ = 0;
 
   mutable std::mutex mutex_;
-  std::condition_variable wake_;     // worker waits on it
+  std::condition_variable wake_;     // the worker waits on it
   std::condition_variable arrived_;  // get() waits on it
   std::map<std::int64_t, std::shared_ptr<const DecodedFrame>> cache_;
   std::size_t cachedBytes_ = 0;
@@ -106,6 +117,9 @@ class FrameServer {
   std::uint64_t generation_ = 0;
   std::vector<Pending> pending_;
   std::map<std::int64_t, std::exception_ptr> failures_;  // frame -> error, for get()
+  bool jobActive_ = false;
+  std::int64_t jobNext_ = 0;  // next frame the running job will deliver
+  std::int64_t jobLast_ = -1;
   FrameServerStats stats_;
   bool stopping_ = false;
   std::thread worker_;  // last member: starts after everything above exists
