@@ -125,7 +125,7 @@ void readHeaderComment(std::string_view line, std::string_view file, long lineNu
       into.referenceLine = lineNumber;
     }
   } catch (const Error& e) {
-    failAt(file, lineNumber, std::string(e.what()) + " (in the header comment)");
+    failAt(file, lineNumber, std::string(e.what()) + " — fix this header comment");
   }
 }
 

@@ -219,6 +219,16 @@ void writeStrideExtra(JsonOut& out, const analysis::StrideRecord& stride) {
     out.key("wave_direction");
     out.string(*stride.waveDirection);
   }
+  const std::pair<const char*, const std::optional<double>*> lags[] = {
+      {"fore_lag", &stride.foreLag},
+      {"hind_lag", &stride.hindLag},
+      {"pair_lag", &stride.pairLag},
+      {"template_distance", &stride.templateDistance}};
+  for (const auto& [name, value] : lags) {
+    if (!*value) continue;
+    out.key(name);
+    out.number(**value);
+  }
   out.endObject();
 }
 
@@ -275,6 +285,21 @@ void writeExtra(JsonOut& out, const Report& report) {
     out.number(report.speed->dimensionlessSpeed);
     out.endObject();
   }
+  out.key("transitions");
+  out.beginArray();
+  for (const auto& transition : report.transitions) {
+    out.beginObject();
+    out.key("from_gait");
+    out.string(transition.fromGait);
+    out.key("to_gait");
+    out.string(transition.toGait);
+    out.key("frame");
+    out.integer(transition.frame);
+    out.key("stride");
+    out.integer(transition.stride);
+    out.endObject();
+  }
+  out.endArray();
   out.key("strides");
   out.beginArray();
   for (const auto& stride : report.strides) writeStrideExtra(out, stride);

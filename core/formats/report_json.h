@@ -5,8 +5,10 @@
 // Additions beyond DESIGN §5 live under one top-level key, "extra":
 //   caution, fps_exact (rational text), phase.<limb>.{angular_deviation, rayleigh_z},
 //   hildebrand.quadrant, support_by_combination, symmetry.stride_s, symmetry.ratio.<measure>,
-//   speed.dimensionless_speed, strides[i].{quadrant, hind_duty_factor, limb_phase, dap_ms,
-//   dap_percent, ipsilateral_lag, wave_direction} (parallel to "strides").
+//   speed.dimensionless_speed, transitions[{from_gait, to_gait, frame, stride}],
+//   strides[i].{quadrant, hind_duty_factor, limb_phase, dap_ms, dap_percent, ipsilateral_lag,
+//   wave_direction, fore_lag, hind_lag, pair_lag, template_distance} (parallel to "strides";
+//   a key is present only when the value is defined).
 #include <filesystem>
 #include <string>
 #include <string_view>

@@ -80,6 +80,10 @@ void readStrideExtra(const JsonIn& in, analysis::StrideRecord& stride) {
   stride.dapPercent = number("dap_percent");
   stride.ipsilateralLag = number("ipsilateral_lag");
   stride.waveDirection = textOrNull(in, "wave_direction");
+  stride.foreLag = number("fore_lag");
+  stride.hindLag = number("hind_lag");
+  stride.pairLag = number("pair_lag");
+  stride.templateDistance = number("template_distance");
 }
 
 std::map<std::string, double> readNumberMap(const JsonIn& in) {
@@ -198,6 +202,17 @@ void readExtra(const JsonIn& in, Report& report) {
   }
   if (const auto speed = in.find("speed"); speed && report.speed) {
     report.speed->dimensionlessSpeed = speed->at("dimensionless_speed").numberOrNull();
+  }
+  if (const auto transitions = in.find("transitions")) {
+    for (std::size_t i = 0; i < transitions->arraySize(); ++i) {
+      const JsonIn item = transitions->at(i);
+      analysis::Transition transition;
+      transition.fromGait = item.at("from_gait").text();
+      transition.toGait = item.at("to_gait").text();
+      transition.frame = item.at("frame").integer();
+      transition.stride = count(item.at("stride"));
+      report.transitions.push_back(transition);
+    }
   }
   if (const auto strides = in.find("strides")) {
     if (strides->arraySize() != report.strides.size()) {

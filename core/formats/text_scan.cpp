@@ -85,6 +85,7 @@ long lineOfOffset(std::string_view s, std::size_t offset) {
 }
 
 void appendDouble(std::string& out, double value) {
+  if (value == 0) value = 0;  // "-0" reads back as integer 0 in most JSON and CSV readers
   char buffer[32];
   const auto result = std::to_chars(buffer, buffer + sizeof buffer, value);
   out.append(buffer, result.ptr);

@@ -1,0 +1,43 @@
+#include "formats/file_io.h"
+
+#include <gtest/gtest.h>
+#include <sys/stat.h>
+
+#include "common/error.h"
+#include "test_support.h"
+
+namespace stridemark::formats {
+namespace {
+
+TEST(FileIo, ReadsWholeFilesLargerThanOneChunk) {
+  testing::TempFolder folder;
+  std::string text(3 * (1 << 20) + 17, 'a');
+  text.back() = 'z';
+  testing::writeText(folder / "big", text);
+  EXPECT_EQ(readWholeFile(folder / "big"), text);
+}
+
+TEST(FileIo, FolderIsNotAFile) {
+  testing::TempFolder folder;
+  try {
+    readWholeFile(folder.path());
+    FAIL();
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("is a folder"), std::string::npos);
+  }
+}
+
+TEST(FileIo, AtomicSaveKeepsTheOldFilesMode) {
+  testing::TempFolder folder;
+  const auto path = folder / "shared.csv";
+  testing::writeText(path, "old");
+  ::chmod(path.c_str(), 0640);
+  writeFileAtomically(path, "new");
+  struct stat info {};
+  ASSERT_EQ(::stat(path.c_str(), &info), 0);
+  EXPECT_EQ(info.st_mode & 0777, 0640u);
+  EXPECT_EQ(testing::readText(path), "new");
+}
+
+}  // namespace
+}  // namespace stridemark::formats

@@ -1,0 +1,110 @@
+#include "formats/report_json.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include <nlohmann/json.hpp>
+
+#include "analysis/analyse.h"
+#include "common/error.h"
+#include "test_support.h"
+#include "trial_fixture.h"
+
+namespace stridemark::formats {
+namespace {
+
+analysis::Report checkOneReport() {
+  return analysis::analyse(testing::checkOneTrial());
+}
+
+TEST(ReportJson, HandComputableTrialComesOutRight) {
+  // Source: METHODS.md checks 1 and 2 (see trial_fixture.h).
+  const nlohmann::json j = nlohmann::json::parse(reportJsonText(checkOneReport()));
+  EXPECT_EQ(j["schema"], "stridemark.report.v1");
+  EXPECT_EQ(j["fps"], 250);
+  EXPECT_EQ(j["reference_limb"], "LH");
+  EXPECT_NEAR(j["limbs"]["LH"]["duty_factor"]["mean"].get<double>(), 0.48, 1e-12);
+  EXPECT_NEAR(j["limbs"]["LH"]["stride_s"]["mean"].get<double>(), 0.5, 1e-12);
+  EXPECT_NEAR(j["limbs"]["LH"]["stance_s"]["mean"].get<double>(), 0.24, 1e-12);
+  EXPECT_NEAR(j["strides"][0]["phase"]["LF"].get<double>(), 0.248, 1e-12);
+  EXPECT_EQ(j["strides"][0]["start_frame"], 100);
+  EXPECT_EQ(j["strides"][0]["end_frame"], 225);
+  EXPECT_NEAR(j["hildebrand"]["limb_phase"].get<double>(), 0.248, 1e-9);
+}
+
+TEST(ReportJson, UndefinedNumbersAreNullNeverNaN) {
+  analysis::Report report;
+  report.referenceLimb = 2;
+  report.limbSummary.resize(4);
+  report.limbSummary[0].strideS = {1, 0.5, analysis::kUndefined, analysis::kUndefined};
+  report.phase.resize(4);
+  const std::string text = reportJsonText(report);
+  EXPECT_EQ(text.find("NaN"), std::string::npos);
+  EXPECT_EQ(text.find("nan"), std::string::npos);
+  const nlohmann::json j = nlohmann::json::parse(text);
+  EXPECT_TRUE(j["limbs"]["LF"]["stride_s"]["sd"].is_null());
+  EXPECT_EQ(j["limbs"]["LF"]["stride_s"]["mean"], 0.5);
+  EXPECT_TRUE(j["speed"].is_null());
+  EXPECT_TRUE(j["hildebrand"].is_null());
+  const analysis::Report back = parseReportJson(text, "r.json");
+  EXPECT_TRUE(std::isnan(back.limbSummary[0].strideS.sd));
+  EXPECT_EQ(back.limbSummary[0].strideS.mean, 0.5);
+}
+
+TEST(ReportJson, StrictJsonForPythonsParser) {
+  // Reference: Python's json module with NaN/Infinity refused (RFC 8259 has no NaN).
+  testing::TempFolder folder;
+  writeReportJsonFile(folder / "r.json", checkOneReport());
+  const auto result = testing::runDebianPython(
+      "import json\n"
+      "def refuse(name): raise ValueError('non-standard constant ' + name)\n"
+      "doc = json.load(open('" +
+      (folder / "r.json").string() +
+      "'), parse_constant=refuse)\n"
+      "assert doc['schema'] == 'stridemark.report.v1'\n"
+      "print(len(doc['strides']))\n");
+  EXPECT_EQ(result.exitCode, 0) << result.err;
+  EXPECT_EQ(result.out, "3\n");
+}
+
+TEST(ReportJson, ReaderRoundTripIsAFixedPoint) {
+  const analysis::Report report = checkOneReport();
+  const std::string first = reportJsonText(report);
+  const analysis::Report back = parseReportJson(first, "r.json");
+  EXPECT_EQ(back.strides.size(), report.strides.size());
+  EXPECT_EQ(back.limbs, report.limbs);
+  EXPECT_EQ(back.fps, report.fps);
+  EXPECT_EQ(reportJsonText(back), first);
+}
+
+TEST(ReportJson, NonQuadrupedsHaveNoHildebrandKey) {
+  model::Annotation annotation;
+  annotation.limbs = model::LimbSet::biped();
+  annotation.referenceLimb = 0;
+  annotation.events = {{0, 0, model::EventKind::touchdown},  {30, 0, model::EventKind::liftoff},
+                       {50, 0, model::EventKind::touchdown}, {25, 1, model::EventKind::touchdown},
+                       {55, 1, model::EventKind::liftoff},   {75, 1, model::EventKind::touchdown}};
+  annotation.normalize();
+  const nlohmann::json j = nlohmann::json::parse(reportJsonText(analysis::analyse(annotation)));
+  EXPECT_FALSE(j.contains("hildebrand"));
+  EXPECT_EQ(j["limb_set"], "biped");
+}
+
+TEST(ReportJson, ReaderNamesPathOfABadValue) {
+  nlohmann::json j = nlohmann::json::parse(reportJsonText(checkOneReport()));
+  j["strides"][1]["gait"] = 5;
+  try {
+    parseReportJson(j.dump(), "r.json");
+    FAIL() << "accepted a numeric gait";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("r.json: at /strides/1/gait: expected text"),
+              std::string::npos)
+        << e.what();
+  }
+  j["schema"] = "stridemark.report.v0";
+  EXPECT_THROW(parseReportJson(j.dump(), "r.json"), Error);
+}
+
+}  // namespace
+}  // namespace stridemark::formats
