@@ -80,9 +80,9 @@ class StrideBuilder {
     s.endFrame = reference.nextTouchdown;
     s.durationS = framesToSeconds(reference.strideFrames(), fps_);
     fillLimbs(s);
-    SupportShares support = timeline_.window(s.startFrame, s.endFrame);
+    SupportShares support = timeline_.window(s.startFrame, s.endFrame, options_.strideSupport);
     s.aerial = support.aerial;
-    if (support.complete) {
+    if (support.complete && options_.strideSupport) {
       s.supportByCount = std::move(support.byCount);
       s.supportByCombination = std::move(support.byCombination);
     }

@@ -58,8 +58,8 @@ struct StrideRecord {
   bool aerial = false;                   // a whole-body suspension inside the stride
   std::optional<double> hindDutyFactor;  // Hildebrand y (quadrupeds)
   std::optional<double> limbPhase;       // Hildebrand x (quadrupeds)
-  // Diagonal advanced placement, LH-RF and RH-LF pairs, in frames of the capture rate (positive
-  // = hind first); filled for trot strides of quadrupeds.
+  // Diagonal advanced placement, mean of the LH-RF and RH-LF pairs, in ms computed from frames
+  // at the capture rate and in % of the stride (positive = hind first); trot strides only.
   std::optional<double> dapMs;
   std::optional<double> dapPercent;
   // Support: share of the stride with k limbs in stance (index k), and per combination label.

@@ -116,13 +116,14 @@ void SupportTimeline::accumulate(const Segment& s, std::int64_t first, std::int6
   }
 }
 
-void SupportTimeline::finish(SupportShares& out, std::int64_t covered) {
+void SupportTimeline::finish(SupportShares& out, std::int64_t covered, bool combinations) {
   out.knownFrames = covered;
   if (covered == 0) {
     out.byCount.clear();
     return;
   }
   for (double& share : out.byCount) share /= static_cast<double>(covered);
+  if (!combinations) return;
   for (const auto& [m, frames] : scratch_)
     out.byCombination[nameOf(m)] += static_cast<double>(frames) / static_cast<double>(covered);
 }
@@ -133,7 +134,7 @@ const std::string& SupportTimeline::nameOf(std::uint64_t mask) {
   return it->second;
 }
 
-SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end) {
+SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end, bool combinations) {
   const bool passed = buffer_.empty() ? first < producedTo_ : first < buffer_.front().first;
   if (passed) restart();
   // Drop segments wholly before the window; produce until the window is covered.
@@ -149,7 +150,7 @@ SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end) {
   std::int64_t covered = 0;
   for (const Segment& s : buffer_) accumulate(s, first, end, out, covered);
   out.complete = covered == end - first;
-  finish(out, covered);
+  finish(out, covered, combinations);
   return out;
 }
 

@@ -38,7 +38,8 @@ class SupportTimeline {
 
   // Shares over frames [first, end). Windows are cheapest in ascending order of `first`; an
   // earlier window restarts the sweep.
-  SupportShares window(std::int64_t first, std::int64_t end);
+  // Without `combinations` only byCount, complete and aerial are filled (cheaper).
+  SupportShares window(std::int64_t first, std::int64_t end, bool combinations = true);
   // Shares over every frame where all limbs' states are known (one full sweep).
   SupportShares overall();
 
@@ -60,7 +61,7 @@ class SupportTimeline {
   bool produce();  // appends the next segment to buffer_; false at the end
   void accumulate(const Segment& s, std::int64_t first, std::int64_t end, SupportShares& out,
                   std::int64_t& covered);
-  void finish(SupportShares& out, std::int64_t covered);
+  void finish(SupportShares& out, std::int64_t covered, bool combinations = true);
   const std::string& nameOf(std::uint64_t mask);
 
   model::LimbSet limbs_;

@@ -77,7 +77,7 @@ TEST(Timing, DapOnTrotStrides) {
       testing::idealTrain(model::LimbSet::quadruped(),
                           {{0.5 + 12.0 / 700, 0.45}, {12.0 / 700, 0.45}, {0, 0.45}, {0.5, 0.45}},
                           700, 4, Rational{1000, 1});
-  const StrideRecord& s = analyse(a).strides.at(1);
+  const StrideRecord s = analyse(a).strides.at(1);
   EXPECT_EQ(s.gait, "trot");
   EXPECT_NEAR(*s.dapMs, 12.0, 1e-9);
   EXPECT_NEAR(*s.dapPercent, 1.714, 1e-3);
