@@ -145,7 +145,10 @@ std::optional<IpsilateralWave> ipsilateralWave(const model::LimbSet& limbs,
   if (std::isnan(mean)) return std::nullopt;
   IpsilateralWave out{mean, std::nullopt};
   const double centred = centredPhase(mean);
-  if (std::abs(centred) > tolerance && 0.5 - std::abs(centred) > tolerance)
+  // The lag summed over the body must stand clear of 0 (many short segments add up), and the
+  // per-segment lag clear of half a cycle (alternation has no direction).
+  const double bodyLag = std::abs(centred) * (limbs.pairs() - 1);
+  if (bodyLag > tolerance && 0.5 - std::abs(centred) > tolerance)
     out.direction = centred > 0 ? "direct" : "retrograde";
   return out;
 }

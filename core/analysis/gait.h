@@ -53,7 +53,8 @@ struct IpsilateralWave {
   std::optional<std::string> direction;  // "direct" (back to front), "retrograde"
 };
 // Circular mean of the lag between neighbouring legs of a side (METHODS §4.3). Null when the
-// set has fewer than two segments or the lags cancel out.
+// set has fewer than two segments or the lags cancel out. The direction is left out when the
+// lag summed over the body is within `tolerance` of 0, or the lag is within it of half a cycle.
 std::optional<IpsilateralWave> ipsilateralWave(const model::LimbSet& limbs,
                                                std::span<const double> phases,
                                                double tolerance = 0.05);

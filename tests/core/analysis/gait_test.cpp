@@ -144,6 +144,26 @@ TEST(Gait, MultiPairRetrogradeWave) {
   EXPECT_EQ(*s.waveDirection, "retrograde");
 }
 
+TEST(Gait, ManyPairsBeyondSixtyFourLimbs) {
+  // Common practice, no source: 40 pairs (80 limbs) still score; combination names are not
+  // kept for sets over 64 limbs but counts are. Direct wave, lag 1/80 per segment.
+  const LimbSet set = LimbSet::multiPair(40);
+  std::vector<LimbPattern> patterns(80);
+  for (int i = 0; i < set.size(); ++i) {
+    const model::Limb& limb = set.limb(i);
+    const double left = (39 - limb.segment) / 80.0;
+    patterns[static_cast<std::size_t>(i)] = {limb.side == model::Side::left ? left : left + 0.5,
+                                             0.75};
+  }
+  const Report r = analyse(idealTrain(set, patterns, 1600, 3));
+  const StrideRecord& s = r.strides.at(1);
+  EXPECT_EQ(s.gait, "wave");
+  EXPECT_EQ(*s.waveDirection, "direct");
+  EXPECT_DOUBLE_EQ(s.supportByCount.at(60), 1.0);  // 80 legs x DF 0.75, evenly spread
+  EXPECT_TRUE(s.supportByCombination.empty());
+  EXPECT_EQ(r.symmetry.dutyFactor.si.size(), 40u);
+}
+
 TEST(Gait, MultiPairTripodLikeAlternation) {
   // Common practice, no source: alternate segments in antiphase is the tripod template.
   const LimbSet set = LimbSet::multiPair(4);
