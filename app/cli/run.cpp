@@ -19,6 +19,7 @@ int runCommandLine(int argc, char** argv) {
   // One line per verb, in the order `--help` lists them:
   addProbeVerb(app, action);
   addFrameVerb(app, action);
+  addScoreVerb(app, action);
 
   try {
     app.parse(argc, argv);

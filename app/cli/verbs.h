@@ -12,5 +12,6 @@ using VerbAction = std::function<int()>;
 // One line per verb (each defined in app/cli/verb_<name>.cpp):
 void addProbeVerb(CLI::App& app, VerbAction& action);
 void addFrameVerb(CLI::App& app, VerbAction& action);
+void addScoreVerb(CLI::App& app, VerbAction& action);
 
 }  // namespace stridemark::cli
