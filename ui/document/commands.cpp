@@ -172,26 +172,26 @@ void HiddenSpanCommand::undo() {
 
 // --- Annotation settings ---
 
-AnnotationSettingsCommand::AnnotationSettingsCommand(ProjectDocument* doc, Rational rate,
-                                                     int referenceLimb)
-    : EditCommand(doc, QCoreApplication::translate("Stridemark",
-                                                   "Change capture rate or "
-                                                   "reference limb")),
-      rateBefore_(doc->annotation().captureRate),
-      rateAfter_(rate),
-      refBefore_(doc->annotation().referenceLimb),
-      refAfter_(referenceLimb) {}
+AnnotationSettingsCommand::AnnotationSettingsCommand(ProjectDocument* doc, AnnotationSettings after)
+    : EditCommand(doc, QCoreApplication::translate("Stridemark", "Change analysis settings")),
+      before_{doc->annotation().limbs, doc->annotation().captureRate,
+              doc->annotation().referenceLimb},
+      after_(std::move(after)) {}
 
-void AnnotationSettingsCommand::redo() {
-  project().annotation.captureRate = rateAfter_;
-  project().annotation.referenceLimb = refAfter_;
+void AnnotationSettingsCommand::apply(const AnnotationSettings& s) {
+  auto& a = project().annotation;
+  a.limbs = s.limbs;
+  a.captureRate = s.captureRate;
+  a.referenceLimb = s.referenceLimb;
   finished(true);
 }
 
+void AnnotationSettingsCommand::redo() {
+  apply(after_);
+}
+
 void AnnotationSettingsCommand::undo() {
-  project().annotation.captureRate = rateBefore_;
-  project().annotation.referenceLimb = refBefore_;
-  finished(true);
+  apply(before_);
 }
 
 }  // namespace stridemark::ui

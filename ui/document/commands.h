@@ -82,16 +82,23 @@ class HiddenSpanCommand : public EditCommand {
   bool add_;
 };
 
-// Capture rate and reference limb: analysis settings kept in the annotation.
+// Limb set, capture rate and reference limb: analysis settings kept in the annotation. The
+// limb set may change only while nothing is tagged (the document checks).
+struct AnnotationSettings {
+  model::LimbSet limbs = model::LimbSet::quadruped();
+  Rational captureRate{240, 1};
+  int referenceLimb = 0;
+};
+
 class AnnotationSettingsCommand : public EditCommand {
  public:
-  AnnotationSettingsCommand(ProjectDocument* doc, Rational rate, int referenceLimb);
+  AnnotationSettingsCommand(ProjectDocument* doc, AnnotationSettings after);
   void redo() override;
   void undo() override;
 
  private:
-  Rational rateBefore_, rateAfter_;
-  int refBefore_, refAfter_;
+  void apply(const AnnotationSettings& s);
+  AnnotationSettings before_, after_;
 };
 
 }  // namespace stridemark::ui

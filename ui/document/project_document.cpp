@@ -146,15 +146,23 @@ void ProjectDocument::removeHiddenSpan(const model::HiddenSpan& span) {
 }
 
 void ProjectDocument::setCaptureRate(Rational rate) {
-  if (!rate.valid() || rate == project_.annotation.captureRate) return;
-  undo_.push(new AnnotationSettingsCommand(this, reduced(rate), project_.annotation.referenceLimb));
+  const auto& a = project_.annotation;
+  if (!rate.valid() || rate == a.captureRate) return;
+  undo_.push(new AnnotationSettingsCommand(this, {a.limbs, reduced(rate), a.referenceLimb}));
 }
 
 void ProjectDocument::setReferenceLimb(int limb) {
-  if (limb < 0 || limb >= project_.annotation.limbs.size() ||
-      limb == project_.annotation.referenceLimb)
-    return;
-  undo_.push(new AnnotationSettingsCommand(this, project_.annotation.captureRate, limb));
+  const auto& a = project_.annotation;
+  if (limb < 0 || limb >= a.limbs.size() || limb == a.referenceLimb) return;
+  undo_.push(new AnnotationSettingsCommand(this, {a.limbs, a.captureRate, limb}));
+}
+
+bool ProjectDocument::setLimbSet(const model::LimbSet& limbs) {
+  const auto& a = project_.annotation;
+  if (limbs == a.limbs) return true;
+  if (!a.events.empty() || !a.hidden.empty()) return false;
+  undo_.push(new AnnotationSettingsCommand(this, {limbs, a.captureRate, limbs.defaultReference()}));
+  return true;
 }
 
 void ProjectDocument::afterEdit(bool trialToo) {

@@ -1,0 +1,46 @@
+#include "ui/app/guarded.h"
+
+#include <QMessageBox>
+#include <exception>
+
+#include "common/error.h"
+
+namespace stridemark::ui {
+
+namespace {
+
+ErrorSink& sink() {
+  static ErrorSink current;
+  return current;
+}
+
+}  // namespace
+
+void setErrorSink(ErrorSink s) {
+  sink() = std::move(s);
+}
+
+void reportError(QWidget* parent, const QString& title, const QString& text) {
+  if (sink()) {
+    sink()(parent, title, text);
+    return;
+  }
+  QMessageBox::warning(parent, title, text);
+}
+
+bool runGuarded(QWidget* parent, const QString& what, const std::function<void()>& action) {
+  try {
+    action();
+    return true;
+  } catch (const Error& e) {
+    reportError(parent, what, QString::fromStdString(e.what()));
+  } catch (const std::exception& e) {
+    reportError(parent, what,
+                QStringLiteral("Internal error: %1\nYour tags are kept in the autosave journal. "
+                               "Please report this with the steps that led to it.")
+                    .arg(QString::fromStdString(e.what())));
+  }
+  return false;
+}
+
+}  // namespace stridemark::ui

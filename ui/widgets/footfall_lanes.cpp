@@ -1,0 +1,266 @@
+#include "ui/widgets/footfall_lanes.h"
+
+#include <QMouseEvent>
+#include <QPainter>
+#include <QWheelEvent>
+#include <algorithm>
+#include <cmath>
+
+#include "ui/document/project_document.h"
+
+namespace stridemark::ui {
+
+namespace {
+constexpr double kStripHeight = 22;
+constexpr double kLabelWidth = 44;
+constexpr double kHitPixels = 5;
+}  // namespace
+
+FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(parent), doc_(doc) {
+  setAccessibleName(tr("Footfall lanes"));
+  setAccessibleDescription(
+      tr("One lane per limb: stance bars and event ticks. Click to seek, drag a tick to move "
+         "it, Ctrl+click to select several, Ctrl+wheel to zoom."));
+  setFocusPolicy(Qt::StrongFocus);
+  setMinimumHeight(120);
+  setMouseTracking(false);
+  connect(doc_, &ProjectDocument::annotationChanged, this, [this] {
+    // Drop selected events that no longer exist (undo, delete).
+    std::erase_if(selection_, [this](const model::Event& e) { return !doc_->contains(e); });
+    update();
+  });
+  connect(doc_, &ProjectDocument::projectReset, this, [this] {
+    selection_.clear();
+    first_ = 0;
+    update();
+  });
+}
+
+void FootfallLanes::setPlayhead(std::int64_t frame) {
+  playhead_ = frame;
+  keepPlayheadVisible();
+  update();
+}
+
+void FootfallLanes::setFrameCount(std::int64_t count) {
+  frameCount_ = count;
+  clampView();
+  update();
+}
+
+void FootfallLanes::setVisibleSpan(std::int64_t frames) {
+  span_ = std::clamp<std::int64_t>(frames, 20, 1'000'000);
+  clampView();
+  keepPlayheadVisible();
+  update();
+}
+
+void FootfallLanes::setSelection(std::vector<model::Event> events) {
+  selection_ = std::move(events);
+  std::sort(selection_.begin(), selection_.end());
+  emit selectionChanged();
+  update();
+}
+
+void FootfallLanes::setSelectedLimb(int limb) {
+  selectedLimb_ = limb;
+  update();
+}
+
+bool FootfallLanes::nudgeSelection(std::int64_t delta) {
+  if (selection_.empty()) return false;
+  const auto moved = selection_;
+  if (!doc_->moveEvents(moved, delta, true)) return false;
+  auto next = moved;
+  for (auto& e : next) e.frame += delta;
+  setSelection(std::move(next));
+  return true;
+}
+
+void FootfallLanes::deleteSelection() {
+  if (selection_.empty()) return;
+  doc_->removeEvents(selection_);
+  setSelection({});
+}
+
+QRectF FootfallLanes::lanesArea() const {
+  return QRectF(0, 0, width(), height() - kStripHeight);
+}
+
+QRectF FootfallLanes::stripArea() const {
+  return QRectF(0, height() - kStripHeight, width(), kStripHeight);
+}
+
+figures::FootfallOptions FootfallLanes::options() const {
+  figures::FootfallOptions o;
+  o.viewFirst = first_;
+  o.viewLast = first_ + span_ - 1;
+  o.labelWidth = kLabelWidth;
+  o.playhead = playhead_;
+  o.selected = selection_;
+  return o;
+}
+
+figures::FrameAxis FootfallLanes::axis() const {
+  return figures::frameAxis(lanesArea(), options());
+}
+
+void FootfallLanes::paintEvent(QPaintEvent*) {
+  QPainter p(this);
+  const auto style = figures::FigureStyle::fromPalette(palette());
+  const auto& a = doc_->annotation();
+  figures::paintFootfallDiagram(p, lanesArea(), a, options(), style);
+  // The selected limb's label is underlined so the keyboard target is visible.
+  const QRectF lane = figures::laneRect(lanesArea(), a.limbs.size(), selectedLimb_, true);
+  p.setPen(QPen(style.highlight, 2));
+  p.drawLine(QPointF(lane.left() + 3, lane.bottom() - 3),
+             QPointF(lane.left() + kLabelWidth - 6, lane.bottom() - 3));
+  if (drag_ == Drag::events && dragDelta_ != 0) {
+    const auto ax = axis();
+    p.setPen(QPen(style.highlight, 2, Qt::DashLine));
+    for (const auto& e : selection_) {
+      const QRectF l = figures::laneRect(lanesArea(), a.limbs.size(), e.limb, true);
+      const double x = ax.x(static_cast<double>(e.frame + dragDelta_));
+      p.drawLine(QPointF(x, l.top()), QPointF(x, l.bottom()));
+    }
+  }
+  figures::paintSupportStrip(p, stripArea(), a, axis(), style, kLabelWidth);
+  if (hasFocus()) {
+    p.setPen(QPen(style.highlight, 1, Qt::DotLine));
+    p.setBrush(Qt::NoBrush);
+    p.drawRect(rect().adjusted(0, 0, -1, -1));
+  }
+}
+
+std::int64_t FootfallLanes::frameAt(QPointF pos) const {
+  const auto f = static_cast<std::int64_t>(std::floor(axis().frameAt(pos.x())));
+  const auto last = frameCount_ > 0 ? frameCount_ - 1 : f;
+  return std::clamp<std::int64_t>(f, 0, std::max<std::int64_t>(0, last));
+}
+
+int FootfallLanes::laneAt(QPointF pos) const {
+  const int n = doc_->annotation().limbs.size();
+  for (int i = 0; i < n; ++i)
+    if (figures::laneRect(lanesArea(), n, i, true).contains(pos)) return i;
+  return -1;
+}
+
+std::optional<model::Event> FootfallLanes::eventAt(QPointF pos) const {
+  const int limb = laneAt(pos);
+  if (limb < 0) return std::nullopt;
+  const auto ax = axis();
+  std::optional<model::Event> best;
+  double bestDist = kHitPixels;
+  for (const auto& e : doc_->annotation().eventsOf(limb)) {
+    const double d = std::abs(ax.x(static_cast<double>(e.frame)) - pos.x());
+    if (d <= bestDist) {
+      bestDist = d;
+      best = e;
+    }
+  }
+  return best;
+}
+
+void FootfallLanes::mousePressEvent(QMouseEvent* event) {
+  if (event->button() != Qt::LeftButton) return;
+  const QPointF pos = event->position();
+  if (pos.x() < kLabelWidth) {
+    const int limb = laneAt(pos);
+    if (limb >= 0) {
+      setSelectedLimb(limb);
+      emit limbSelected(limb);
+    }
+    return;
+  }
+  const bool additive = event->modifiers() & Qt::ControlModifier;
+  if (auto hit = eventAt(pos)) {
+    auto sel = selection_;
+    const auto it = std::find(sel.begin(), sel.end(), *hit);
+    if (additive) {
+      if (it != sel.end()) {
+        sel.erase(it);
+      } else {
+        sel.push_back(*hit);
+      }
+    } else if (it == sel.end()) {
+      sel = {*hit};
+    }
+    setSelection(std::move(sel));
+    setSelectedLimb(hit->limb);
+    emit limbSelected(hit->limb);
+    drag_ = Drag::events;
+    dragOrigin_ = frameAt(pos);
+    dragDelta_ = 0;
+    return;
+  }
+  if (!additive) setSelection({});
+  const int limb = laneAt(pos);
+  if (limb >= 0) {
+    setSelectedLimb(limb);
+    emit limbSelected(limb);
+  }
+  drag_ = Drag::scrub;
+  emit seekRequested(frameAt(pos));
+}
+
+void FootfallLanes::mouseMoveEvent(QMouseEvent* event) {
+  if (drag_ == Drag::scrub) {
+    emit seekRequested(frameAt(event->position()));
+  } else if (drag_ == Drag::events) {
+    dragDelta_ = frameAt(event->position()) - dragOrigin_;
+    update();
+  }
+}
+
+void FootfallLanes::mouseReleaseEvent(QMouseEvent*) {
+  if (drag_ == Drag::events && dragDelta_ != 0) {
+    const auto moved = selection_;
+    if (doc_->moveEvents(moved, dragDelta_, false)) {
+      auto next = moved;
+      for (auto& e : next) e.frame += dragDelta_;
+      setSelection(std::move(next));
+    }
+  }
+  drag_ = Drag::none;
+  dragDelta_ = 0;
+  update();
+}
+
+void FootfallLanes::wheelEvent(QWheelEvent* event) {
+  const double steps = event->angleDelta().y() / 120.0;
+  if (event->modifiers() & Qt::ControlModifier) {
+    // Zoom around the frame under the cursor.
+    const double anchor = axis().frameAt(event->position().x());
+    const double ratio = (anchor - static_cast<double>(first_)) / static_cast<double>(span_);
+    span_ = std::clamp<std::int64_t>(
+        static_cast<std::int64_t>(std::llround(static_cast<double>(span_) * std::pow(0.8, steps))),
+        20, std::max<std::int64_t>(20, frameCount_ > 0 ? frameCount_ : 1'000'000));
+    first_ = static_cast<std::int64_t>(std::llround(anchor - ratio * static_cast<double>(span_)));
+  } else {
+    first_ -= static_cast<std::int64_t>(std::llround(steps * static_cast<double>(span_) / 8.0));
+  }
+  clampView();
+  update();
+  event->accept();
+}
+
+void FootfallLanes::keepPlayheadVisible() {
+  const auto margin = span_ / 10;
+  if (playhead_ < first_ + margin || playhead_ > first_ + span_ - 1 - margin) {
+    if (playhead_ < first_ || playhead_ > first_ + span_ - 1) {
+      first_ = playhead_ - span_ / 2;  // a jump: centre it
+    } else if (playhead_ < first_ + margin) {
+      first_ = playhead_ - margin;
+    } else {
+      first_ = playhead_ - span_ + 1 + margin;
+    }
+    clampView();
+  }
+}
+
+void FootfallLanes::clampView() {
+  const auto maxFirst = frameCount_ > 0 ? std::max<std::int64_t>(0, frameCount_ - span_) : first_;
+  first_ = std::clamp<std::int64_t>(first_, 0, std::max<std::int64_t>(0, maxFirst));
+}
+
+}  // namespace stridemark::ui

@@ -1,0 +1,74 @@
+#pragma once
+// Footfall lanes: one editable lane per limb (stance bars, event ticks), the playhead and the
+// Support strip. Click or drag on a lane to seek, drag a tick to move it, Ctrl+click to select
+// several, wheel to scroll, Ctrl+wheel to zoom. Edits go through the document's commands.
+#include <QWidget>
+#include <cstdint>
+#include <optional>
+#include <vector>
+
+#include "model/annotation.h"
+#include "ui/figures/footfall_diagram.h"
+
+namespace stridemark::ui {
+
+class ProjectDocument;
+
+class FootfallLanes : public QWidget {
+  Q_OBJECT
+ public:
+  explicit FootfallLanes(ProjectDocument* doc, QWidget* parent = nullptr);
+
+  void setPlayhead(std::int64_t frame);
+  void setFrameCount(std::int64_t count);
+  void setVisibleSpan(std::int64_t frames);  // zoom: how many frames the lanes show
+  std::int64_t visibleSpan() const { return span_; }
+  std::int64_t viewFirst() const { return first_; }
+
+  const std::vector<model::Event>& selection() const { return selection_; }
+  void setSelection(std::vector<model::Event> events);
+  int selectedLimb() const { return selectedLimb_; }
+  void setSelectedLimb(int limb);
+
+  // Keyboard edits of the selection (bound to actions by the main window).
+  bool nudgeSelection(std::int64_t delta);
+  void deleteSelection();
+
+  QSize sizeHint() const override { return {800, 170}; }
+
+ signals:
+  void seekRequested(qint64 frame);
+  void limbSelected(int limb);
+  void selectionChanged();
+
+ protected:
+  void paintEvent(QPaintEvent* event) override;
+  void mousePressEvent(QMouseEvent* event) override;
+  void mouseMoveEvent(QMouseEvent* event) override;
+  void mouseReleaseEvent(QMouseEvent* event) override;
+  void wheelEvent(QWheelEvent* event) override;
+
+ private:
+  QRectF lanesArea() const;
+  QRectF stripArea() const;
+  figures::FootfallOptions options() const;
+  figures::FrameAxis axis() const;
+  std::optional<model::Event> eventAt(QPointF pos) const;
+  int laneAt(QPointF pos) const;
+  std::int64_t frameAt(QPointF pos) const;
+  void keepPlayheadVisible();
+  void clampView();
+
+  ProjectDocument* doc_;
+  std::int64_t first_ = 0;
+  std::int64_t span_ = 480;
+  std::int64_t frameCount_ = 0;
+  std::int64_t playhead_ = 0;
+  int selectedLimb_ = 0;
+  std::vector<model::Event> selection_;
+  enum class Drag { none, scrub, events } drag_ = Drag::none;
+  std::int64_t dragOrigin_ = 0;
+  std::int64_t dragDelta_ = 0;
+};
+
+}  // namespace stridemark::ui

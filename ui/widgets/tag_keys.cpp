@@ -1,0 +1,224 @@
+#include "ui/widgets/tag_keys.h"
+
+#include <QDialogButtonBox>
+#include <QFormLayout>
+#include <QKeySequenceEdit>
+#include <QLabel>
+#include <QPainter>
+#include <QPushButton>
+#include <QSettings>
+#include <QVBoxLayout>
+#include <algorithm>
+
+#include "ui/figures/figure_style.h"
+
+namespace stridemark::ui {
+
+namespace {
+
+// Keyboard rows from top to bottom; the front pair of limbs takes the highest row used.
+const std::array<QString, 4> kRows{QStringLiteral("1234567890"), QStringLiteral("QWERTYUIOP"),
+                                   QStringLiteral("ASDFGHJKL"), QStringLiteral("ZXCVBNM")};
+
+QString settingsKey(const model::LimbSet& limbs, int limb) {
+  return QStringLiteral("tagKeys/%1/%2")
+      .arg(QString::fromStdString(limbs.name()), QString::fromStdString(limbs.label(limb)));
+}
+
+// Row and column block of a limb: segments go down the rows, more than fit wrap into a new
+// pair of columns further right; left limbs take the left column of their pair.
+std::pair<int, int> slotOf(const model::LimbSet& limbs, int limb) {
+  const auto& l = limbs.limb(limb);
+  const int segments = std::max(1, limbs.pairs());
+  // Two segments (quadruped) use the Q and A rows, one (biped) the A row, three the Q-A-Z
+  // rows, four or more start on the digit row.
+  const int firstRow = segments == 1 ? 2 : (segments <= 3 ? 1 : 0);
+  const int rowsAvailable = 4 - firstRow;
+  const int row = firstRow + l.segment % rowsAvailable;
+  const int block = l.segment / rowsAvailable;
+  return {row, 3 + block * 2 + (l.side == model::Side::right ? 1 : 0)};
+}
+
+}  // namespace
+
+TagKeyMap::TagKeyMap(const model::LimbSet& limbs) : limbs_(limbs) {
+  for (int i = 0; i < limbs.size(); ++i) {
+    const auto [row, col] = slotOf(limbs, i);
+    const QString& keys = kRows[static_cast<std::size_t>(row)];
+    keys_.push_back(keys.at(std::min<int>(col, static_cast<int>(keys.size()) - 1)).unicode());
+  }
+}
+
+TagKeyMap TagKeyMap::load(const model::LimbSet& limbs) {
+  TagKeyMap map(limbs);
+  QSettings settings;
+  for (int i = 0; i < limbs.size(); ++i) {
+    const int key = settings.value(settingsKey(limbs, i), 0).toInt();
+    if (key != 0) map.bind(i, key);
+  }
+  return map;
+}
+
+void TagKeyMap::save() const {
+  QSettings settings;
+  for (int i = 0; i < limbs_.size(); ++i) settings.setValue(settingsKey(limbs_, i), keyFor(i));
+}
+
+bool TagKeyMap::isReserved(int key) {
+  switch (key) {
+    case Qt::Key_Left:
+    case Qt::Key_Right:
+    case Qt::Key_Up:
+    case Qt::Key_Down:
+    case Qt::Key_Space:
+    case Qt::Key_Home:
+    case Qt::Key_End:
+    case Qt::Key_Delete:
+    case Qt::Key_Backspace:
+    case Qt::Key_Escape:
+    case Qt::Key_Tab:
+    case Qt::Key_Return:
+    case Qt::Key_Enter:
+    case Qt::Key_BracketLeft:
+    case Qt::Key_BracketRight:
+    case Qt::Key_Comma:
+    case Qt::Key_Period:
+    case Qt::Key_Plus:
+    case Qt::Key_Minus:
+      return true;
+    default:
+      return key == 0 || key == Qt::Key_unknown;
+  }
+}
+
+bool TagKeyMap::bind(int limb, int key) {
+  if (limb < 0 || limb >= limbs_.size() || isReserved(key)) return false;
+  for (int i = 0; i < limbs_.size(); ++i)
+    if (i != limb && keyFor(i) == key) return false;
+  keys_[static_cast<std::size_t>(limb)] = key;
+  return true;
+}
+
+std::optional<int> TagKeyMap::limbFor(int key) const {
+  const auto it = std::find(keys_.begin(), keys_.end(), key);
+  if (it == keys_.end()) return std::nullopt;
+  return static_cast<int>(it - keys_.begin());
+}
+
+QString TagKeyMap::keyText(int key) {
+  return QKeySequence(key).toString(QKeySequence::NativeText);
+}
+
+// --- legend ---
+
+TagKeyLegend::TagKeyLegend(QWidget* parent) : QWidget(parent) {
+  setAccessibleName(tr("Tag keys legend"));
+  setSizePolicy(QSizePolicy::Preferred, QSizePolicy::Fixed);
+}
+
+void TagKeyLegend::setKeys(const TagKeyMap& keys) {
+  keys_ = keys;
+  QStringList desc;
+  for (int i = 0; i < keys.limbs().size(); ++i)
+    desc << tr("%1: %2").arg(QString::fromStdString(keys.limbs().label(i)),
+                             TagKeyMap::keyText(keys.keyFor(i)));
+  setAccessibleDescription(desc.join(QStringLiteral(", ")));
+  setToolTip(tr("Tag keys (press to mark touchdown in swing, lift-off in stance): ") +
+             desc.join(QStringLiteral(", ")));
+  updateGeometry();
+  update();
+}
+
+QSize TagKeyLegend::sizeHint() const {
+  const int pairs = std::max(1, keys_.limbs().pairs());
+  return {220, 14 + std::min(pairs, 4) * 30};
+}
+
+void TagKeyLegend::paintEvent(QPaintEvent*) {
+  QPainter p(this);
+  p.setRenderHint(QPainter::Antialiasing);
+  const auto& limbs = keys_.limbs();
+  int minRow = 4;
+  for (int i = 0; i < limbs.size(); ++i) minRow = std::min(minRow, slotOf(limbs, i).first);
+  for (int i = 0; i < limbs.size(); ++i) {
+    const auto [row, col] = slotOf(limbs, i);
+    const QRectF cap(8 + (col - 3) * 104, 6 + (row - minRow) * 30, 98, 26);
+    const QColor colour = figures::limbColour(i);
+    p.setPen(QPen(colour.darker(120), 1.5));
+    QColor fill = colour;
+    fill.setAlpha(70);
+    p.setBrush(fill);
+    p.drawRoundedRect(cap, 5, 5);
+    p.setPen(palette().color(QPalette::WindowText));
+    QFont f = font();
+    f.setBold(true);
+    p.setFont(f);
+    p.drawText(cap.adjusted(6, 0, -6, 0), Qt::AlignVCenter | Qt::AlignLeft,
+               TagKeyMap::keyText(keys_.keyFor(i)));
+    f.setBold(false);
+    p.setFont(f);
+    p.drawText(cap.adjusted(6, 0, -6, 0), Qt::AlignVCenter | Qt::AlignRight,
+               QString::fromStdString(limbs.label(i)));
+  }
+}
+
+// --- rebinding dialog ---
+
+TagKeyDialog::TagKeyDialog(const TagKeyMap& keys, QWidget* parent) : QDialog(parent), keys_(keys) {
+  setWindowTitle(tr("Tag keys"));
+  auto* form = new QFormLayout;
+  for (int i = 0; i < keys.limbs().size(); ++i) {
+    auto* edit = new QKeySequenceEdit(QKeySequence(keys.keyFor(i)));
+    const auto label = QString::fromStdString(keys.limbs().label(i));
+    edit->setAccessibleName(tr("Tag key for %1").arg(label));
+    form->addRow(label, edit);
+    edits_.push_back(edit);
+  }
+  error_ = new QLabel;
+  error_->setWordWrap(true);
+  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel |
+                                       QDialogButtonBox::RestoreDefaults);
+  connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
+  connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
+  connect(buttons->button(QDialogButtonBox::RestoreDefaults), &QPushButton::clicked, this, [this] {
+    const TagKeyMap defaults(keys_.limbs());
+    for (std::size_t i = 0; i < edits_.size(); ++i)
+      edits_[i]->setKeySequence(QKeySequence(defaults.keyFor(static_cast<int>(i))));
+  });
+  auto* layout = new QVBoxLayout(this);
+  layout->addWidget(
+      new QLabel(tr("One plain key per limb (no modifiers). Arrows, space, "
+                    "Home/End, brackets, comma and period belong to the transport.")));
+  layout->addLayout(form);
+  layout->addWidget(error_);
+  layout->addWidget(buttons);
+}
+
+void TagKeyDialog::accept() {
+  std::vector<int> wanted;
+  for (auto* edit : edits_) {
+    const auto seq = edit->keySequence();
+    wanted.push_back(seq.isEmpty() ? 0 : seq[0].toCombined());
+  }
+  for (std::size_t i = 0; i < wanted.size(); ++i) {
+    const int key = wanted[i];
+    const bool plain = (key & Qt::KeyboardModifierMask) == 0;
+    const bool duplicate = std::count(wanted.begin(), wanted.end(), key) > 1;
+    if (!plain || duplicate || TagKeyMap::isReserved(key)) {
+      error_->setText(tr("The key for %1 is reserved, has modifiers or is used twice.")
+                          .arg(QString::fromStdString(keys_.limbs().label(static_cast<int>(i)))));
+      edits_[i]->setFocus();
+      return;
+    }
+  }
+  // All distinct and allowed. Park every limb on a unique placeholder first so that swapping
+  // two keys does not collide halfway.
+  TagKeyMap result(keys_.limbs());
+  for (std::size_t i = 0; i < wanted.size(); ++i)
+    result.bind(static_cast<int>(i), 0x01000100 + static_cast<int>(i));
+  for (std::size_t i = 0; i < wanted.size(); ++i) result.bind(static_cast<int>(i), wanted[i]);
+  keys_ = result;
+  QDialog::accept();
+}
+
+}  // namespace stridemark::ui
