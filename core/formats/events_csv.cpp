@@ -81,7 +81,11 @@ Columns parseHeader(std::string_view line, std::string_view file, long lineNumbe
     failAt(file, lineNumber,
            "header " + shown(line) + " " + what + " — " + std::string(kHeaderHelp));
   };
-  if (count != 3) bad("has " + std::to_string(count) + " columns, not 3");
+  if (count != 3 && line.find_first_of(";\t") != std::string_view::npos) {
+    bad("separates columns with ';' or tabs, not commas");
+  }
+  if (count != 3)
+    bad("has " + std::to_string(count) + (count == 1 ? " column" : " columns") + ", not 3");
   Columns columns;
   for (int i = 0; i < 3; ++i) {
     const std::string_view name = fields[static_cast<std::size_t>(i)];
