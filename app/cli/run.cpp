@@ -20,6 +20,7 @@ int runCommandLine(int argc, char** argv) {
   addProbeVerb(app, action);
   addFrameVerb(app, action);
   addScoreVerb(app, action);
+  addSynthVerb(app, action);
 
   try {
     app.parse(argc, argv);

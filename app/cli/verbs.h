@@ -13,5 +13,6 @@ using VerbAction = std::function<int()>;
 void addProbeVerb(CLI::App& app, VerbAction& action);
 void addFrameVerb(CLI::App& app, VerbAction& action);
 void addScoreVerb(CLI::App& app, VerbAction& action);
+void addSynthVerb(CLI::App& app, VerbAction& action);
 
 }  // namespace stridemark::cli

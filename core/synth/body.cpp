@@ -117,7 +117,7 @@ void drawLeg(const Painter& p, int index, const LegState& state, bool markers) {
   const cv::Scalar upperColour = shade(p.plan.coat, f);
   const cv::Scalar lowerColour =
       shade(p.plan.feet == FootStyle::hoof ? p.plan.coatDark : p.plan.coat, f * 0.95);
-  const bool insect = leg.kneeSign == 0;
+  const bool insect = p.plan.kind == LimbSetKind::hexapod || p.plan.kind == LimbSetKind::multiPair;
   const double thickUpper = (insect ? 0.06 : 0.14) * L;
   const double thickLower = (insect ? 0.04 : 0.085) * L;
   segment(p.img, hip, knee, thickUpper, upperColour);
@@ -203,13 +203,13 @@ void drawBipedBody(const Painter& p) {
 void drawInsectBody(const Painter& p) {
   const double L = p.plan.leg, Ls = L * p.s();
   const cv::Scalar& coat = p.plan.coat;
-  oval(p.img, p.at(-0.78 * L, 0.52 * L), 0.5 * Ls, 0.22 * Ls, 4, coat);  // abdomen
+  oval(p.img, p.at(-0.72 * L, 0.55 * L), 0.42 * Ls, 0.16 * Ls, 4, coat);  // abdomen
   for (int band = 0; band < 4; ++band)
-    segment(p.img, p.at((-0.45 - 0.18 * band) * L, 0.72 * L),
-            p.at((-0.45 - 0.18 * band) * L, 0.33 * L), 0.02 * Ls, shade(coat, 0.75));
-  oval(p.img, p.at(0.02 * L, 0.5 * L), 0.46 * Ls, 0.15 * Ls, 0, shade(coat, 1.1));  // thorax
-  const cv::Point2d head = p.at(0.62 * L, 0.52 * L);
-  disc(p.img, head, 0.15 * Ls, coat);
+    segment(p.img, p.at((-0.45 - 0.16 * band) * L, 0.68 * L),
+            p.at((-0.45 - 0.16 * band) * L, 0.43 * L), 0.02 * Ls, shade(coat, 0.75));
+  oval(p.img, p.at(0.02 * L, 0.53 * L), 0.42 * Ls, 0.11 * Ls, 0, shade(coat, 1.1));  // thorax
+  const cv::Point2d head = p.at(0.58 * L, 0.56 * L);
+  disc(p.img, head, 0.12 * Ls, coat);
   disc(p.img, head + cv::Point2d(0.06 * Ls, -0.04 * Ls), 0.045 * Ls, cv::Scalar(15, 15, 15));
   const double wag = 0.05 * L * std::sin(2 * kPi * p.clock);
   segment(p.img, head + cv::Point2d(0.08 * Ls, -0.1 * Ls), p.at(1.1 * L, 0.95 * L + wag), 0.02 * Ls,
@@ -261,11 +261,12 @@ BodyPlan makeBodyPlan(const model::LimbSet& limbs, double L, FootStyle feet, std
         break;
       case LimbSetKind::hexapod:
         leg.hipX = (0.32 - 0.32 * limb.segment) * L;
-        leg.hipY = 0.45 * L;
+        leg.hipY = 0.48 * L;
         leg.upper = 0.5 * L;
         leg.lower = 0.62 * L;
-        leg.kneeSign = 0;
-        leg.neutralX = (0.28 - 0.3 * limb.segment) * L;  // front feet reach forward, hind back
+        // Splayed like an insect's: front joints forward, middle raised, hind joints back.
+        leg.kneeSign = limb.segment == 0 ? 1 : (limb.segment == 2 ? -1 : 0);
+        leg.neutralX = (0.12 - 0.17 * limb.segment) * L;  // front feet reach forward, hind back
         break;
       case LimbSetKind::multiPair: {
         const double spacing = 0.36 * L;

@@ -106,6 +106,8 @@ struct Encoder::State {
         AVRational{static_cast<int>(options.fileRate.num), static_cast<int>(options.fileRate.den)};
     codec->pix_fmt = h264 ? AV_PIX_FMT_YUV420P : AV_PIX_FMT_YUVJ420P;
     codec->thread_count = options.threads;
+    // Demote libx264's per-run statistics (info) to verbose; warnings and errors still show.
+    codec->log_level_offset = AV_LOG_VERBOSE - AV_LOG_INFO;
     if (options.keyframeInterval > 0) codec->gop_size = options.keyframeInterval;
     if (format->oformat->flags & AVFMT_GLOBALHEADER) codec->flags |= AV_CODEC_FLAG_GLOBAL_HEADER;
 
