@@ -277,6 +277,8 @@ FrameReader::FrameReader(const std::string& path, std::shared_ptr<const FrameInd
                                          ": the frame index belongs to another stream; delete "
                                          "the index cache and open the file again");
   state_->openDecoder();
+  // A freshly opened file is positioned at its first packet: frame 0 needs no seek.
+  state_->positioned = true;
   for (PacketKey kind : {PacketKey::pos, PacketKey::dts, PacketKey::pts}) {
     if (keyUsable(*index_, kind, state_->packetByKey)) {
       state_->keyKind = kind;
@@ -284,6 +286,7 @@ FrameReader::FrameReader(const std::string& path, std::shared_ptr<const FrameInd
     }
   }
   if (state_->keyKind == PacketKey::count) state_->packetByKey.clear();
+  state_->counting = state_->keyKind == PacketKey::count;
 }
 
 FrameReader::~FrameReader() = default;
@@ -293,7 +296,7 @@ std::int64_t FrameReader::seekCount() const {
 }
 
 std::int64_t FrameReader::nextSequentialFrame() const {
-  return state_->positioned && !state_->draining ? state_->lastOutput + 1 : -1;
+  return state_->positioned ? state_->lastOutput + 1 : -1;
 }
 
 std::int64_t FrameReader::decodeSpan(std::int64_t first, std::int64_t last, const FrameSink& sink) {
@@ -311,7 +314,7 @@ std::int64_t FrameReader::decodeSpan(std::int64_t first, std::int64_t last, cons
     const std::int64_t want = delivered + 1;
     const std::int64_t key = index_->keyPacketFor(want, backoff);
     // Keep decoding when the decoder is before `want` and the keyframe is not further ahead.
-    const bool canContinue = s.positioned && !s.draining && s.lastOutput < want &&
+    const bool canContinue = s.positioned && s.lastOutput < want &&
                              (s.counting || s.nextPacket < 0 || key <= s.nextPacket);
     if (!canContinue) s.seekToPacket(key, landFails);
     const RunResult result = s.run(want, last, delivered, sink);

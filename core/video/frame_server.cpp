@@ -66,20 +66,15 @@ std::shared_ptr<const DecodedFrame> FrameServer::get(std::int64_t n) {
     return it->second;
   }
   ++stats_.misses;
-  demandLocked(n, true, nullptr, cancelled);
+  auto slot = std::make_shared<Slot>();
+  demandLocked(n, slot, nullptr, cancelled);
   lock.unlock();
   deliver(cancelled);
   lock.lock();
-  for (;;) {
-    if (auto it = cache_.find(n); it != cache_.end()) return it->second;
-    if (auto f = failures_.find(n); f != failures_.end()) {
-      const std::exception_ptr error = f->second;
-      failures_.erase(f);
-      std::rethrow_exception(error);
-    }
-    if (stopping_) throw Error(ErrorCategory::seek, "frame server closed while waiting");
-    arrived_.wait(lock);
-  }
+  arrived_.wait(lock, [&] { return slot->frame || slot->error || stopping_; });
+  if (slot->error) std::rethrow_exception(slot->error);
+  if (!slot->frame) throw Error(ErrorCategory::seek, "frame server closed while waiting");
+  return slot->frame;
 }
 
 std::shared_ptr<const DecodedFrame> FrameServer::tryGet(std::int64_t n) {
@@ -94,7 +89,7 @@ std::shared_ptr<const DecodedFrame> FrameServer::tryGet(std::int64_t n) {
       found = it->second;
     } else {
       ++stats_.misses;
-      demandLocked(n, false, nullptr, cancelled);
+      demandLocked(n, nullptr, nullptr, cancelled);
     }
   }
   wake_.notify_one();
@@ -114,7 +109,7 @@ void FrameServer::request(std::int64_t n, Callback done) {
       found = it->second;
     } else {
       ++stats_.misses;
-      demandLocked(n, false, std::move(done), cancelled);
+      demandLocked(n, nullptr, std::move(done), cancelled);
     }
   }
   wake_.notify_one();
@@ -135,17 +130,17 @@ bool FrameServer::jobWillProduceLocked(std::int64_t n) const {
 // Queues a demand for an uncached frame. Older non-blocking demands are superseded (their
 // callbacks get a null frame), and the running job is cancelled unless it is about to produce
 // the frame anyway (e.g. a prefetch the playhead caught up with).
-void FrameServer::demandLocked(std::int64_t n, bool blocking, Callback done,
+void FrameServer::demandLocked(std::int64_t n, std::shared_ptr<Slot> slot, Callback done,
                                std::vector<Ready>& cancelled) {
   std::vector<Pending> kept;
   for (auto& p : pending_) {
-    if (p.blocking || p.frame == n)
+    if (p.slot || p.frame == n)
       kept.push_back(std::move(p));
     else if (p.done)
       cancelled.push_back({std::move(p.done), p.frame, nullptr, nullptr});
   }
   pending_ = std::move(kept);
-  pending_.push_back({n, blocking, std::move(done)});
+  pending_.push_back({n, std::move(slot), std::move(done)});
   if (!jobWillProduceLocked(n)) {
     ++generation_;
     if (jobActive_) ++stats_.cancelledJobs;
@@ -209,6 +204,7 @@ void FrameServer::insertLocked(std::shared_ptr<const DecodedFrame> frame,
   std::vector<Pending> waiting;
   for (auto& p : pending_) {
     if (p.frame == n) {
+      if (p.slot) p.slot->frame = frame;
       if (p.done) ready.push_back({std::move(p.done), n, frame, nullptr});
     } else {
       waiting.push_back(std::move(p));
@@ -224,7 +220,7 @@ void FrameServer::failLocked(std::int64_t first, std::int64_t last, std::excepti
   std::vector<Pending> waiting;
   for (auto& p : pending_) {
     if (p.frame >= first && p.frame <= last) {
-      if (p.blocking) failures_[p.frame] = error;
+      if (p.slot) p.slot->error = error;
       if (p.done) ready.push_back({std::move(p.done), p.frame, nullptr, error});
     } else {
       waiting.push_back(std::move(p));
@@ -302,8 +298,11 @@ bool FrameServer::runBackground(std::unique_lock<std::mutex>& lock) {
   const std::int64_t start = contiguousStartLocked(playhead_);
   if (start > playhead_ || start == 0) return false;  // playhead not cached yet, or at the start
   if (playhead_ - start >= std::max<std::int64_t>(window / 2, 1)) return false;  // not yet
+  // One refill never crosses into the previous GOP, so it costs at most one plain seek to
+  // start-1; the next refill takes the GOP before.
   ++stats_.windowRefills;
-  decodeSpan(std::max<std::int64_t>(0, start - window), start - 1, lock);
+  const std::int64_t last = start - 1;
+  decodeSpan(std::max({std::int64_t{0}, last - window + 1, keyFrameNumber(last)}), last, lock);
   return true;
 }
 

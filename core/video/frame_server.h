@@ -70,9 +70,14 @@ class FrameServer {
   std::int64_t frameCount() const { return index_->frameCount(); }
 
  private:
+  // Where a waiting get() receives its answer (kept even if the cache evicts the frame).
+  struct Slot {
+    std::shared_ptr<const DecodedFrame> frame;
+    std::exception_ptr error;
+  };
   struct Pending {
     std::int64_t frame = -1;
-    bool blocking = false;  // a get() waiting: never cancelled by later requests
+    std::shared_ptr<Slot> slot;  // set for a blocking get(): never cancelled by later requests
     Callback done;
   };
   struct Ready {
@@ -85,7 +90,8 @@ class FrameServer {
 
   // All private helpers named "...Locked" expect mutex_ to be held.
   void moveToLocked(std::int64_t n);
-  void demandLocked(std::int64_t n, bool blocking, Callback done, std::vector<Ready>& cancelled);
+  void demandLocked(std::int64_t n, std::shared_ptr<Slot> slot, Callback done,
+                    std::vector<Ready>& cancelled);
   bool jobWillProduceLocked(std::int64_t n) const;
   void workerLoop();
   void runDemand(std::unique_lock<std::mutex>& lock);
@@ -116,7 +122,6 @@ class FrameServer {
   Direction direction_ = Direction::forward;
   std::uint64_t generation_ = 0;
   std::vector<Pending> pending_;
-  std::map<std::int64_t, std::exception_ptr> failures_;  // frame -> error, for get()
   bool jobActive_ = false;
   std::int64_t jobNext_ = 0;  // next frame the running job will deliver
   std::int64_t jobLast_ = -1;

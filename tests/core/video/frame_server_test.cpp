@@ -1,0 +1,158 @@
+// FrameServer: backward walks equal forward hashes, cancellation, byte budget.
+// Source of truth for pixels: `ffmpeg -f framemd5` of the same file.
+#include <gtest/gtest.h>
+
+#include <atomic>
+#include <chrono>
+#include <condition_variable>
+#include <mutex>
+#include <thread>
+
+#include "common/error.h"
+#include "video/convert.h"
+#include "video/frame_server.h"
+#include "video_test_support.h"
+
+extern "C" {
+#include <libavutil/log.h>
+}
+
+namespace stridemark::video {
+namespace {
+
+class FrameServerTest : public ::testing::Test {
+ protected:
+  void SetUp() override {
+    av_log_set_level(AV_LOG_ERROR);
+    path_ = testing::makeClip(testing::clipNamed("h264_bframes_gop250.mp4"));
+    reference_ = testing::referenceFrameMd5(path_);
+    index_ = std::make_shared<const FrameIndex>(FrameIndex::build(path_));
+    ASSERT_EQ(index_->frameCount(), static_cast<std::int64_t>(reference_.size()));
+  }
+  std::string md5At(std::int64_t n) const { return reference_[static_cast<std::size_t>(n)]; }
+
+  std::string path_;
+  std::vector<std::string> reference_;
+  std::shared_ptr<const FrameIndex> index_;
+};
+
+TEST_F(FrameServerTest, ForwardThenBackwardWalkGivesTheSameFrames) {
+  FrameServer server(path_, index_);
+  std::vector<std::string> forward;
+  for (std::int64_t n = 0; n < server.frameCount(); ++n) forward.push_back(server.get(n)->md5());
+  for (std::int64_t n = server.frameCount() - 1; n >= 0; --n)
+    ASSERT_EQ(server.get(n)->md5(), forward[static_cast<std::size_t>(n)]) << n;
+  for (std::int64_t n = 0; n < server.frameCount(); ++n)
+    ASSERT_EQ(forward[static_cast<std::size_t>(n)], md5At(n));
+}
+
+TEST_F(FrameServerTest, BackwardStepsAreMostlyCacheHits) {
+  FrameServer server(path_, index_);
+  server.get(server.frameCount() - 1);
+  for (std::int64_t n = server.frameCount() - 2; n >= 0; --n) {
+    ASSERT_EQ(server.get(n)->md5(), md5At(n)) << n;
+    std::this_thread::sleep_for(std::chrono::milliseconds(2));  // a person holding the key
+  }
+  const FrameServerStats stats = server.stats();
+  // Each step re-decoding its GOP would be ~300 misses; windows make it a handful.
+  EXPECT_LT(stats.misses, 12) << "hits " << stats.hits;
+  EXPECT_GT(stats.windowRefills, 0);
+}
+
+TEST_F(FrameServerTest, ByteBudgetIsRespected) {
+  FrameServerOptions options;
+  const std::size_t frameBytes = FrameServer(path_, index_).get(0)->bytes();
+  options.budgetBytes = 40 * frameBytes;
+  FrameServer server(path_, index_, options);
+  for (std::int64_t n = server.frameCount() - 1; n >= 0; n -= 3)
+    ASSERT_EQ(server.get(n)->md5(), md5At(n));
+  for (std::int64_t n = 0; n < server.frameCount(); n += 7)
+    ASSERT_EQ(server.get(n)->md5(), md5At(n));
+  const FrameServerStats stats = server.stats();
+  EXPECT_LE(stats.peakCachedBytes, options.budgetBytes);
+  EXPECT_LE(stats.cachedBytes, options.budgetBytes);
+  EXPECT_EQ(stats.windowFrames, 20);
+  // Lowering the budget evicts at once.
+  server.setBudget(5 * frameBytes);
+  EXPECT_LE(server.stats().cachedBytes, 5 * frameBytes);
+  EXPECT_EQ(server.get(123)->md5(), md5At(123));
+}
+
+TEST_F(FrameServerTest, ALaterRequestCancelsAnEarlierOneAndNothingIsLost) {
+  FrameServerOptions options;
+  options.budgetBytes = 64ull << 20;
+  FrameServer server(path_, index_, options);
+  std::mutex mutex;
+  std::condition_variable done;
+  std::map<std::int64_t, std::string> answers;  // frame -> md5 or "cancelled"
+  int calls = 0;
+  auto callback = [&](std::int64_t n, std::shared_ptr<const DecodedFrame> frame,
+                      std::exception_ptr error) {
+    std::lock_guard lock(mutex);
+    ++calls;
+    EXPECT_FALSE(error);
+    if (frame) {
+      EXPECT_EQ(frame->index(), n);
+    }
+    answers[n] = frame ? frame->md5() : "cancelled";
+    done.notify_all();
+  };
+  // Far-apart frames deep inside GOPs: each costs a long decode, so later ones supersede.
+  const std::vector<std::int64_t> targets = {240, 120, 299, 200, 60};
+  for (const std::int64_t n : targets) server.request(n, callback);
+  std::unique_lock lock(mutex);
+  ASSERT_TRUE(done.wait_for(lock, std::chrono::seconds(60), [&] { return calls == 5; }));
+  // The last request always arrives, exact; the others are exact or cancelled, never wrong.
+  EXPECT_EQ(answers[60], md5At(60));
+  int cancelled = 0;
+  for (const std::int64_t n : targets) {
+    if (answers[n] == "cancelled") {
+      ++cancelled;
+    } else {
+      EXPECT_EQ(answers[n], md5At(n)) << n;
+    }
+  }
+  EXPECT_GT(cancelled, 0) << "requests queued behind a long decode should be superseded";
+}
+
+TEST_F(FrameServerTest, TryGetNeverBlocksAndEventuallyHasTheFrame) {
+  FrameServer server(path_, index_);
+  std::shared_ptr<const DecodedFrame> frame;
+  const auto deadline = std::chrono::steady_clock::now() + std::chrono::seconds(30);
+  while (!(frame = server.tryGet(180)) && std::chrono::steady_clock::now() < deadline)
+    std::this_thread::sleep_for(std::chrono::milliseconds(5));
+  ASSERT_TRUE(frame);
+  EXPECT_EQ(frame->md5(), md5At(180));
+}
+
+TEST_F(FrameServerTest, OutOfRangeIsASeekError) {
+  FrameServer server(path_, index_);
+  EXPECT_THROW(server.get(-1), Error);
+  EXPECT_THROW(server.get(server.frameCount()), Error);
+}
+
+TEST_F(FrameServerTest, RgbaConversionMatchesFfmpeg) {
+  // Source: ffmpeg's swscale via the CLI (-pix_fmt rgba, rawvideo) for frame 37; our
+  // conversion must produce the same bytes for the same source frame.
+  FrameServer server(path_, index_);
+  const auto frame = server.get(37);
+  std::vector<std::uint8_t> rgba(static_cast<std::size_t>(frame->width() * frame->height() * 4));
+  FrameConverter converter;
+  converter.convert(*frame, PackedFormat::rgba, rgba.data(), frame->width() * 4);
+  std::string out;
+  testing::runCommand("ffmpeg -nostdin -v error -i '" + path_ +
+                          "' -vf \"select=eq(n\\,37)\" -fps_mode passthrough -frames:v 1 "
+                          "-sws_flags neighbor+accurate_rnd -pix_fmt rgba -f rawvideo - ",
+                      &out);
+  ASSERT_EQ(out.size(), rgba.size());
+  std::size_t maxDiff = 0;
+  for (std::size_t i = 0; i < rgba.size(); ++i)
+    maxDiff = std::max<std::size_t>(
+        maxDiff,
+        static_cast<std::size_t>(std::abs(static_cast<int>(rgba[i]) -
+                                          static_cast<int>(static_cast<std::uint8_t>(out[i])))));
+  EXPECT_LE(maxDiff, 2u) << "RGBA differs from ffmpeg's by more than rounding";
+}
+
+}  // namespace
+}  // namespace stridemark::video
