@@ -21,6 +21,7 @@ int runCommandLine(int argc, char** argv) {
   addFrameVerb(app, action);
   addScoreVerb(app, action);
   addSynthVerb(app, action);
+  addExportVerb(app, action);
 
   try {
     app.parse(argc, argv);

@@ -14,5 +14,6 @@ void addProbeVerb(CLI::App& app, VerbAction& action);
 void addFrameVerb(CLI::App& app, VerbAction& action);
 void addScoreVerb(CLI::App& app, VerbAction& action);
 void addSynthVerb(CLI::App& app, VerbAction& action);
+void addExportVerb(CLI::App& app, VerbAction& action);
 
 }  // namespace stridemark::cli

@@ -1,0 +1,82 @@
+"""Loads an export's tidy CSVs with pandas and checks them against its report JSON.
+
+Run with Debian's /usr/bin/python3 (python3-pandas). Exit 0 when everything matches; otherwise
+prints what differs and exits 1. Reference: pandas' own CSV reader, independent of our code.
+"""
+import json
+import math
+import sys
+
+import pandas as pd
+
+
+def close(a, b, tol=1e-6):
+    if a is None or (isinstance(a, float) and math.isnan(a)):
+        return b is None or (isinstance(b, float) and math.isnan(b))
+    if b is None or (isinstance(b, float) and math.isnan(b)):
+        return False
+    return abs(float(a) - float(b)) <= tol * max(1.0, abs(float(b)))
+
+
+def main(out_dir):
+    problems = []
+    with open(f"{out_dir}/report.json", encoding="utf-8") as f:
+        report = json.load(f)
+    header = report["extra"]["export"]
+    for key in ("software", "project", "video_signature", "capture_rate_fps"):
+        if not header.get(key):
+            problems.append(f"report.json extra.export.{key} missing")
+
+    tables = {}
+    for name in ("events", "strides", "limbs", "phases", "support", "bouts", "symmetry"):
+        path = f"{out_dir}/tables/{name}.csv"
+        tables[name] = pd.read_csv(path, comment="#")
+        with open(path, encoding="utf-8") as f:
+            head = f.read(2000)
+        for needle in ("# stridemark", "# project:", "# video_signature:", "capture_rate_fps"):
+            if needle not in head:
+                problems.append(f"{name}.csv header block lacks '{needle}'")
+
+    limbs = tables["limbs"]
+    for label, stats in report["limbs"].items():
+        for measure in ("stride_s", "stance_s", "swing_s", "duty_factor"):
+            row = limbs[(limbs["limb"] == label) & (limbs["measure"] == measure)]
+            if len(row) != 1:
+                problems.append(f"limbs.csv has {len(row)} rows for {label} {measure}")
+                continue
+            for field in ("n", "mean", "sd", "cv"):
+                if not close(row.iloc[0][field], stats[measure][field]):
+                    problems.append(f"limbs.csv {label} {measure} {field}: "
+                                    f"{row.iloc[0][field]} vs JSON {stats[measure][field]}")
+
+    strides = tables["strides"]
+    n_strides = strides["stride"].nunique() if len(strides) else 0
+    if n_strides != len(report["strides"]):
+        problems.append(f"strides.csv has {n_strides} strides, JSON {len(report['strides'])}")
+    for k, stride in enumerate(report["strides"]):
+        rows = strides[strides["stride"] == k]
+        for _, row in rows.iterrows():
+            if row["start_frame"] != stride["start_frame"] or row["gait"] != stride["gait"]:
+                problems.append(f"strides.csv stride {k} differs from JSON")
+            if not close(row["duty_factor"], stride["duty_factor"][row["limb"]]):
+                problems.append(f"strides.csv stride {k} {row['limb']} duty factor differs")
+
+    phases = tables["phases"]
+    for label, stats in report["phase"].items():
+        row = phases[phases["limb"] == label]
+        if len(row) != 1 or not close(row.iloc[0]["mean_cycles"], stats["mean"]):
+            problems.append(f"phases.csv {label} mean differs from JSON")
+
+    events = tables["events"]
+    if not {"limb", "event", "frame", "time_s"} <= set(events.columns):
+        problems.append(f"events.csv columns {list(events.columns)}")
+
+    for p in problems:
+        print(p)
+    print(f"checked {len(report['limbs'])} limbs, {len(report['strides'])} strides, "
+          f"{len(events)} events: {'OK' if not problems else 'MISMATCH'}")
+    return 1 if problems else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main(sys.argv[1]))

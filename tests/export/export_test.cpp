@@ -1,0 +1,239 @@
+// End-to-end tests of `stridemark export` and the export pipeline, checked with tools outside
+// the project: ffprobe (Debian ffmpeg) for the clip, poppler's pdfinfo/pdftoppm/pdftotext for
+// the PDF report, /usr/bin/python3 with pandas and xml.etree for tables and SVGs.
+#include <gtest/gtest.h>
+
+#include <QImage>
+#include <atomic>
+#include <filesystem>
+#include <regex>
+#include <string>
+
+#include "analysis/analyse.h"
+#include "common/error.h"
+#include "export_fixture.h"
+#include "formats/project_file.h"
+#include "ui/export/clip_compositor.h"
+#include "ui/export/clip_overlay.h"
+#include "ui/export/export_job.h"
+
+namespace fs = std::filesystem;
+using namespace stridemark;
+using namespace stridemark::testing;
+
+namespace {
+
+const std::string kSourceDir = STRIDEMARK_SOURCE_DIR;
+
+// Frame count, size, rate, pixel format and codec of the first video stream, as ffprobe sees
+// it after decoding every frame.
+std::string probeClip(const fs::path& clip) {
+  return run("ffprobe -v error -select_streams v:0 -count_frames -show_entries "
+             "stream=codec_name,pix_fmt,width,height,r_frame_rate,nb_read_frames "
+             "-of default=nw=1 '" +
+             clip.string() + "'")
+      .out;
+}
+
+int pdfPages(const fs::path& pdf) {
+  const CommandResult r = run("pdfinfo '" + pdf.string() + "'");
+  std::smatch m;
+  static const std::regex pages(R"(Pages:\s+(\d+))");
+  return std::regex_search(r.out, m, pages) ? std::stoi(m[1]) : -1;
+}
+
+std::vector<fs::path> filesUnder(const fs::path& dir) {
+  std::vector<fs::path> files;
+  for (const auto& e : fs::recursive_directory_iterator(dir)) {
+    if (e.is_regular_file()) files.push_back(e.path());
+  }
+  return files;
+}
+
+class ExportTest : public ::testing::Test {
+ protected:
+  static void SetUpTestSuite() {
+    dir_ = freshFolder("suite");
+    makeClip(dir_ / "trot.mp4", 200);
+    formats::writeProjectFile(dir_ / "trot.stridemark", trotProject("trot.mp4", 200));
+  }
+  static fs::path dir_;
+};
+fs::path ExportTest::dir_;
+
+// Source: ffprobe (Debian ffmpeg 5.1) decoding the written file; expected values are the
+// requested range (frames 10..129 -> 120 frames), the source size and the chosen playback rate.
+TEST_F(ExportTest, ClipReportTablesAndFiguresFromTheCommandLine) {
+  const fs::path out = dir_ / "full";
+  fs::remove_all(out);
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (dir_ / "trot.stridemark").string() + "' --out '" +
+          out.string() + "' --clip --from 10 --to 129 --playback 30 --report");
+  ASSERT_EQ(r.exitCode, 0) << r.out;
+
+  const std::string probe = probeClip(out / "clip" / "marked_clip.mp4");
+  EXPECT_NE(probe.find("codec_name=h264"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("pix_fmt=yuv420p"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("width=320"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("height=240"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("r_frame_rate=30/1"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("nb_read_frames=120"), std::string::npos) << probe;
+
+  // Source: poppler-utils pdfinfo / pdftoppm / pdftotext read the report independently.
+  const fs::path pdf = out / "report.pdf";
+  const int pages = pdfPages(pdf);
+  ASSERT_GE(pages, 2) << run("pdfinfo '" + pdf.string() + "'").out;
+  const fs::path renders = dir_ / "full_pages";
+  fs::remove_all(renders);
+  fs::create_directories(renders);
+  ASSERT_EQ(run("pdftoppm -r 40 -png '" + pdf.string() + "' '" + (renders / "page").string() + "'")
+                .exitCode,
+            0);
+  EXPECT_EQ(static_cast<int>(filesUnder(renders).size()), pages);
+  for (int page = 1; page <= pages; ++page) {
+    const std::string text = run("pdftotext -f " + std::to_string(page) + " -l " +
+                                 std::to_string(page) + " '" + pdf.string() + "' -")
+                                 .out;
+    // The clinical caution on every page footer (common.md, DESIGN §10).
+    EXPECT_NE(text.find("examination by a licensed veterinarian"), std::string::npos)
+        << "page " << page << ":\n"
+        << text;
+  }
+  const std::string first = run("pdftotext -f 1 -l 1 '" + pdf.string() + "' -").out;
+  for (const char* needle : {"Trial card", "Bramble", "Export test", "Stridemark", "Gait bouts"}) {
+    EXPECT_NE(first.find(needle), std::string::npos) << needle << " missing on page 1";
+  }
+
+  // Source: pandas read_csv (Debian python3-pandas) against Python's json module.
+  const CommandResult tables = run("/usr/bin/python3 '" + kSourceDir +
+                                   "/tests/export/check_tables.py' '" + out.string() + "'");
+  EXPECT_EQ(tables.exitCode, 0) << tables.out;
+
+  // Source: Python's xml.etree parses every SVG.
+  std::string svgs;
+  int pdfFigures = 0;
+  for (const fs::path& f : filesUnder(out / "figures")) {
+    if (f.extension() == ".svg") svgs += " '" + f.string() + "'";
+    if (f.extension() == ".pdf") {
+      ++pdfFigures;
+      EXPECT_EQ(pdfPages(f), 1) << f;
+    }
+  }
+  EXPECT_GE(pdfFigures, 5);
+  const CommandResult svg =
+      run("/usr/bin/python3 '" + kSourceDir + "/tests/export/check_svg.py'" + svgs);
+  EXPECT_EQ(svg.exitCode, 0) << svg.out;
+
+  // PNGs carry 300 dpi (11811 dots per metre) and are 85 mm wide: 1004 px.
+  ensureQt();
+  const QImage png(QString::fromStdString((out / "figures" / "gait_map.png").string()));
+  ASSERT_FALSE(png.isNull());
+  EXPECT_EQ(png.dotsPerMeterX(), 11811);
+  EXPECT_EQ(png.width(), 1004);
+
+  for (const fs::path& f : filesUnder(out)) {
+    EXPECT_EQ(f.filename().string().rfind(".part-", 0), std::string::npos) << "left over: " << f;
+  }
+}
+
+// A project whose video is gone: tables and figures are still written, the clip is not, and
+// the exit code (1) and message say why.
+TEST_F(ExportTest, MissingVideoStillWritesTablesAndFigures) {
+  const fs::path work = freshFolder("missing");
+  formats::writeProjectFile(work / "lost.stridemark", trotProject("moved-away.mp4", 200));
+  const fs::path out = work / "out";
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (work / "lost.stridemark").string() + "' --out '" +
+          out.string() + "' --clip --figures svg");
+  EXPECT_EQ(r.exitCode, 1) << r.out;
+  EXPECT_NE(r.out.find("moved-away.mp4' was not found"), std::string::npos) << r.out;
+  EXPECT_NE(r.out.find("no marked clip"), std::string::npos) << r.out;
+  EXPECT_TRUE(fs::exists(out / "tables" / "strides.csv"));
+  EXPECT_TRUE(fs::exists(out / "report.json"));
+  EXPECT_TRUE(fs::exists(out / "figures" / "footfall_diagram.svg"));
+  EXPECT_FALSE(fs::exists(out / "figures" / "footfall_diagram.png"));
+  EXPECT_FALSE(fs::exists(out / "clip"));
+}
+
+// Cancelling in the middle of the clip leaves no file at all behind.
+TEST_F(ExportTest, CancelledExportLeavesNothingBehind) {
+  ensureQt();
+  const fs::path out = dir_ / "cancelled";
+  fs::remove_all(out);
+  ui::exports::ExportOptions options;
+  options.projectPath = dir_ / "trot.stridemark";
+  options.outDir = out;
+  options.report = true;
+  options.clip = true;
+  std::atomic<bool> cancel{false};
+  double clipSeen = 0;
+  auto progress = [&](const std::string& stage, double fraction) {
+    if (stage == "clip") {
+      clipSeen = fraction;
+      if (fraction > 0.2) cancel = true;
+    }
+  };
+  EXPECT_THROW(ui::exports::runExport(options, progress, cancel), Error);
+  EXPECT_GT(clipSeen, 0.2);
+  EXPECT_FALSE(fs::exists(out)) << "left: " << (fs::exists(out) ? filesUnder(out).size() : 0u);
+}
+
+// A failure (bad frame range) after tables and figures were staged leaves nothing either.
+TEST_F(ExportTest, FailedExportLeavesNothingBehind) {
+  const fs::path out = dir_ / "failed";
+  fs::remove_all(out);
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (dir_ / "trot.stridemark").string() + "' --out '" +
+          out.string() + "' --clip --from 150 --to 400");
+  EXPECT_EQ(r.exitCode, 1) << r.out;
+  EXPECT_NE(r.out.find("outside the video"), std::string::npos) << r.out;
+  EXPECT_FALSE(fs::exists(out));
+}
+
+// Side by side: the footfall panel widens the frame by 0.8 x height (192 px), still even.
+TEST_F(ExportTest, SideBySideClipIsWiderAndDefaultsToSlowMotion) {
+  const fs::path out = dir_ / "side";
+  fs::remove_all(out);
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (dir_ / "trot.stridemark").string() + "' --out '" +
+          out.string() + "' --clip --side-by-side --from 0 --to 47 --figures none");
+  ASSERT_EQ(r.exitCode, 0) << r.out;
+  const std::string probe = probeClip(out / "clip" / "marked_clip.mp4");
+  EXPECT_NE(probe.find("width=512"), std::string::npos) << probe;
+  EXPECT_NE(probe.find("nb_read_frames=48"), std::string::npos) << probe;
+  // Capture 240 fps -> 30 fps playback by default (8x slow motion).
+  EXPECT_NE(probe.find("r_frame_rate=30/1"), std::string::npos) << probe;
+  EXPECT_FALSE(fs::exists(out / "figures"));
+}
+
+// The overlay's stance state follows the tags, including a clip that starts mid-stance.
+// Common practice, no source: stance is [touchdown, lift-off).
+TEST(ClipOverlay, StanceStateFollowsTags) {
+  const model::Project p = trotProject("x.mp4", 200);
+  const analysis::Report report = analysis::analyse(p.annotation);
+  const ui::exports::OverlayModel m(p.annotation, report);
+  const int lh = *p.annotation.limbs.indexOf("LH");
+  const int lf = *p.annotation.limbs.indexOf("LF");
+  EXPECT_TRUE(m.inStance(lh, 0));   // before its first lift-off at 3
+  EXPECT_FALSE(m.inStance(lh, 3));  // lift-off frame starts swing
+  EXPECT_TRUE(m.inStance(lh, 5));
+  EXPECT_TRUE(m.inStance(lh, 30));
+  EXPECT_FALSE(m.inStance(lh, 31));
+  EXPECT_FALSE(m.inStance(lf, 5));
+  EXPECT_TRUE(m.inStance(lf, 29));
+  EXPECT_TRUE(m.inStance(lh, 500));  // the last touchdown at 197 stays open
+  ASSERT_TRUE(m.strideAt(60).has_value());
+  EXPECT_EQ(*m.strideAt(60), 1u);
+  EXPECT_FALSE(m.strideAt(2).has_value());
+  EXPECT_TRUE(m.hidden(*p.annotation.limbs.indexOf("RH"), 63));
+}
+
+// Common practice, no source: high-speed footage plays back at 30 fps, normal footage as is.
+TEST(ClipOverlay, DefaultPlaybackRate) {
+  EXPECT_EQ(ui::exports::defaultPlaybackRate({240, 1}), (Rational{30, 1}));
+  EXPECT_EQ(ui::exports::defaultPlaybackRate({1000, 1}), (Rational{30, 1}));
+  EXPECT_EQ(ui::exports::defaultPlaybackRate({25, 1}), (Rational{25, 1}));
+  EXPECT_EQ(ui::exports::defaultPlaybackRate({30000, 1001}), (Rational{30000, 1001}));
+}
+
+}  // namespace

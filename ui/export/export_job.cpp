@@ -1,0 +1,237 @@
+#include "ui/export/export_job.h"
+
+#include <QDateTime>
+#include <QString>
+#include <algorithm>
+#include <fstream>
+#include <nlohmann/json.hpp>
+
+#include "analysis/analyse.h"
+#include "common/error.h"
+#include "formats/project_file.h"
+#include "formats/report_json.h"
+#include "formats/tables_csv.h"
+#include "stridemark/version.h"
+#include "ui/export/figure_set.h"
+#include "ui/export/report_pdf.h"
+#include "ui/export/staged_output.h"
+#include "ui/figures/footfall_diagram.h"
+#include "video/frame_index.h"
+
+namespace stridemark::ui::exports {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+struct Context {
+  const ExportOptions& options;
+  const model::Project& project;
+  const analysis::Report& report;
+  std::string projectName;
+  std::string exportedAt;
+  StagedOutput& out;
+  const ExportProgress& progress;
+  const std::atomic<bool>& cancel;
+};
+
+void checkCancel(const Context& c) {
+  if (c.cancel.load()) {
+    throw Error(ErrorCategory::export_,
+                "export cancelled; nothing was written to '" + c.options.outDir.string() + "'.");
+  }
+}
+
+void report(const Context& c, const std::string& stage, double fraction) {
+  if (c.progress) c.progress(stage, fraction);
+}
+
+void writeText(const fs::path& path, const std::string& text) {
+  std::ofstream file(path, std::ios::binary);
+  file << text;
+  file.close();
+  if (!file) {
+    throw Error(ErrorCategory::io,
+                "cannot write '" + path.string() + "'. Check free disk space and permissions.");
+  }
+}
+
+std::string videoSignature(const model::Project& p) {
+  return p.video && !p.video->signature.empty() ? p.video->signature : "none";
+}
+
+// The export's header block, added after the table's own first '#' line (software version).
+std::string withHeader(const std::string& table, const Context& c) {
+  std::string header = "# project: " + c.projectName + "\n";
+  header += "# video: " + (c.project.video ? c.project.video->path : std::string("none")) + "\n";
+  header += "# video_signature: " + videoSignature(c.project) + "\n";
+  header += "# exported_utc: " + c.exportedAt + "\n";
+  const std::size_t firstLineEnd = table.find('\n');
+  if (firstLineEnd == std::string::npos) return header + table;
+  return table.substr(0, firstLineEnd + 1) + header + table.substr(firstLineEnd + 1);
+}
+
+// The score verb's report JSON, with the export header under its "extra" key.
+std::string reportJsonWithHeader(const Context& c) {
+  nlohmann::ordered_json doc = nlohmann::ordered_json::parse(formats::reportJsonText(c.report));
+  nlohmann::ordered_json header;
+  header["software"] = std::string("stridemark ") + kVersion;
+  header["project"] = c.projectName;
+  header["video"] = c.project.video ? c.project.video->path : std::string();
+  header["video_signature"] = videoSignature(c.project);
+  header["capture_rate_fps"] = toString(c.report.fps);
+  header["exported_utc"] = c.exportedAt;
+  doc["extra"]["export"] = header;
+  return doc.dump(2) + "\n";
+}
+
+void writeTables(const Context& c) {
+  report(c, "tables", 0);
+  const formats::TableSource source{c.projectName};
+  const model::Annotation& a = c.project.annotation;
+  const analysis::Report& r = c.report;
+  const std::vector<std::pair<std::string, std::string>> tables = {
+      {"events.csv", formats::eventsTable(a, source)},
+      {"strides.csv", formats::stridesTable(r, source)},
+      {"limbs.csv", formats::limbsTable(r, source)},
+      {"phases.csv", formats::phasesTable(r, source)},
+      {"support.csv", formats::supportTable(r, source)},
+      {"bouts.csv", formats::boutsTable(r, source)},
+      {"symmetry.csv", formats::symmetryTable(r, source)},
+  };
+  for (const auto& [name, text] : tables) {
+    writeText(c.out.stage(fs::path("tables") / name), withHeader(text, c));
+  }
+  writeText(c.out.stage("report.json"), reportJsonWithHeader(c));
+  report(c, "tables", 1);
+}
+
+void writeFigures(const Context& c, const std::vector<NamedFigure>& figures) {
+  const std::size_t total = figures.size() * c.options.figureFormats.size();
+  std::size_t done = 0;
+  for (const NamedFigure& f : figures) {
+    for (const FigureFormat format : c.options.figureFormats) {
+      checkCancel(c);
+      const fs::path relative =
+          fs::path("figures") / (f.stem + "." + std::string(extensionOf(format)));
+      writeFigure(f.paint, f.size, format, QString::fromStdString(c.out.stage(relative).string()),
+                  f.title);
+      report(c, "figures", static_cast<double>(++done) / static_cast<double>(total));
+    }
+  }
+}
+
+// Why there can be no clip, or nothing when the video is there.
+std::optional<std::string> clipObstacle(const Context& c, const fs::path& video) {
+  if (!c.project.video) {
+    return "the project links no video, so no marked clip was made. Link the video in the "
+           "workstation (Trial card) and export again.";
+  }
+  std::error_code ec;
+  if (!fs::is_regular_file(video, ec)) {
+    return "the project's video '" + video.string() +
+           "' was not found, so no marked clip was made (tables and figures were written). "
+           "Move the video back or relink it in the workstation, then export again with --clip.";
+  }
+  return std::nullopt;
+}
+
+ClipResult writeClip(const Context& c, const fs::path& video) {
+  const model::Annotation& a = c.project.annotation;
+  ClipSettings s;
+  s.videoPath = video.string();
+  s.index = std::make_shared<const video::FrameIndex>(video::FrameIndex::build(s.videoPath));
+  const std::int64_t count = s.index->frameCount();
+  const std::optional<ScoredRange> scored = scoredRange(a);
+  s.first =
+      c.options.from.value_or(scored ? std::clamp<std::int64_t>(scored->first, 0, count - 1) : 0);
+  s.last = c.options.to.value_or(scored ? std::clamp<std::int64_t>(scored->last, 0, count - 1)
+                                        : count - 1);
+  s.playbackRate = c.options.playback.value_or(defaultPlaybackRate(a.captureRate));
+  s.encoderThreads = c.options.encoderThreads;
+  s.x264Preset = c.options.x264Preset;
+  if (c.options.sideBySide) {
+    const figures::FigureStyle style = figures::FigureStyle::print();
+    const std::int64_t first = s.first;
+    const std::int64_t last = s.last;
+    s.sidePanel = [&a, style, first, last](QPainter& p, const QRectF& area, std::int64_t frame) {
+      figures::FootfallOptions o;
+      o.viewFirst = first;
+      o.viewLast = std::max(last, first + 1);
+      o.playhead = frame;
+      o.labelWidth = 40;
+      figures::FigureStyle big = style;
+      big.fontPx = std::max(12, static_cast<int>(area.height() / 45));
+      const QRectF inner = area.adjusted(area.width() * 0.03, area.height() * 0.25,
+                                         -area.width() * 0.03, -area.height() * 0.25);
+      figures::paintFootfallDiagram(p, inner, a, o, big);
+    };
+  }
+  const OverlayModel overlay(a, c.report);
+  const fs::path staged = c.out.stage("clip/marked_clip.mp4");
+  return renderMarkedClip(
+      s, overlay, staged,
+      [&](std::int64_t done, std::int64_t total) {
+        report(c, "clip", static_cast<double>(done) / static_cast<double>(total));
+      },
+      c.cancel);
+}
+
+analysis::Report analyseProject(const model::Project& project) {
+  analysis::AnalysisOptions options;
+  options.speedMs = project.trial.speedMs;
+  options.legLengthM = project.trial.legLengthM;
+  return analysis::analyse(project.annotation, options);
+}
+
+}  // namespace
+
+fs::path resolveVideoPath(const fs::path& projectPath, const std::string& linkedPath) {
+  const fs::path linked(linkedPath);
+  if (linked.is_absolute()) return linked;
+  return projectPath.parent_path() / linked;
+}
+
+ExportOutcome runExport(const ExportOptions& options, const ExportProgress& progress,
+                        const std::atomic<bool>& cancel) {
+  const model::Project project = formats::readProjectFile(options.projectPath);
+  const analysis::Report analysed = analyseProject(project);
+  if (options.from && options.to && *options.from > *options.to) {
+    throw Error(ErrorCategory::format, "--from " + std::to_string(*options.from) +
+                                           " is after --to " + std::to_string(*options.to) +
+                                           "; give the first frame, then the last.");
+  }
+  StagedOutput out(options.outDir);
+  const Context c{options,
+                  project,
+                  analysed,
+                  options.projectPath.filename().string(),
+                  QDateTime::currentDateTimeUtc().toString(Qt::ISODate).toStdString(),
+                  out,
+                  progress,
+                  cancel};
+  ExportOutcome outcome;
+  writeTables(c);
+  const std::vector<NamedFigure> figures = exportFigures(project.annotation, analysed);
+  writeFigures(c, figures);
+  if (options.report) {
+    checkCancel(c);
+    report(c, "report", 0);
+    const ReportSource source{&project, &analysed, c.projectName, c.exportedAt};
+    outcome.reportPages =
+        writeReportPdf(source, figures, QString::fromStdString(out.stage("report.pdf").string()));
+    report(c, "report", 1);
+  }
+  if (options.clip) {
+    checkCancel(c);
+    const fs::path video =
+        project.video ? resolveVideoPath(options.projectPath, project.video->path) : fs::path();
+    outcome.clipProblem = clipObstacle(c, video);
+    if (!outcome.clipProblem) outcome.clip = writeClip(c, video);
+  }
+  checkCancel(c);
+  outcome.written = out.commit();
+  return outcome;
+}
+
+}  // namespace stridemark::ui::exports
