@@ -80,7 +80,7 @@ class LimbScanner {
     std::sort(tags.begin(), tags.end(), [](const Tag& a, const Tag& b) {
       return a.frame != b.frame ? a.frame < b.frame : a.kind < b.kind;
     });
-    tags = dropUnusable(tags);
+    dropUnusable(tags);
     orderSameFrame(tags);
     track_.known.reserve(tags.size() + 2 * hidden_.size());
     track_.touchdowns.reserve(tags.size() / 2 + 1);
@@ -103,15 +103,16 @@ class LimbScanner {
   }
 
   // Duplicates, tags outside the clip and tags inside hidden spans are reported and ignored.
-  std::vector<Tag> dropUnusable(const std::vector<Tag>& tags) {
-    std::vector<Tag> kept;
-    kept.reserve(tags.size());
+  // Filters in place: long annotations should not pay for a second copy.
+  void dropUnusable(std::vector<Tag>& tags) {
+    std::size_t kept = 0;
     const auto& clip = annotation_.clip;
-    for (const Tag& t : tags) {
+    for (std::size_t i = 0; i < tags.size(); ++i) {
+      const Tag t = tags[i];  // a copy: slot i may be overwritten below
       const auto what = [&] {
         return describe(t.kind) + " of " + label() + " at frame " + std::to_string(t.frame);
       };
-      if (!kept.empty() && kept.back().frame == t.frame && kept.back().kind == t.kind) {
+      if (kept > 0 && tags[kept - 1].frame == t.frame && tags[kept - 1].kind == t.kind) {
         report(t.frame, "duplicate " + what() + "; delete one of the two tags", t.frame);
       } else if (clip && (t.frame < clip->first || t.frame > clip->last)) {
         report(t.frame,
@@ -124,10 +125,10 @@ class LimbScanner {
                    " is marked hidden; it was ignored - delete the tag or shorten the span",
                t.frame);
       } else {
-        kept.push_back(t);
+        tags[kept++] = t;
       }
     }
-    return kept;
+    tags.resize(kept);
   }
 
   // A touchdown and a lift-off on one frame: read them in the order the state implies (a limb
@@ -226,6 +227,10 @@ CycleScan scanCycles(const model::Annotation& annotation) {
   CycleScan scan;
   const int limbCount = annotation.limbs.size();
   std::vector<std::vector<Tag>> tags(static_cast<std::size_t>(limbCount));
+  std::vector<std::size_t> perLimb(static_cast<std::size_t>(limbCount), 0);
+  for (const model::Event& e : annotation.events)
+    if (e.limb >= 0 && e.limb < limbCount) ++perLimb[static_cast<std::size_t>(e.limb)];
+  for (std::size_t i = 0; i < tags.size(); ++i) tags[i].reserve(perLimb[i]);
   for (const model::Event& e : annotation.events) {
     if (e.limb < 0 || e.limb >= limbCount) {
       scan.problems.push_back({e.frame, std::nullopt,
