@@ -36,6 +36,7 @@ struct SynthArgs {
   double speed = 0;      // 0: from each gait
   double startCycle = 0.3;
   int threads = 2;
+  std::string preset = "ultrafast";
   std::string subject = "synthetic subject", species, condition, note;
 };
 
@@ -90,6 +91,7 @@ int runSynth(const SynthArgs& a, const std::vector<std::string>& arguments) {
   o.codec = a.mjpeg ? synth::ClipCodec::mjpeg : synth::ClipCodec::h264;
   o.writeVideo = !a.noVideo;
   o.encoderThreads = a.threads;
+  o.x264Preset = a.preset;
   o.subject = a.subject;
   o.species = a.species;
   o.condition = a.condition;
@@ -150,6 +152,9 @@ void addSynthVerb(CLI::App& app, VerbAction& action) {
                   "Constant belt / ground speed in m/s (default: each gait's own speed)");
   cmd->add_option("--start-phase", args->startCycle, "Stride clock at frame 0 (0-1)");
   cmd->add_option("--threads", args->threads, "Encoder threads (explicit; default 2)");
+  cmd->add_option("--x264-preset", args->preset,
+                  "libx264 preset: ultrafast (default, fastest) .. veryfast (files ~5x smaller)")
+      ->check(CLI::IsMember({"ultrafast", "superfast", "veryfast", "faster", "fast", "medium"}));
   cmd->add_option("--subject", args->subject, "Trial card: subject");
   cmd->add_option("--species", args->species, "Trial card: species");
   cmd->add_option("--condition", args->condition, "Trial card: condition");

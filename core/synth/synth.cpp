@@ -39,6 +39,7 @@ void renderVideo(const SynthOptions& options, const Timeline& timeline,
   enc.fileRate = storedRate(options);
   enc.codec = options.codec == ClipCodec::h264 ? video::VideoCodec::h264 : video::VideoCodec::mjpeg;
   enc.threads = options.encoderThreads;
+  enc.x264Preset = options.x264Preset;
   enc.comment = "Synthetic clip made by stridemark synth; capture rate " +
                 toString(options.timeline.captureRate) + " fps";
   video::Encoder encoder(enc);

@@ -28,6 +28,7 @@ struct SynthOptions {
   ClipCodec codec = ClipCodec::h264;
   bool writeVideo = true;  // false: ground truth, project and manifest only
   int encoderThreads = 2;
+  std::string x264Preset = "ultrafast";  // fastest; "veryfast" gives files ~5x smaller
   std::string subject = "synthetic subject";
   std::string species;  // free text for the trial card
   std::string condition;
