@@ -60,11 +60,7 @@ model::Project loadEventsCsv(const ScoreOptions& options, std::string_view conte
                        "recorded) or add a '# fps: F' line above the CSV header"};
   }
   model::Project project;
-  project.annotation.limbs = csv.limbs;
-  project.annotation.captureRate = *csv.captureRate;
-  project.annotation.referenceLimb = csv.referenceLimb.value_or(csv.limbs.defaultReference());
-  project.annotation.events = std::move(csv.events);
-  project.annotation.normalize();
+  project.annotation = formats::toAnnotation(std::move(csv));
   return project;
 }
 
@@ -90,6 +86,9 @@ analysis::AnalysisOptions analysisOptions(const ScoreOptions& options,
                          annotation.limbs.labelList()};
     }
   }
+  // Per-stride support shares are not part of the report JSON or the tables; skipping them
+  // saves about 0.7 kB per stride on long trials.
+  result.strideSupport = false;
   result.speedMs = options.speed;
   result.legLengthM = options.legLength;
   return result;

@@ -39,6 +39,11 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
                          const EventsCsvOptions& options = {});
 EventsCsv readEventsCsv(const std::filesystem::path& path, const EventsCsvOptions& options = {});
 
+// The annotation an events CSV describes (limb set, capture rate, reference limb, events in
+// model order). Needs a capture rate. Events already in frame order are grouped by limb in
+// linear time, so a large file costs no full sort.
+model::Annotation toAnnotation(EventsCsv&& csv);
+
 // Header comment block (software version, limb set, capture rate, reference limb, optional
 // source note) followed by limb,event,frame rows in frame order.
 std::string formatEventsCsv(const model::Annotation& annotation, std::string_view source = {});

@@ -1,5 +1,6 @@
 #include "formats/json_out.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "formats/text_scan.h"
@@ -9,6 +10,14 @@ namespace stridemark::formats {
 void appendJsonString(std::string& out, std::string_view value) {
   static constexpr char kHex[] = "0123456789abcdef";
   out += '"';
+  const bool plain = std::none_of(value.begin(), value.end(), [](char c) {
+    return c == '"' || c == '\\' || static_cast<unsigned char>(c) < 0x20;
+  });
+  if (plain) {  // the usual case: keys, labels, gait names
+    out.append(value);
+    out += '"';
+    return;
+  }
   for (const char c : value) {
     const auto byte = static_cast<unsigned char>(c);
     switch (c) {

@@ -223,3 +223,25 @@ TEST(EventsCsv, ReadsAFileAndNamesAMissingOne) {
 
 }  // namespace
 }  // namespace stridemark::formats
+
+namespace stridemark::formats {
+namespace {
+
+TEST(EventsCsv, ToAnnotationGivesModelOrderWhateverTheFileOrder) {
+  EventsCsvOptions options;
+  options.captureRate = Rational{100, 1};
+  for (const std::string body : {"LH,touchdown,5\nLF,touchdown,7\nLH,liftoff,9\nLF,liftoff,9\n",
+                                 "LF,liftoff,9\nLH,liftoff,9\nLF,touchdown,7\nLH,touchdown,5\n",
+                                 "LH,liftoff,9\nLH,touchdown,9\nLH,touchdown,5\n"}) {
+    EventsCsv csv = parseEventsCsv("# reference: RF\nlimb,event,frame\n" + body, "a", options);
+    std::vector<model::Event> expected = csv.events;
+    std::sort(expected.begin(), expected.end());
+    const model::Annotation annotation = toAnnotation(std::move(csv));
+    EXPECT_EQ(annotation.events, expected) << body;
+    EXPECT_EQ(annotation.referenceLimb, 1);
+    EXPECT_EQ(annotation.captureRate, (Rational{100, 1}));
+  }
+}
+
+}  // namespace
+}  // namespace stridemark::formats
