@@ -27,6 +27,14 @@ std::string rateText(const JsonIn& fps) {
   }
 }
 
+model::LimbSet limbSetAt(const JsonIn& name) {
+  try {
+    return model::LimbSet::fromName(name.text());
+  } catch (const Error& e) {
+    name.fail(e.what());
+  }
+}
+
 std::string eventWordFromV0(const JsonIn& word) {
   const std::string text = word.text();
   if (text == "td") return "touchdown";
@@ -53,14 +61,21 @@ void migrateV0toV1(nlohmann::json& document, std::string_view fileName) {
     next["video"] = {
         {"path", video->text()}, {"signature", ""}, {"frame_count", 0}, {"file_rate", nullptr}};
   }
+  // Tags are checked here so that errors name their place in the old file (/tags/N/...).
+  const model::LimbSet limbs = limbSetAt(old.at("limbs"));
   nlohmann::json events = nlohmann::json::array();
   const JsonIn tags = old.at("tags");
   for (std::size_t i = 0; i < tags.arraySize(); ++i) {
     const JsonIn tag = tags.at(i);
     if (tag.arraySize() != 3) tag.fail("expected [limb, td|lo, frame]");
-    events.push_back({{"limb", tag.at(0).text()},
-                      {"event", eventWordFromV0(tag.at(1))},
-                      {"frame", tag.at(2).integer()}});
+    const std::string label = tag.at(0).text();
+    if (!limbs.indexOf(label)) {
+      tag.at(0).fail("unknown limb '" + label + "' for limb set " + limbs.name() +
+                     " — use one of " + limbs.labelList());
+    }
+    const std::int64_t frame = tag.at(2).integer();
+    if (frame < 0) tag.at(2).fail("frame " + std::to_string(frame) + " is negative");
+    events.push_back({{"limb", label}, {"event", eventWordFromV0(tag.at(1))}, {"frame", frame}});
   }
   next["events"] = std::move(events);
   next["hidden"] = nlohmann::json::array();

@@ -107,6 +107,10 @@ TEST(ProjectFile, MigrationErrorsNameThePathInTheOldFile) {
           "tags":[["LH","td",1],["LH","up",9]]})");
   EXPECT_NE(message.find("p.stridemark: at /tags/1/1: unknown tag 'up'"), std::string::npos)
       << message;
+  const std::string limb = errorOf(
+      R"({"format":"stridemark-project","version":0,"limbs":"biped","fps":240,
+          "tags":[["L","td",1],["LH","td",9]]})");
+  EXPECT_NE(limb.find("p.stridemark: at /tags/1/0: unknown limb 'LH'"), std::string::npos) << limb;
 }
 
 struct BadProject {
