@@ -12,8 +12,9 @@ namespace stridemark::video {
 
 namespace {
 
-// Frames kept before the target of a cold jump (cheap to keep, useful for a first back step).
-constexpr std::int64_t kKeepBeforeJump = 16;
+// Frames kept before the target of a cold jump: about two seconds of holding the back-step
+// key, which gives the first window refill time to finish (VIDEO-NOTES §4.2.4).
+constexpr std::int64_t kKeepBeforeJump = 60;
 
 }  // namespace
 
@@ -274,7 +275,12 @@ void FrameServer::runDemand(std::unique_lock<std::mutex>& lock) {
   // would make this step slower than a plain seek); the prefetch fills the rest.
   const std::int64_t keep =
       direction_ == Direction::backward ? windowFramesLocked() - 1 : kKeepBeforeJump;
-  const std::int64_t first = std::max(keyFrameNumber(n), n - keep);
+  std::int64_t first = std::max(keyFrameNumber(n), n - keep);
+  while (first < n && cache_.count(first)) ++first;
+  // When the decoder already stands inside the span, continue from there instead of seeking
+  // back (a forward step that outran the decode-ahead).
+  const std::int64_t next = reader_->nextSequentialFrame();
+  if (next > first && next <= n) first = next;
   decodeSpan(first, n, lock);
 }
 
@@ -297,7 +303,9 @@ bool FrameServer::runBackground(std::unique_lock<std::mutex>& lock) {
   const std::int64_t window = windowFramesLocked();
   const std::int64_t start = contiguousStartLocked(playhead_);
   if (start > playhead_ || start == 0) return false;  // playhead not cached yet, or at the start
-  if (playhead_ - start >= std::max<std::int64_t>(window / 2, 1)) return false;  // not yet
+  // Refill as soon as less than a window is cached before the playhead: the cache holds the
+  // window being stepped through plus the next one (window = budget / 2).
+  if (playhead_ - start >= window) return false;
   // One refill never crosses into the previous GOP, so it costs at most one plain seek to
   // start-1; the next refill takes the GOP before.
   ++stats_.windowRefills;

@@ -121,23 +121,29 @@ TEST_F(IndexTest, ProbeWarnsAboutVariableFrameRate) {
   EXPECT_FALSE(info.warnings.empty());
 }
 
-TEST_F(IndexTest, ProbeWarnsAboutCoarseTimeBaseAndWrongNominalRate) {
+TEST_F(IndexTest, ProbeWarnsAboutACoarseTimeBase) {
   // Matroska stores 1 ms timestamps: at 1000 fps that is one tick per frame (DESIGN §8a).
+  testing::makeClip(testing::clipNamed("h264_1000fps.mp4"));
   const std::string mkv = testing::makeClip(
       {"h264_1000fps.mkv", "-i " + testing::clipFolder() + "/h264_1000fps.mp4 -c copy"});
-  testing::makeClip(testing::clipNamed("h264_1000fps.mp4"));
   const VideoInfo coarse = probeVideo(mkv);
   bool coarseWarned = false;
   for (const auto& w : coarse.warnings) coarseWarned |= w.find("too coarse") != std::string::npos;
   EXPECT_TRUE(coarseWarned);
-  // A high-speed clip stored at a playback rate: timestamps say 30 fps, the stream header
-  // (raw H.264 re-muxed with -r) claims otherwise only when they disagree. Build one whose
-  // container rate (r_frame_rate) and timestamps disagree by re-timing with setts.
-  const std::string retimed = testing::makeClip(
-      {"retimed.mp4",
-       "-i " + testing::clipFolder() + "/h264_1000fps.mp4 -c copy -bsf:v setts=ts=TS*33 -r 1000"});
+}
+
+TEST_F(IndexTest, ProbeDerivesTheRateFromTimestampsNotFromCounting) {
+  // Stretch every timestamp 33x (a 1000 fps capture stored for playback at ~30 fps): the
+  // frame count stays 300, the timestamp rate becomes 1000/33 and the capture rate is left
+  // for the user to set (no capture-rate metadata in this file).
+  testing::makeClip(testing::clipNamed("h264_1000fps.mp4"));
+  const std::string retimed =
+      testing::makeClip({"retimed.mp4", "-i " + testing::clipFolder() +
+                                            "/h264_1000fps.mp4 -c copy -bsf:v setts=ts=TS*33"});
   const VideoInfo slow = probeVideo(retimed);
+  EXPECT_EQ(slow.frameCount, 300);
   EXPECT_NEAR(slow.indexRate.toDouble(), 1000.0 / 33.0, 0.01);
+  EXPECT_FALSE(slow.captureRateFromMetadata);
 }
 
 }  // namespace
