@@ -51,6 +51,13 @@ nlohmann::json parseJsonText(std::string_view text, std::string_view fileName) {
       reason = reason.substr(pos + 2);
     throw Error(ErrorCategory::format, where + ": not valid JSON (" + reason +
                                            ") — repair the file or restore a backup copy");
+  } catch (const nlohmann::json::exception& e) {
+    // e.g. a number too large for a double: the parser names the number, not its place.
+    std::string reason = e.what();
+    if (const auto pos = reason.find("] "); pos != std::string::npos)
+      reason = reason.substr(pos + 2);
+    throw Error(ErrorCategory::format, std::string(fileName) + ": not valid JSON (" + reason +
+                                           ") — repair the file or restore a backup copy");
   }
 }
 
