@@ -87,14 +87,23 @@ model::Project trotProject(const std::string& videoPath, std::int64_t frameCount
   return p;
 }
 
-void ensureQt() {
+namespace {
+std::unique_ptr<QGuiApplication>& qtApp() {
   static std::unique_ptr<QGuiApplication> app;
-  if (app) return;
+  return app;
+}
+}  // namespace
+
+void ensureQt() {
+  if (qtApp()) return;
   setenv("QT_QPA_PLATFORM", "offscreen", 1);
   static int argc = 1;
   static char name[] = "test_export";
   static char* argv[] = {name, nullptr};
-  app = std::make_unique<QGuiApplication>(argc, argv);
+  qtApp() = std::make_unique<QGuiApplication>(argc, argv);
+  // Registered after Qt built its own globals, so it runs before they are torn down; a
+  // QGuiApplication destroyed during static destruction crashes in Qt 6.4.
+  std::atexit([] { qtApp().reset(); });
 }
 
 std::string stridemarkBinary() {

@@ -159,6 +159,7 @@ ClipResult writeClip(const Context& c, const fs::path& video) {
       o.viewFirst = first;
       o.viewLast = std::max(last, first + 1);
       o.playhead = frame;
+      o.drawTicks = false;  // the whole range is shown: ticks would crowd it
       o.labelWidth = 40;
       figures::FigureStyle big = style;
       big.fontPx = std::max(12, static_cast<int>(area.height() / 45));

@@ -13,7 +13,10 @@ using analysis::Stat;
 
 QString formatNumber(double value, int decimals) {
   if (std::isnan(value)) return QStringLiteral("–");
-  return QString::number(value, 'f', decimals);
+  QString text = QString::number(value, 'f', decimals);
+  // A value that rounds to zero is shown without a sign ("-0.0" reads like an asymmetry).
+  if (text.startsWith(QLatin1Char('-')) && text.toDouble() == 0.0) text.remove(0, 1);
+  return text;
 }
 
 QString formatStat(const Stat& stat, int decimals) {

@@ -74,7 +74,7 @@ void drawPanel(QPainter& p, const QRectF& cell, const analysis::Report& r, int l
                const LimbTimes& t, double yMax, const FigureStyle& style, bool leftColumn,
                bool bottomRow) {
   const double fp = style.fontPx;
-  const QRectF plot = cell.adjusted(fp * 3.0, fp * 1.5, -fp * 0.6, -fp * 1.9);
+  const QRectF plot = cell.adjusted(fp * 4.2, fp * 1.5, -fp * 0.6, -fp * 1.9);
   p.setPen(QPen(style.grid, 0.8));
   for (int i = 1; i < 4; ++i) {
     const double y = plot.bottom() - i / 4.0 * plot.height();
@@ -86,7 +86,7 @@ void drawPanel(QPainter& p, const QRectF& cell, const analysis::Report& r, int l
   p.setFont(style.font(-3));
   for (int i = 0; i <= 4; i += 2) {
     const double y = plot.bottom() - i / 4.0 * plot.height();
-    p.drawText(QRectF(cell.left(), y - fp * 0.6, fp * 2.8, fp * 1.2),
+    p.drawText(QRectF(cell.left() + fp * 1.2, y - fp * 0.6, fp * 2.8, fp * 1.2),
                Qt::AlignRight | Qt::AlignVCenter, QString::number(yMax * i / 4.0, 'g', 3));
   }
   const std::size_t n = std::max(t.stance.size(), std::size_t{1});
