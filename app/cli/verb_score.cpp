@@ -208,15 +208,16 @@ void addScoreVerb(CLI::App& app, VerbAction& action) {
   auto options = std::make_shared<ScoreOptions>();
   CLI::App* verb = app.add_subcommand(
       "score", "Score touchdown/lift-off tags: strides, duty factors, phases, gaits, symmetry");
-  verb->add_option("INPUT", options->input, "events CSV (limb,event,frame) or project file")
+  verb->add_option("INPUT", options->input,
+                   "events CSV (limb,event,frame) or project file (.stridemark)")
       ->required();
   verb->add_option("--fps", options->fps,
                    "capture rate in frames per second (240, 239.76, 30000/1001); required for "
                    "an events CSV without a '# fps:' line, overrides a project's rate")
       ->check(checkedBy([](const std::string& v) { parseRate(v, "--fps"); }));
   verb->add_option("--limbs", options->limbs,
-                   "limb set of an events CSV: quadruped (default), biped, hexapod, "
-                   "multi-pair-N")
+                   "limb set of an events CSV: quadruped, biped, hexapod, multi-pair-N "
+                   "(default: the file's '# limbs:' line, else quadruped)")
       ->check(checkedBy([](const std::string& v) { model::LimbSet::fromName(v); }));
   verb->add_option("--reference", options->reference,
                    "reference limb for strides and phases (default: LH, L or L1)");
