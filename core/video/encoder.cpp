@@ -8,6 +8,7 @@ extern "C" {
 #include <libavutil/dict.h>
 #include <libavutil/error.h>
 #include <libavutil/frame.h>
+#include <libavutil/imgutils.h>
 #include <libavutil/opt.h>
 #include <libswscale/swscale.h>
 }
@@ -53,6 +54,8 @@ AVPixelFormat libavLayout(PixelLayout layout) {
       return AV_PIX_FMT_RGBA;
     case PixelLayout::bgra32:
       return AV_PIX_FMT_BGRA;
+    case PixelLayout::yuv420p:
+      return AV_PIX_FMT_YUV420P;
   }
   return AV_PIX_FMT_BGR24;
 }
@@ -197,9 +200,28 @@ void Encoder::write(const std::uint8_t* pixels, std::ptrdiff_t stride) {
   State& s = *state_;
   if (s.finished) throw Error(ErrorCategory::export_, "internal: write() after finish()");
   s.check(av_frame_make_writable(s.frame.get()), "cannot reuse the frame buffer");
-  const std::uint8_t* const planes[1] = {pixels};
-  const int strides[1] = {static_cast<int>(stride)};
-  sws_scale(s.scaler.get(), planes, strides, 0, s.options.height, s.frame->data, s.frame->linesize);
+  const int w = s.options.width, h = s.options.height;
+  const auto ys = static_cast<int>(stride);
+  if (s.options.input == PixelLayout::yuv420p) {
+    const std::uint8_t* const planes[3] = {pixels, pixels + static_cast<std::ptrdiff_t>(ys) * h,
+                                           pixels + static_cast<std::ptrdiff_t>(ys) * h +
+                                               static_cast<std::ptrdiff_t>(ys / 2) * (h / 2)};
+    const int strides[3] = {ys, ys / 2, ys / 2};
+    if (s.codec->pix_fmt == AV_PIX_FMT_YUV420P) {
+      // Already what the codec takes: copy the planes (the caller's conversion is often faster
+      // than swscale's plain-C BGR path).
+      av_image_copy_plane(s.frame->data[0], s.frame->linesize[0], planes[0], strides[0], w, h);
+      for (int p = 1; p < 3; ++p)
+        av_image_copy_plane(s.frame->data[p], s.frame->linesize[p], planes[p], strides[p], w / 2,
+                            h / 2);
+    } else {  // MJPEG wants full-range YUV: let swscale convert the range
+      sws_scale(s.scaler.get(), planes, strides, 0, h, s.frame->data, s.frame->linesize);
+    }
+  } else {
+    const std::uint8_t* const planes[1] = {pixels};
+    const int strides[1] = {ys};
+    sws_scale(s.scaler.get(), planes, strides, 0, h, s.frame->data, s.frame->linesize);
+  }
   s.frame->pts = s.written;
   s.encode(s.frame.get());
   ++s.written;

@@ -13,7 +13,9 @@
 namespace stridemark::video {
 
 enum class VideoCodec { h264, mjpeg };
-enum class PixelLayout { bgr24, rgba32, bgra32 };
+// Packed BGR / RGBA / BGRA, or planar I420 (Y plane then U then V, each plane contiguous with
+// strides width, width/2, width/2 when `stride` is the width) which skips the conversion.
+enum class PixelLayout { bgr24, rgba32, bgra32, yuv420p };
 
 struct EncoderOptions {
   std::filesystem::path path;  // .mp4 for H.264, .avi for MJPEG (the container follows the codec)
@@ -39,7 +41,8 @@ class Encoder {
   Encoder(const Encoder&) = delete;
   Encoder& operator=(const Encoder&) = delete;
 
-  // One frame of options().width x height pixels in the input layout; `stride` in bytes.
+  // One frame of options().width x height pixels in the input layout; `stride` in bytes (for
+  // yuv420p: the Y plane's stride; chroma planes follow with half of it).
   void write(const std::uint8_t* pixels, std::ptrdiff_t stride);
   // Drains the codec and writes the trailer. Called by the destructor if not called before
   // (errors are then swallowed); call it yourself to see them.

@@ -9,7 +9,9 @@
 #include <sstream>
 #include <string>
 
+#include <opencv2/imgcodecs.hpp>
 #include "common/error.h"
+
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
 #include "formats/project_file.h"
@@ -120,6 +122,33 @@ TEST(Output, ProjectLinksTheVideo) {
   EXPECT_EQ(project.video->fileRate, (Rational{30, 1}));
   EXPECT_TRUE(fs::exists(dir / project.video->path));
   fs::remove_all(dir);
+}
+
+// Source: ffmpeg(1) (Debian) decodes the written files; the first frame must match what the
+// renderer drew (colour matrix and range handled for both codecs). Tolerance: common practice,
+// no source (lossy codecs; mean absolute error of a few grey levels).
+TEST(Output, DecodedFirstFrameMatchesTheRenderedOne) {
+  for (const auto codec : {ClipCodec::h264, ClipCodec::mjpeg}) {
+    const fs::path dir = freshDir(codec == ClipCodec::h264 ? "colour-h264" : "colour-mjpeg");
+    auto options = smallClip(dir);
+    options.render.noise = 0;
+    options.codec = codec;
+    const auto result = generate(options);
+    const Timeline timeline = makeTimeline(options);
+    Renderer renderer(timeline, options.render);
+    cv::Mat drawn;
+    renderer.render(0, drawn);
+    const fs::path png = dir / "first.png";
+    runCommand("ffmpeg -v error -y -i '" + result.video.string() + "' -frames:v 1 '" +
+               png.string() + "'");
+    const cv::Mat decoded = cv::imread(png.string(), cv::IMREAD_COLOR);
+    ASSERT_FALSE(decoded.empty()) << png;
+    ASSERT_EQ(decoded.size(), drawn.size());
+    const double meanError =
+        cv::norm(decoded, drawn, cv::NORM_L1) / static_cast<double>(drawn.total() * 3);
+    EXPECT_LT(meanError, 4.0) << result.video;
+    fs::remove_all(dir);
+  }
 }
 
 TEST(Output, UnwritableFolderIsAClearError) {
