@@ -1,10 +1,10 @@
 #!/usr/bin/env bash
 # Regenerates the demo samples with our own synthetic generator (`stridemark synth`).
-# Usage: samples/regenerate.sh [path/to/stridemark]   (default: build/app/stridemark)
+# Usage: samples/regenerate.sh [path/to/stridemark]   (default: build/ci/app/stridemark)
 # Same arguments and seed -> the same events CSV byte for byte (checked by synth_samples_test).
 set -euo pipefail
 here="$(cd "$(dirname "$0")" && pwd)"
-bin="${1:-${STRIDEMARK:-$here/../build/app/stridemark}}"
+bin="${1:-${STRIDEMARK:-$here/../build/ci/app/stridemark}}"
 if [[ ! -x "$bin" ]]; then
   echo "regenerate.sh: no stridemark binary at '$bin'; build it first or pass its path" >&2
   exit 1

@@ -2,13 +2,16 @@
 // sample's manifest reproduces its events CSV byte for byte.
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cstdlib>
 #include <filesystem>
 #include <string>
 
 #include <nlohmann/json.hpp>
 
+#include "analysis/analyse.h"
 #include "formats/file_io.h"
+#include "formats/project_file.h"
 
 namespace {
 
@@ -40,6 +43,31 @@ TEST(Samples, EventsRegenerateByteForByte) {
               stridemark::formats::readWholeFile(entry.path() / "events.csv"))
         << entry.path() << " no longer regenerates; command: " << command;
     fs::remove_all(out);
+    ++checked;
+  }
+  EXPECT_GE(checked, 3);
+}
+
+// Scoring each committed sample finds every gait of its schedule as a bout, with no annotation
+// problems. Labels: METHODS.md team decisions (the same the preset tests check).
+TEST(Samples, ScoringFindsEveryScheduledGait) {
+  const fs::path samples = fs::path(STRIDEMARK_SOURCE_DIR) / "samples";
+  int checked = 0;
+  for (const auto& entry : fs::directory_iterator(samples)) {
+    const fs::path manifestPath = entry.path() / "manifest.json";
+    if (!fs::exists(manifestPath)) continue;
+    const auto manifest = nlohmann::json::parse(stridemark::formats::readWholeFile(manifestPath));
+    const auto project = stridemark::formats::readProjectFile(
+        entry.path() / manifest.at("files").at("project").get<std::string>());
+    const auto report = stridemark::analysis::analyse(project.annotation);
+    EXPECT_TRUE(report.problems.empty()) << entry.path();
+    for (const auto& segment : manifest.at("segments")) {
+      std::string label = segment.at("gait").get<std::string>();
+      if (label == "transverse-gallop" || label == "rotary-gallop") label[label.find('-')] = ' ';
+      const bool found = std::any_of(report.bouts.begin(), report.bouts.end(),
+                                     [&](const auto& bout) { return bout.gait == label; });
+      EXPECT_TRUE(found) << entry.path() << ": no bout of " << label;
+    }
     ++checked;
   }
   EXPECT_GE(checked, 3);
