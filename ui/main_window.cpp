@@ -41,6 +41,11 @@
 #include "ui/widgets/trial_card_dialog.h"
 #include "ui/widgets/viewer.h"
 
+// Resources live in the static ui library: register them explicitly (global namespace).
+static void initStridemarkResources() {
+  Q_INIT_RESOURCE(stridemark);
+}
+
 namespace stridemark::ui {
 
 namespace {
@@ -93,6 +98,7 @@ QString findMovedVideo(const QString& projectDir, const model::VideoLink& link) 
 }  // namespace
 
 MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::LimbSet::quadruped()) {
+  initStridemarkResources();
   setObjectName(QStringLiteral("StridemarkMainWindow"));
   setWindowIcon(QIcon(QStringLiteral(":/stridemark/icons/stridemark.svg")));
   setAcceptDrops(true);
@@ -591,10 +597,10 @@ void MainWindow::goToDialog() {
 
 // --- tagging ---
 
-bool MainWindow::tagLimb(int limb) {
+bool MainWindow::tagLimb(int limb, bool opposite) {
   if (limb < 0 || limb >= doc_.annotation().limbs.size()) return false;
   selectLimb(limb);
-  const auto added = doc_.tag(limb, playhead_);
+  const auto added = doc_.tag(limb, playhead_, opposite);
   if (added && autoAdvanceAction_->isChecked()) seek(playhead_ + autoAdvanceFrames_);
   return added.has_value();
 }
@@ -629,15 +635,14 @@ void MainWindow::selectLimb(int limb) {
 bool MainWindow::eventFilter(QObject* watched, QEvent* event) {
   if (event->type() != QEvent::KeyPress) return QMainWindow::eventFilter(watched, event);
   auto* widget = qobject_cast<QWidget*>(watched);
-  if (!widget || widget->window() != this || !isActiveWindow())
-    return QMainWindow::eventFilter(watched, event);
+  if (!widget || widget->window() != this) return QMainWindow::eventFilter(watched, event);
   auto* key = static_cast<QKeyEvent*>(event);
   const auto mods = key->modifiers() & ~Qt::KeypadModifier;
-  // Tag keys never fire while a text field has focus, nor with modifiers held.
-  if (mods != Qt::NoModifier || isTextInput(QApplication::focusWidget()))
+  // Tag keys never fire while a text field has focus, nor with Ctrl/Alt/Meta held.
+  if ((mods & ~Qt::ShiftModifier) != Qt::NoModifier || isTextInput(QApplication::focusWidget()))
     return QMainWindow::eventFilter(watched, event);
   if (const auto limb = keys_.limbFor(key->key())) {
-    if (!key->isAutoRepeat()) tagLimb(*limb);
+    if (!key->isAutoRepeat()) tagLimb(*limb, mods & Qt::ShiftModifier);
     return true;
   }
   return QMainWindow::eventFilter(watched, event);

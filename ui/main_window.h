@@ -47,7 +47,8 @@ class MainWindow : public QMainWindow {
   void seek(std::int64_t frame);
   std::int64_t playhead() const { return playhead_; }
   std::int64_t frameCount() const;
-  bool tagLimb(int limb);  // what a tag key press does
+  // What a tag key press does (Shift: the opposite kind).
+  bool tagLimb(int limb, bool opposite = false);
 
   ProjectDocument* document() { return &doc_; }
   AnalysisRunner* analysisRunner() { return &runner_; }

@@ -89,8 +89,11 @@ bool ProjectDocument::contains(const model::Event& event) const {
   return std::binary_search(events.begin(), events.end(), event);
 }
 
-std::optional<model::Event> ProjectDocument::tag(int limb, std::int64_t frame) {
-  const bool stance = project_.annotation.inStance(limb, frame);
+std::optional<model::Event> ProjectDocument::tag(int limb, std::int64_t frame, bool opposite) {
+  // One event per limb and frame: a second press on the same frame is refused.
+  for (const auto kind : {model::EventKind::touchdown, model::EventKind::liftoff})
+    if (contains({frame, limb, kind})) return std::nullopt;
+  const bool stance = project_.annotation.inStance(limb, frame) != opposite;
   const model::Event event{frame, limb,
                            stance ? model::EventKind::liftoff : model::EventKind::touchdown};
   if (!addEvent(event)) return std::nullopt;

@@ -43,7 +43,8 @@ class ProjectDocument : public QObject {
   // --- edits (each pushes one undo command) ---
   // Marks touchdown if the limb is in swing at `frame`, lift-off if it is in stance. Returns
   // the event added, or nothing when an identical event already exists there.
-  std::optional<model::Event> tag(int limb, std::int64_t frame);
+  // `opposite` marks the other kind (a first lift-off when the clip starts in stance).
+  std::optional<model::Event> tag(int limb, std::int64_t frame, bool opposite = false);
   bool addEvent(const model::Event& event);
   void removeEvents(const std::vector<model::Event>& events);
   // Moves events by `delta` frames. Nudges (one-frame key moves) merge into one history entry.

@@ -42,7 +42,8 @@ void showCheatSheet(QWidget* parent, const TagKeyMap& keys) {
           "<tr><td><b>Ctrl+S</b></td><td>save</td></tr>"
           "<tr><td><b>Ctrl+T</b></td><td>Trial card</td></tr>%1</table>"
           "<p>Tag keys are laid out like the animal seen from above: front limbs on the upper "
-          "row, left limbs on the left. They do nothing while a text field has focus. Rebind "
+          "row, left limbs on the left. Shift+tag key marks the other kind (e.g. a first lift-off "
+          "when the clip starts in stance). They do nothing while a text field has focus. Rebind "
           "them under Settings ▸ Tag keys.</p>")
           .arg(tags);
   QDialog dialog(parent);

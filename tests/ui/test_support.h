@@ -1,0 +1,27 @@
+#pragma once
+// Shared helpers for the ui suites: the Qt application environment (offscreen), a recorder
+// for error messages, and a synthetic trot clip with exact ground truth from core/synth.
+#include <QString>
+#include <QStringList>
+#include <filesystem>
+
+#include "model/annotation.h"
+
+namespace stridemark::ui::test {
+
+// Messages that reached ui::reportError since the last clear().
+QStringList& recordedErrors();
+
+struct SampleClip {
+  std::filesystem::path video, events, project;
+  model::Annotation truth;
+};
+
+// Writes a small trot clip (H.264, 120 fps) with its ground truth into `dir` using our own
+// generator. Deterministic: same seed, same events.
+SampleClip makeTrotClip(const std::filesystem::path& dir, double seconds = 3.0);
+
+// Processes events until `done` returns true or `ms` pass; returns done().
+bool waitUntil(const std::function<bool()>& done, int ms = 10000);
+
+}  // namespace stridemark::ui::test
