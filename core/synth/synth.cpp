@@ -1,6 +1,7 @@
 #include "synth/synth.h"
 
 #include <cmath>
+#include <cstdio>
 #include <system_error>
 
 #include <nlohmann/json.hpp>
@@ -12,6 +13,7 @@
 #include "formats/file_io.h"
 #include "formats/project_file.h"
 #include "video/encoder.h"
+#include "video/frame_index.h"
 
 namespace stridemark::synth {
 namespace {
@@ -60,6 +62,16 @@ void renderVideo(const SynthOptions& options, const Timeline& timeline,
 
 nlohmann::json rateJson(Rational r) {
   return toString(r);
+}
+
+// Same text form as the workstation's video link ("size-headhash-tailhash"), so a moved clip
+// can be recognised.
+std::string signatureText(const video::VideoSignature& s) {
+  char text[64];
+  std::snprintf(
+      text, sizeof text, "%llu-%016llx-%016llx", static_cast<unsigned long long>(s.fileSize),
+      static_cast<unsigned long long>(s.headHash), static_cast<unsigned long long>(s.tailHash));
+  return text;
 }
 
 }  // namespace
@@ -164,6 +176,7 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
     renderVideo(options, timeline, result.video, progress);
     model::VideoLink link;
     link.path = result.video.filename().string();
+    link.signature = signatureText(video::computeSignature(result.video.string()));
     link.frameCount = timeline.frameCount();
     link.fileRate = storedRate(options);
     project.video = link;

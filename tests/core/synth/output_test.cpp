@@ -121,6 +121,9 @@ TEST(Output, ProjectLinksTheVideo) {
   EXPECT_EQ(project.video->frameCount, 135);
   EXPECT_EQ(project.video->fileRate, (Rational{30, 1}));
   EXPECT_TRUE(fs::exists(dir / project.video->path));
+  // size-headhash-tailhash, size first (as the workstation writes it)
+  EXPECT_EQ(project.video->signature.substr(0, project.video->signature.find('-')),
+            std::to_string(fs::file_size(dir / project.video->path)));
   fs::remove_all(dir);
 }
 
