@@ -251,7 +251,7 @@ void MainWindow::buildActions() {
   bar->setObjectName(QStringLiteral("transportBar"));
   auto both = [bar](QAction* a) { bar->addAction(a); };
   both(addAction(transport, tr("First frame"), QKeySequence(Qt::Key_Home), [this] { seek(0); }));
-  both(addAction(transport, tr("Back %1 frames").arg(QString()), QKeySequence(tr("Shift+Left")),
+  both(addAction(transport, tr("Back N frames"), QKeySequence(tr("Shift+Left")),
                  [this] { stepBy(-bigStep_); }));
   both(addAction(transport, tr("Step back"), QKeySequence(Qt::Key_Left), [this] { stepBy(-1); }));
   both(addAction(transport, tr("Play backwards"), QKeySequence(tr("Shift+Space")),

@@ -83,15 +83,18 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
   }
   p.setFont(style.font(-1));
   p.drawText(QRectF(plot.left(), plot.bottom() + fp * 1.4, plot.width(), fp * 1.6), Qt::AlignCenter,
-             QStringLiteral("limb phase (fore touchdown after ipsilateral hind, % of stride)"));
+             QStringLiteral("limb phase (% of hind stride)"));
   p.save();
   p.translate(rect.left() + fp * 0.2, plot.center().y());
   p.rotate(-90);
   p.drawText(QRectF(-plot.height() / 2, 0, plot.height(), fp * 1.4), Qt::AlignCenter,
              QStringLiteral("hind duty factor"));
   p.restore();
-  p.drawText(QRectF(plot.right() - 90, px(0, 0.5).y() - fp * 1.4, 88, fp * 1.3), Qt::AlignRight,
-             QStringLiteral("walking ↑ running ↓"));
+  p.setFont(style.font(-3));
+  p.drawText(QRectF(plot.left() + 3, px(0, 0.5).y() - fp * 1.2, plot.width() / 2, fp * 1.1),
+             Qt::AlignLeft | Qt::AlignVCenter, QStringLiteral("walking ↑"));
+  p.drawText(QRectF(plot.left() + 3, px(0, 0.5).y() + fp * 0.1, plot.width() / 2, fp * 1.1),
+             Qt::AlignLeft | Qt::AlignVCenter, QStringLiteral("running ↓"));
   // Strides.
   int plotted = 0;
   for (const auto& s : report.strides) {
@@ -127,7 +130,7 @@ void paintPhaseDial(QPainter& p, const QRectF& rect, const analysis::Report& rep
   p.fillRect(rect, style.background);
   const double fp = style.fontPx;
   const double legendW = fp * 7;
-  const QRectF area = rect.adjusted(fp, fp * 1.6, -legendW, -fp);
+  const QRectF area = rect.adjusted(fp * 2.2, fp * 2.8, -legendW, -fp * 1.6);
   const double radius = std::min(area.width(), area.height()) / 2;
   const QPointF centre = area.center();
   const int n = report.limbs.size();

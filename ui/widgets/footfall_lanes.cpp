@@ -44,6 +44,8 @@ void FootfallLanes::setPlayhead(std::int64_t frame) {
 
 void FootfallLanes::setFrameCount(std::int64_t count) {
   frameCount_ = count;
+  // A short clip fits whole: never show frames past its end.
+  if (count > 0) span_ = std::clamp<std::int64_t>(count, 20, 480);
   clampView();
   update();
 }
