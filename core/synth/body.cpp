@@ -260,10 +260,10 @@ BodyPlan makeBodyPlan(const model::LimbSet& limbs, double L, FootStyle feet, std
         leg.kneeSign = -1;
         break;
       case LimbSetKind::hexapod:
-        leg.hipX = (0.32 - 0.32 * limb.segment) * L;
+        leg.hipX = (0.24 - 0.24 * limb.segment) * L;  // all three pairs on the thorax
         leg.hipY = 0.48 * L;
-        leg.upper = 0.5 * L;
-        leg.lower = 0.62 * L;
+        leg.upper = 0.38 * L;
+        leg.lower = 0.5 * L;
         // Splayed like an insect's: front joints forward, middle raised, hind joints back.
         leg.kneeSign = limb.segment == 0 ? 1 : (limb.segment == 2 ? -1 : 0);
         leg.neutralX = (0.12 - 0.17 * limb.segment) * L;  // front feet reach forward, hind back
