@@ -1,7 +1,8 @@
 #include "export_fixture.h"
 
+#include <gtest/gtest.h>
 #include <sys/wait.h>
-#include <QGuiApplication>
+#include <QApplication>
 #include <array>
 #include <cstdio>
 #include <cstdlib>
@@ -88,10 +89,22 @@ model::Project trotProject(const std::string& videoPath, std::int64_t frameCount
 }
 
 namespace {
-std::unique_ptr<QGuiApplication>& qtApp() {
-  static std::unique_ptr<QGuiApplication> app;
+
+std::unique_ptr<QApplication>& qtApp() {
+  static std::unique_ptr<QApplication> app;
   return app;
 }
+
+// Tears the application down while main() still runs: a QApplication destroyed during exit
+// handlers crashes in Qt 6.4's post routines.
+class QtTeardown : public ::testing::Environment {
+ public:
+  void TearDown() override { qtApp().reset(); }
+};
+// gtest owns registered environments (its API takes a raw pointer).
+[[maybe_unused]] ::testing::Environment* const kQtTeardown =
+    ::testing::AddGlobalTestEnvironment(std::make_unique<QtTeardown>().release());
+
 }  // namespace
 
 void ensureQt() {
@@ -100,10 +113,7 @@ void ensureQt() {
   static int argc = 1;
   static char name[] = "test_export";
   static char* argv[] = {name, nullptr};
-  qtApp() = std::make_unique<QGuiApplication>(argc, argv);
-  // Registered after Qt built its own globals, so it runs before they are torn down; a
-  // QGuiApplication destroyed during static destruction crashes in Qt 6.4.
-  std::atexit([] { qtApp().reset(); });
+  qtApp() = std::make_unique<QApplication>(argc, argv);
 }
 
 std::string stridemarkBinary() {

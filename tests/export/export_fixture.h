@@ -26,7 +26,7 @@ void makeClip(const std::filesystem::path& path, int frames);
 // starting at frame 5 with LH in stance already (a clip that starts mid-stance).
 model::Project trotProject(const std::string& videoPath, std::int64_t frameCount);
 
-// Starts an offscreen QGuiApplication once per process (fonts and painting need one).
+// Starts an offscreen QApplication once per process (fonts, painting and the dialog need one).
 void ensureQt();
 
 std::string stridemarkBinary();

@@ -3,8 +3,11 @@
 // the PDF report, /usr/bin/python3 with pandas and xml.etree for tables and SVGs.
 #include <gtest/gtest.h>
 
+#include <QCoreApplication>
 #include <QImage>
+#include <QPushButton>
 #include <atomic>
+#include <chrono>
 #include <filesystem>
 #include <regex>
 #include <string>
@@ -15,6 +18,7 @@
 #include "formats/project_file.h"
 #include "ui/export/clip_compositor.h"
 #include "ui/export/clip_overlay.h"
+#include "ui/export/export_dialog.h"
 #include "ui/export/export_job.h"
 
 namespace fs = std::filesystem;
@@ -243,3 +247,68 @@ TEST(ClipOverlay, DefaultPlaybackRate) {
 }
 
 }  // namespace
+
+namespace {
+
+// Runs the dialog's export by pressing its Export button and waits for the worker to finish.
+// Returns the finished message; `cancelAtClip` presses Cancel once the clip is under way.
+std::pair<bool, QString> runDialog(ui::exports::ExportDialog& dialog, bool cancelAtClip) {
+  bool done = false;
+  std::pair<bool, QString> result;
+  QMetaObject::Connection onFinished, onProgress;
+  onFinished = QObject::connect(&dialog, &ui::exports::ExportDialog::exportFinished,
+                                [&](bool ok, const QString& message) {
+                                  done = true;
+                                  result = {ok, message};
+                                });
+  QPushButton* exportButton = nullptr;
+  QPushButton* cancelButton = nullptr;
+  for (QPushButton* b : dialog.findChildren<QPushButton*>()) {
+    if (b->text() == QStringLiteral("Export")) exportButton = b;
+    if (b->text() == QStringLiteral("Close")) cancelButton = b;
+  }
+  if (!exportButton || !cancelButton) return {false, QStringLiteral("buttons not found")};
+  if (cancelAtClip) {
+    onProgress = QObject::connect(&dialog, &ui::exports::ExportDialog::exportProgressed,
+                                  [cancelButton](const QString& stage, double fraction) {
+                                    if (stage == QStringLiteral("clip") && fraction > 0.1)
+                                      cancelButton->click();
+                                  });
+  }
+  exportButton->click();
+  const auto start = std::chrono::steady_clock::now();
+  while (!done && std::chrono::steady_clock::now() - start < std::chrono::seconds(120)) {
+    QCoreApplication::processEvents(QEventLoop::AllEvents, 50);
+  }
+  QObject::disconnect(onFinished);
+  QObject::disconnect(onProgress);
+  return result;
+}
+
+}  // namespace
+
+// The Export dialog runs the same export on a worker thread; Cancel leaves nothing behind.
+TEST_F(ExportTest, DialogExportsAndCancels) {
+  ensureQt();
+  ui::exports::ExportDialog dialog(QString::fromStdString((dir_ / "trot.stridemark").string()), 200,
+                                   Rational{240, 1});
+  const ui::exports::ExportOptions options = dialog.options();
+  EXPECT_TRUE(options.clip);
+  EXPECT_TRUE(options.report);
+  EXPECT_EQ(options.playback, (Rational{30, 1}));
+  const fs::path out = options.outDir;
+  EXPECT_EQ(out, dir_ / "trot-export");
+  fs::remove_all(out);
+
+  const auto cancelled = runDialog(dialog, true);
+  EXPECT_FALSE(cancelled.first) << cancelled.second.toStdString();
+  EXPECT_TRUE(cancelled.second.contains(QStringLiteral("cancelled")))
+      << cancelled.second.toStdString();
+  EXPECT_FALSE(fs::exists(out));
+
+  const auto finished = runDialog(dialog, false);
+  EXPECT_TRUE(finished.first) << finished.second.toStdString();
+  EXPECT_TRUE(fs::exists(out / "report.pdf"));
+  EXPECT_TRUE(fs::exists(out / "clip" / "marked_clip.mp4"));
+  EXPECT_TRUE(fs::exists(out / "tables" / "events.csv"));
+}
