@@ -295,7 +295,7 @@ bool FrameServer::runBackground(std::unique_lock<std::mutex>& lock) {
         std::min(options_.aheadFrames, std::max<std::int64_t>(budgetFrames / 2, 1));
     const std::int64_t last = std::min(count - 1, playhead_ + ahead);
     std::int64_t m = playhead_ + 1;
-    while (m <= last && cache_.count(m)) ++m;
+    while (m <= last && (cache_.count(m) || unreadable_.count(m))) ++m;
     if (m > last) return false;
     decodeSpan(m, last, lock);
     return true;
@@ -303,6 +303,7 @@ bool FrameServer::runBackground(std::unique_lock<std::mutex>& lock) {
   const std::int64_t window = windowFramesLocked();
   const std::int64_t start = contiguousStartLocked(playhead_);
   if (start > playhead_ || start == 0) return false;  // playhead not cached yet, or at the start
+  if (unreadable_.count(start - 1)) return false;     // damaged frame: only on explicit request
   // Refill as soon as less than a window is cached before the playhead: the cache holds the
   // window being stepped through plus the next one (window = budget / 2).
   if (playhead_ - start >= window) return false;
@@ -342,6 +343,7 @@ void FrameServer::decodeSpan(std::int64_t first, std::int64_t last,
   lock.lock();
   jobActive_ = false;
   if (error) {
+    unreadable_.insert(jobNext_);
     // Fail the demands this job was meant to answer (and any frame it could not reach).
     std::vector<Ready> ready;
     failLocked(jobNext_, last, error, ready);

@@ -16,6 +16,7 @@
 #include <map>
 #include <memory>
 #include <mutex>
+#include <set>
 #include <string>
 #include <thread>
 #include <vector>
@@ -122,6 +123,7 @@ class FrameServer {
   Direction direction_ = Direction::forward;
   std::uint64_t generation_ = 0;
   std::vector<Pending> pending_;
+  std::set<std::int64_t> unreadable_;  // frames a job failed on: background work skips them
   bool jobActive_ = false;
   std::int64_t jobNext_ = 0;  // next frame the running job will deliver
   std::int64_t jobLast_ = -1;

@@ -80,10 +80,10 @@ TEST_F(BadInput, TruncatedMp4WithIndexAtTheEnd) {
 }
 
 TEST_F(BadInput, TruncatedMp4WithIndexAtTheStartKeepsTheFramesThatArePresent) {
+  testing::makeClip(testing::clipNamed("h264_bframes_gop250.mp4"));  // the source, first
   const std::string source = testing::makeClip(
       {"faststart.mp4",
        "-i " + testing::clipFolder() + "/h264_bframes_gop250.mp4 -c copy -movflags +faststart"});
-  testing::makeClip(testing::clipNamed("h264_bframes_gop250.mp4"));
   const std::string path = scratchFile("truncated-faststart.mp4");
   copyPrefix(source, path, 0.6);
   const auto index = std::make_shared<const FrameIndex>(FrameIndex::build(path));

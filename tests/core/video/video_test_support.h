@@ -2,6 +2,7 @@
 // Test clips made at test time with the Debian ffmpeg CLI (no binaries in git), and the
 // reference hashes of every frame from `ffmpeg -f framemd5`.
 #include <cstdint>
+#include <ostream>
 #include <string>
 #include <vector>
 
@@ -11,6 +12,11 @@ struct ClipRecipe {
   std::string name;       // file name inside the clip folder, e.g. "h264_bframes.mp4"
   std::string arguments;  // ffmpeg arguments between "-y" and the output path
 };
+
+// Short test names in gtest/ctest output (instead of a byte dump of the recipe).
+inline void PrintTo(const ClipRecipe& recipe, std::ostream* os) {
+  *os << recipe.name;
+}
 
 // Folder under the build tree where generated clips live.
 std::string clipFolder();
