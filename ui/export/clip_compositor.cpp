@@ -1,6 +1,7 @@
 #include "ui/export/clip_compositor.h"
 
 #include <QPainter>
+#include <bit>
 #include <condition_variable>
 #include <deque>
 #include <exception>
@@ -17,6 +18,9 @@
 namespace stridemark::ui::exports {
 
 namespace {
+
+static_assert(std::endian::native == std::endian::little,
+              "ARGB32 images are handed to the encoder as bgra bytes");
 
 constexpr std::size_t kQueueDepth = 4;  // images in flight between the two threads
 
@@ -39,7 +43,9 @@ class ImageQueue {
 
   ImageQueue(QSize size, std::size_t depth) {
     for (std::size_t i = 0; i < depth; ++i) {
-      QImage image(size, QImage::Format_RGBA8888);
+      // ARGB32_Premultiplied is QPainter's fastest target; on little-endian machines its bytes
+      // are B, G, R, A, i.e. libav's bgra (the frames are opaque, so premultiplying is a no-op).
+      QImage image(size, QImage::Format_ARGB32_Premultiplied);
       image.fill(Qt::black);
       spare_.push_back(std::move(image));
     }
@@ -121,7 +127,7 @@ void produceFrames(video::FrameReader& reader, const ClipSettings& s, const Layo
     if (cancel.load()) return false;
     std::optional<QImage> image = queue.takeSpare();
     if (!image) return false;
-    converter.convert(frame, video::PackedFormat::rgba, image->bits(),
+    converter.convert(frame, video::PackedFormat::bgra, image->bits(),
                       static_cast<int>(image->bytesPerLine()));
     QPainter painter(&*image);
     if (s.sidePanel) {
@@ -171,7 +177,7 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
   options.height = layout.output.height();
   options.fileRate = s.playbackRate;
   options.codec = video::VideoCodec::h264;
-  options.input = video::PixelLayout::rgba32;
+  options.input = video::PixelLayout::bgra32;
   options.threads = s.encoderThreads;
   options.x264Preset = s.x264Preset;
   options.x264Crf = s.x264Crf;
