@@ -61,8 +61,10 @@ model::VideoLink VideoSource::link() const {
 }
 
 QImage VideoSource::toImage(const video::DecodedFrame& frame) {
-  QImage image(frame.width(), frame.height(), QImage::Format_RGBA8888);
-  converter_.convert(frame, video::PackedFormat::rgba, image.bits(),
+  // BGRA bytes are Qt's native 0xffRRGGBB on little-endian machines: the raster engine draws
+  // Format_RGB32 without a per-paint conversion (RGBA8888 would be re-premultiplied each time).
+  QImage image(frame.width(), frame.height(), QImage::Format_RGB32);
+  converter_.convert(frame, video::PackedFormat::bgra, image.bits(),
                      static_cast<int>(image.bytesPerLine()));
   return image;
 }

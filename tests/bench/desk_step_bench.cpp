@@ -1,0 +1,173 @@
+// Workstation stepping latency (issue 5): holding the step key on a 1080p 240 fps H.264 clip
+// (GOP 240), key press -> painted frame in the real main window, against the video engine's
+// own step time (FrameServer::get) measured in the same run on the same clip. Prints JSON.
+// Usage: desk_step_bench [steps] [clip.mp4]   (default: 600 steps; clip made with ffmpeg)
+#include <QApplication>
+#include <QElapsedTimer>
+#include <QProcess>
+#include <QStandardPaths>
+#include <QTemporaryDir>
+#include <QTest>
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+#include <cstdlib>
+#include <vector>
+
+#include "ui/main_window.h"
+#include "ui/widgets/footfall_lanes.h"
+#include "ui/widgets/viewer.h"
+#include "video/frame_server.h"
+
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+struct Series {
+  std::vector<double> ms;     // per step
+  std::vector<double> atSec;  // when the step started, seconds since the direction began
+  double median() const {
+    auto v = ms;
+    std::sort(v.begin(), v.end());
+    return v.empty() ? 0 : v[v.size() / 2];
+  }
+  double maxAfter(double seconds) const {
+    double worst = 0;
+    for (std::size_t i = 0; i < ms.size(); ++i)
+      if (atSec[i] > seconds) worst = std::max(worst, ms[i]);
+    return worst;
+  }
+};
+
+double msSince(Clock::time_point t) {
+  return std::chrono::duration<double, std::milli>(Clock::now() - t).count();
+}
+
+// The yardstick: the engine's blocking exact step, frame by frame.
+Series engineSteps(const std::string& clip, std::int64_t from, std::int64_t to) {
+  auto index = std::make_shared<const stridemark::video::FrameIndex>(
+      stridemark::video::FrameIndex::build(clip));
+  stridemark::video::FrameServer server(clip, index);
+  server.get(from);
+  Series s;
+  const auto start = Clock::now();
+  const int dir = to > from ? 1 : -1;
+  for (auto n = from + dir; n != to + dir; n += dir) {
+    const auto t = Clock::now();
+    s.atSec.push_back(msSince(start) / 1000.0);
+    server.get(n);
+    s.ms.push_back(msSince(t));
+  }
+  return s;
+}
+
+// Key press -> the Viewer painted that frame.
+Series deskSteps(stridemark::ui::MainWindow& w, std::int64_t from, std::int64_t to) {
+  w.seek(from);
+  QElapsedTimer guard;
+  guard.start();
+  while (w.viewer()->shownFrame() != from && guard.elapsed() < 20000)
+    QCoreApplication::processEvents(QEventLoop::AllEvents, 5);
+  Series s;
+  std::int64_t painted = -1;
+  auto conn = QObject::connect(w.viewer(), &stridemark::ui::Viewer::framePainted,
+                               [&](qint64 f) { painted = f; });
+  const auto key = to > from ? Qt::Key_Right : Qt::Key_Left;
+  const auto start = Clock::now();
+  for (auto n = from; n != to;) {
+    n += to > from ? 1 : -1;
+    const auto t = Clock::now();
+    s.atSec.push_back(msSince(start) / 1000.0);
+    QTest::keyClick(w.windowHandle(), key);
+    while (painted != n) {
+      QCoreApplication::processEvents(QEventLoop::AllEvents);
+      if (msSince(t) > 30000) {
+        std::fprintf(stderr, "desk_step_bench: frame %lld never painted (playhead %lld)\n",
+                     static_cast<long long>(n), static_cast<long long>(w.playhead()));
+        std::exit(3);
+      }
+    }
+    s.ms.push_back(msSince(t));
+  }
+  QObject::disconnect(conn);
+  return s;
+}
+
+QString makeClip(const QTemporaryDir& dir) {
+  const QString out = dir.filePath(QStringLiteral("step-1080p240.mp4"));
+  // Source: VIDEO-NOTES.md §0 (test clips of this kind: testsrc2, 240-frame closed GOP).
+  QProcess ffmpeg;
+  ffmpeg.start(QStringLiteral("ffmpeg"), {"-v",
+                                          "error",
+                                          "-y",
+                                          "-f",
+                                          "lavfi",
+                                          "-i",
+                                          "testsrc2=size=1920x1080:rate=240,noise=alls=12:allf=t",
+                                          "-t",
+                                          "4",
+                                          "-c:v",
+                                          "libx264",
+                                          "-preset",
+                                          "ultrafast",
+                                          "-threads",
+                                          "2",
+                                          "-g",
+                                          "240",
+                                          "-keyint_min",
+                                          "240",
+                                          "-sc_threshold",
+                                          "0",
+                                          "-pix_fmt",
+                                          "yuv420p",
+                                          out});
+  if (!ffmpeg.waitForFinished(300000) || ffmpeg.exitCode() != 0) {
+    std::fprintf(stderr, "desk_step_bench: ffmpeg failed: %s\n",
+                 ffmpeg.readAllStandardError().constData());
+    std::exit(3);
+  }
+  return out;
+}
+
+void printSeries(const char* name, const Series& desk, const Series& engine, bool last) {
+  const double ratio = engine.median() > 0 ? desk.median() / engine.median() : 0;
+  std::printf(
+      "  \"%s\": {\"steps\": %zu, \"desk_median_ms\": %.3f, \"engine_median_ms\": %.3f, "
+      "\"ratio\": %.3f, \"desk_max_after_1s_ms\": %.3f, \"engine_max_after_1s_ms\": %.3f, "
+      "\"ratio_ok\": %s, \"max_ok\": %s}%s\n",
+      name, desk.ms.size(), desk.median(), engine.median(), ratio, desk.maxAfter(1.0),
+      engine.maxAfter(1.0), ratio <= 1.5 ? "true" : "false",
+      desk.maxAfter(1.0) <= 100.0 ? "true" : "false", last ? "" : ",");
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  if (qEnvironmentVariableIsEmpty("QT_QPA_PLATFORM")) qputenv("QT_QPA_PLATFORM", "offscreen");
+  QStandardPaths::setTestModeEnabled(true);
+  QApplication app(argc, argv);
+  const int steps = argc > 1 ? std::atoi(argv[1]) : 600;
+  QTemporaryDir dir;
+  const QString clip = argc > 2 ? QString::fromLocal8Bit(argv[2]) : makeClip(dir);
+
+  stridemark::ui::MainWindow w;
+  w.setRecoveryPolicy(stridemark::ui::RecoveryPolicy::discard);
+  w.setAskBeforeDiscard(false);
+  w.resize(1600, 1000);
+  w.show();
+  if (!w.openVideo(clip)) return 3;
+  w.activateWindow();
+  if (!QTest::qWaitForWindowActive(&w, 10000)) std::fprintf(stderr, "window not active\n");
+  w.lanes()->setFocus();
+  const std::int64_t last = std::min<std::int64_t>(w.frameCount() - 1, steps);
+  const Series deskForward = deskSteps(w, 0, last);
+  const Series deskBackward = deskSteps(w, last, 0);
+  const Series engineForward = engineSteps(clip.toStdString(), 0, last);
+  const Series engineBackward = engineSteps(clip.toStdString(), last, 0);
+  std::printf("{\n  \"benchmark\": \"desk_step\",\n  \"clip\": \"%s\",\n",
+              clip.toStdString().c_str());
+  printSeries("forward", deskForward, engineForward, false);
+  printSeries("backward", deskBackward, engineBackward, true);
+  std::printf("}\n");
+  return 0;
+}
