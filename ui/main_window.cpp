@@ -143,7 +143,9 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   qApp->installEventFilter(this);
 
   QSettings settings;
-  restoreGeometry(settings.value(QStringLiteral("mainWindow/geometry")).toByteArray());
+  // First start (nothing saved): a size that shows every dock readably.
+  if (!restoreGeometry(settings.value(QStringLiteral("mainWindow/geometry")).toByteArray()))
+    resize(1400, 900);
   restoreState(settings.value(QStringLiteral("mainWindow/state")).toByteArray());
   autoAdvanceAction_->setChecked(settings.value(QStringLiteral("autoAdvance"), false).toBool());
   bigStep_ = settings.value(QStringLiteral("bigStep"), 10).toLongLong();
