@@ -1,12 +1,14 @@
 // Crash recovery with a real child process killed by SIGKILL, and errors that must leave the
 // application alive (corrupt project, corrupt video, missing file).
 #include <gtest/gtest.h>
+#include <QDir>
 #include <QFile>
 #include <QProcess>
 #include <QTemporaryDir>
 
 #include "formats/project_file.h"
 #include "tests/ui/test_support.h"
+#include "ui/app/video_source.h"
 #include "ui/main_window.h"
 
 namespace stridemark::ui {
@@ -122,6 +124,22 @@ TEST(Errors, CorruptVideoAndMissingFileShowAnErrorAndTheAppStaysAlive) {
   EXPECT_TRUE(test::recordedErrors()[0].contains(QStringLiteral("noise.mp4")));
   EXPECT_TRUE(test::recordedErrors()[1].contains(QStringLiteral("missing.mp4")));
   EXPECT_TRUE(w.tagLimb(1));
+}
+
+TEST(Relink, MovedVideoIsFoundAgainBySignature) {
+  QTemporaryDir dir;
+  const auto clip = test::makeTrotClip(dir.path().toStdString(), 1.0);
+  QDir(dir.path()).mkpath(QStringLiteral("moved/deeper"));
+  const QString movedTo = dir.filePath(QStringLiteral("moved/deeper/renamed.mp4"));
+  ASSERT_TRUE(QFile::rename(QString::fromStdString(clip.video.string()), movedTo));
+  MainWindow w;
+  w.setRecoveryPolicy(RecoveryPolicy::discard);  // no dialogs: the search must find it alone
+  w.setAskBeforeDiscard(false);
+  test::recordedErrors().clear();
+  ASSERT_TRUE(w.openProject(QString::fromStdString(clip.project.string())));
+  ASSERT_NE(w.video(), nullptr) << "the moved video was not found by its signature";
+  EXPECT_EQ(w.video()->path(), movedTo);
+  EXPECT_TRUE(test::recordedErrors().isEmpty());
 }
 
 }  // namespace
