@@ -1,6 +1,9 @@
 #include "video/decoded_frame.h"
 
+#include <sys/mman.h>
+
 #include <algorithm>
+#include <cstdlib>
 #include <cstring>
 #include <utility>
 
@@ -144,6 +147,10 @@ std::string DecodedFrame::md5() const {
   return hex;
 }
 
+void FramePool::FreeBlock::operator()(std::uint8_t* p) const {
+  std::free(p);
+}
+
 std::uint8_t* FramePool::acquire(std::size_t bytes) {
   std::lock_guard lock(mutex_);
   auto it = std::find_if(idle_.begin(), idle_.end(),
@@ -154,8 +161,16 @@ std::uint8_t* FramePool::acquire(std::size_t bytes) {
     *it = std::move(idle_.back());
     idle_.pop_back();
   } else {
-    // Value-initialised: zero-filled, so every page is touched once here and never again.
-    block.data = std::make_unique<std::uint8_t[]>(bytes);
+    // 2 MiB aligned and marked for transparent huge pages: filling a fresh 1080p frame then
+    // costs two page faults instead of ~760 (VIDEO-NOTES §0.4: faults dominated refills).
+    // Zero-filled once here, so every page is touched before the frame is used.
+    constexpr std::size_t kHuge = std::size_t{2} << 20;
+    const std::size_t rounded = (bytes + kHuge - 1) / kHuge * kHuge;
+    void* raw = std::aligned_alloc(kHuge, rounded);
+    if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
+    madvise(raw, rounded, MADV_HUGEPAGE);  // advice only; fine if the kernel declines
+    block.data.reset(static_cast<std::uint8_t*>(raw));
+    std::memset(raw, 0, bytes);
     block.bytes = bytes;
   }
   std::uint8_t* data = block.data.get();

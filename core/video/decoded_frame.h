@@ -80,8 +80,11 @@ class FramePool : public std::enable_shared_from_this<FramePool> {
   void trimIdle();  // frees every idle buffer
 
  private:
+  struct FreeBlock {
+    void operator()(std::uint8_t* p) const;
+  };
   struct Block {
-    std::unique_ptr<std::uint8_t[]> data;
+    std::unique_ptr<std::uint8_t, FreeBlock> data;
     std::size_t bytes = 0;
   };
   mutable std::mutex mutex_;
