@@ -32,6 +32,7 @@
 #include "ui/app/palettes.h"
 #include "ui/app/video_source.h"
 #include "ui/document/project_io.h"
+#include "ui/export/figure_output.h"
 #include "ui/figures/analysis_figures.h"
 #include "ui/widgets/figure_view.h"
 #include "ui/widgets/footfall_lanes.h"
@@ -226,6 +227,7 @@ void MainWindow::buildActions() {
   rebuildRecentMenu();
   addAction(file, tr("&Save"), QKeySequence::Save, [this] { save(); });
   addAction(file, tr("Save &as…"), QKeySequence::SaveAs, [this] { saveAsDialog(); });
+  addAction(file, tr("&Export figures…"), QKeySequence(tr("Ctrl+E")), [this] { exportFigures(); });
   file->addSeparator();
   addAction(file, tr("&Quit"), QKeySequence::Quit, [this] { close(); });
 
@@ -480,6 +482,49 @@ void MainWindow::dropEvent(QDropEvent* event) {
   const auto urls = event->mimeData()->urls();
   if (urls.isEmpty() || !urls.front().isLocalFile()) return;
   if (maybeSave()) openPath(urls.front().toLocalFile());
+}
+
+void MainWindow::exportFigures() {
+  if (!report_) {
+    reportError(this, tr("Export figures"), tr("Nothing to export yet: tag some strides first."));
+    return;
+  }
+  const QString dir = QFileDialog::getExistingDirectory(this, tr("Export figures to folder"));
+  if (!dir.isEmpty()) exportFiguresTo(dir);
+}
+
+bool MainWindow::exportFiguresTo(const QString& dir) {
+  if (!report_) return false;
+  // The same painters as the docks, written as SVG, PNG and PDF by ui/export.
+  const auto report = report_;
+  const auto annotation = doc_.annotation();
+  const auto style = figures::FigureStyle::print();
+  const std::vector<std::pair<QString, exports::FigurePaint>> figs{
+      {QStringLiteral("gait_map"),
+       [=](QPainter& p, const QRectF& r) { figures::paintGaitMap(p, r, *report, style); }},
+      {QStringLiteral("phase_dial"),
+       [=](QPainter& p, const QRectF& r) { figures::paintPhaseDial(p, r, *report, style); }},
+      {QStringLiteral("duty_per_stride"),
+       [=](QPainter& p, const QRectF& r) { figures::paintStrideDutyPlot(p, r, *report, style); }},
+      {QStringLiteral("footfall_diagram"), [=](QPainter& p, const QRectF& r) {
+         figures::FootfallOptions o;
+         o.viewLast = annotation.clip
+                          ? annotation.clip->last
+                          : (annotation.events.empty() ? 100 : annotation.events.back().frame);
+         figures::paintFootfallDiagram(p, r, annotation, o, style);
+       }}};
+  return runGuarded(this, tr("Export figures"), [&] {
+    for (const auto& [stem, paint] : figs)
+      for (auto format :
+           {exports::FigureFormat::svg, exports::FigureFormat::png, exports::FigureFormat::pdf})
+        exports::writeFigure(
+            paint, exports::FigureSize{170, 110}, format,
+            dir + QLatin1Char('/') + stem + QLatin1Char('.') +
+                QString::fromLatin1(exports::extensionOf(format).data(),
+                                    static_cast<int>(exports::extensionOf(format).size())),
+            stem);
+    statusBar()->showMessage(tr("Figures written to %1").arg(dir), 5000);
+  });
 }
 
 void MainWindow::addRecent(const QString& path) {

@@ -43,6 +43,8 @@ class MainWindow : public QMainWindow {
   bool openVideo(const QString& path);
   bool openProject(const QString& path);
   bool saveProjectAs(const QString& path);
+  // Gait map, Phase dial, duty plot and footfall diagram as SVG, PNG and PDF in `dir`.
+  bool exportFiguresTo(const QString& dir);
 
   void seek(std::int64_t frame);
   std::int64_t playhead() const { return playhead_; }
@@ -97,6 +99,7 @@ class MainWindow : public QMainWindow {
   void setTheme(bool dark);
   void editTrialCard();
   void editTagKeys();
+  void exportFigures();
 
   ProjectDocument doc_;
   AnalysisRunner runner_;

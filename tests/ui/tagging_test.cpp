@@ -1,6 +1,8 @@
 // Tagging by simulated key presses in the real main window, checked against ground truth that
 // our synthetic generator wrote independently of the UI (events CSV read by core/formats).
 #include <gtest/gtest.h>
+#include <QFileInfo>
+#include <QImage>
 #include <QLineEdit>
 #include <QTemporaryDir>
 #include <QTest>
@@ -63,6 +65,15 @@ TEST(Tagging, WholeTrotTrialByKeyPressesReproducesGroundTruth) {
   int trots = 0;
   for (const auto& s : w.report()->strides) trots += s.gait == "trot";
   EXPECT_GT(trots, 0);
+  // The same painters export: every figure as SVG, PNG and PDF.
+  QTemporaryDir out;
+  ASSERT_TRUE(w.exportFiguresTo(out.path()));
+  for (const char* stem : {"gait_map", "phase_dial", "duty_per_stride", "footfall_diagram"}) {
+    for (const char* ext : {"svg", "png", "pdf"})
+      EXPECT_GT(QFileInfo(out.filePath(QStringLiteral("%1.%2").arg(stem, ext))).size(), 500)
+          << stem << "." << ext;
+    EXPECT_FALSE(QImage(out.filePath(QStringLiteral("%1.png").arg(stem))).isNull());
+  }
   // The Viewer painted the frame the playhead is on (decoded off the UI thread).
   EXPECT_TRUE(test::waitUntil([&] { return w.viewer()->shownFrame() == w.playhead(); }));
 }
