@@ -168,7 +168,10 @@ std::uint8_t* FramePool::acquire(std::size_t bytes) {
     const std::size_t rounded = (bytes + kHuge - 1) / kHuge * kHuge;
     void* raw = std::aligned_alloc(kHuge, rounded);
     if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
-    madvise(raw, rounded, MADV_HUGEPAGE);  // advice only; fine if the kernel declines
+    // Only whole huge pages inside the frame get the advice, so the tail stays 4 KiB pages and
+    // resident memory matches the budget's byte count.
+    if (const std::size_t whole = bytes / kHuge * kHuge; whole > 0)
+      madvise(raw, whole, MADV_HUGEPAGE);  // advice only; fine if the kernel declines
     block.data.reset(static_cast<std::uint8_t*>(raw));
     std::memset(raw, 0, bytes);
     block.bytes = bytes;

@@ -12,9 +12,9 @@ namespace stridemark::video {
 
 namespace {
 
-// Frames kept before the target of a cold jump: about two seconds of holding the back-step
+// Frames kept before the target of a cold jump: about one second of holding the back-step
 // key, which gives the first window refill time to finish (VIDEO-NOTES §4.2.4).
-constexpr std::int64_t kKeepBeforeJump = 60;
+constexpr std::int64_t kKeepBeforeJump = 30;
 
 }  // namespace
 
