@@ -8,6 +8,7 @@
 #include "analysis/cycles.h"
 #include "analysis/gait.h"
 #include "analysis/hildebrand.h"
+#include "analysis/huge_pages.h"
 #include "analysis/phase.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
@@ -64,6 +65,82 @@ bool touchesFlag(const std::vector<FlaggedSpan>& flags, std::int64_t first, std:
   return it != flags.end() && it->first < end;
 }
 
+// Lower bound of `value` in ascending keys of `items`, galloped outward from `hint`: consecutive
+// strides look up nearby frames, so a lookup costs O(log distance) and stays in cache instead of
+// a cold O(log n) binary search over the whole track.
+template <typename Item, typename Key>
+std::size_t lowerBoundNear(const std::vector<Item>& items, std::size_t hint, std::int64_t value,
+                           Key key) {
+  const std::size_t n = items.size();
+  hint = std::min(hint, n);
+  std::size_t lo = 0, hi = n;
+  if (hint < n && key(items[hint]) < value) {  // answer in (hint, n]
+    lo = hint + 1;
+    for (std::size_t step = 1;; step *= 2) {
+      const std::size_t probe = lo + step - 1;
+      if (probe >= n) break;
+      if (key(items[probe]) >= value) {
+        hi = probe;
+        break;
+      }
+      lo = probe + 1;
+    }
+  } else {  // answer in [0, hint]
+    hi = hint;
+    for (std::size_t step = 1; hi >= step; step *= 2) {
+      const std::size_t probe = hi - step;
+      if (key(items[probe]) < value) {
+        lo = probe + 1;
+        break;
+      }
+      hi = probe;
+    }
+  }
+  const auto begin = items.begin() + static_cast<std::ptrdiff_t>(lo);
+  const auto end = items.begin() + static_cast<std::ptrdiff_t>(hi);
+  const auto it =
+      std::partition_point(begin, end, [&](const Item& item) { return key(item) < value; });
+  return static_cast<std::size_t>(it - items.begin());
+}
+
+// One limb's track with remembered positions of the last lookups (see lowerBoundNear).
+class TrackCursor {
+ public:
+  explicit TrackCursor(const LimbTrack& track) : track_(&track) {}
+
+  const std::vector<std::int64_t>& touchdowns() const { return track_->touchdowns; }
+
+  // Same result as phaseInWindow(touchdowns(), start, end).
+  WindowPhase phaseIn(std::int64_t start, std::int64_t end) {
+    WindowPhase out;
+    if (end <= start) return out;
+    const auto& td = track_->touchdowns;
+    const auto frame = [](std::int64_t f) { return f; };
+    const std::size_t first = lowerBoundNear(td, touchdownHint_, start, frame);
+    const std::size_t last = lowerBoundNear(td, first, end, frame);
+    touchdownHint_ = first;
+    out.touchdowns = static_cast<int>(last - first);
+    if (out.touchdowns > 0) out.first = td[first];
+    if (out.touchdowns == 1) out.phase = relativePhase(td[first], start, end);
+    return out;
+  }
+
+  // Same result as cycleStartingAt(track, touchdown).
+  const LimbCycle* cycleAt(std::int64_t touchdown) {
+    const auto& cycles = track_->cycles;
+    const std::size_t i = lowerBoundNear(cycles, cycleHint_, touchdown,
+                                         [](const LimbCycle& c) { return c.touchdown; });
+    cycleHint_ = i;
+    if (i == cycles.size() || cycles[i].touchdown != touchdown) return nullptr;
+    return &cycles[i];
+  }
+
+ private:
+  const LimbTrack* track_;
+  std::size_t touchdownHint_ = 0;
+  std::size_t cycleHint_ = 0;
+};
+
 class StrideBuilder {
  public:
   StrideBuilder(const model::Annotation& annotation, const AnalysisOptions& options,
@@ -71,8 +148,10 @@ class StrideBuilder {
       : limbs_(annotation.limbs),
         fps_(annotation.captureRate),
         options_(options),
-        tracks_(scan.tracks),
-        timeline_(timeline) {}
+        timeline_(timeline) {
+    cursors_.reserve(scan.tracks.size());
+    for (const LimbTrack& track : scan.tracks) cursors_.emplace_back(track);
+  }
 
   // Fills `s` in place (the report's vector owns it: no per-stride temporaries).
   void build(const LimbCycle& reference, StrideRecord& s) {
@@ -102,22 +181,20 @@ class StrideBuilder {
   }
 
  private:
-  const std::vector<std::int64_t>& touchdowns(int limb) const {
-    return tracks_[static_cast<std::size_t>(limb)].touchdowns;
-  }
+  TrackCursor& cursor(int limb) { return cursors_[static_cast<std::size_t>(limb)]; }
 
-  void fillLimbs(StrideRecord& s) const {
+  void fillLimbs(StrideRecord& s) {
     const std::size_t n = static_cast<std::size_t>(limbs_.size());
     s.phase.assign(n, std::nullopt);
     s.dutyFactor.assign(n, std::nullopt);
     s.touchdownCount.assign(n, 0);
     for (int limb = 0; limb < limbs_.size(); ++limb) {
       const auto i = static_cast<std::size_t>(limb);
-      const WindowPhase wp = phaseInWindow(touchdowns(limb), s.startFrame, s.endFrame);
+      const WindowPhase wp = cursor(limb).phaseIn(s.startFrame, s.endFrame);
       s.touchdownCount[i] = wp.touchdowns;
       s.phase[i] = wp.phase;
       if (!wp.first) continue;
-      const LimbCycle* cycle = cycleStartingAt(tracks_[i], *wp.first);
+      const LimbCycle* cycle = cursor(limb).cycleAt(*wp.first);
       if (cycle && cycle->liftoff)
         s.dutyFactor[i] = static_cast<double>(*cycle->stanceFrames()) /
                           static_cast<double>(cycle->strideFrames());
@@ -126,12 +203,11 @@ class StrideBuilder {
 
   // Phase of `target` in the cycle of `base` that starts first in the stride; falls back to the
   // difference of their phases in the reference stride when that cycle is not usable.
-  std::optional<double> pairPhase(const StrideRecord& s, int base, int target) const {
-    const WindowPhase first = phaseInWindow(touchdowns(base), s.startFrame, s.endFrame);
+  std::optional<double> pairPhase(const StrideRecord& s, int base, int target) {
+    const WindowPhase first = cursor(base).phaseIn(s.startFrame, s.endFrame);
     if (first.first) {
-      if (const LimbCycle* c =
-              cycleStartingAt(tracks_[static_cast<std::size_t>(base)], *first.first)) {
-        const WindowPhase wp = phaseInWindow(touchdowns(target), c->touchdown, c->nextTouchdown);
+      if (const LimbCycle* c = cursor(base).cycleAt(*first.first)) {
+        const WindowPhase wp = cursor(target).phaseIn(c->touchdown, c->nextTouchdown);
         if (wp.phase) return wp.phase;
         if (wp.ambiguous()) return std::nullopt;
       }
@@ -156,7 +232,7 @@ class StrideBuilder {
     return sum / n;
   }
 
-  void classifyQuadruped(StrideRecord& s, double tau) const {
+  void classifyQuadruped(StrideRecord& s, double tau) {
     const int lf = *limbs_.at(Side::left, 0), rf = *limbs_.at(Side::right, 0);
     const int lh = *limbs_.at(Side::left, 1), rh = *limbs_.at(Side::right, 1);
     s.hindDutyFactor = meanDutyFactor(s, {lh, rh});
@@ -185,13 +261,13 @@ class StrideBuilder {
     s.pairLag = g.pairLag;
   }
 
-  void fillDap(StrideRecord& s, std::initializer_list<std::pair<int, int>> diagonals) const {
+  void fillDap(StrideRecord& s, std::initializer_list<std::pair<int, int>> diagonals) {
     double ms = 0, percent = 0;
     int n = 0;
     for (const auto& [hind, fore] : diagonals) {
-      const WindowPhase h = phaseInWindow(touchdowns(hind), s.startFrame, s.endFrame);
+      const WindowPhase h = cursor(hind).phaseIn(s.startFrame, s.endFrame);
       if (!h.first) continue;
-      const auto f = nearestTouchdown(touchdowns(fore), *h.first);
+      const auto f = nearestTouchdown(cursor(fore).touchdowns(), *h.first);
       if (!f) continue;
       const AdvancedPlacement dap =
           advancedPlacement(*h.first, *f, s.endFrame - s.startFrame, fps_);
@@ -204,7 +280,7 @@ class StrideBuilder {
     s.dapPercent = percent / n;
   }
 
-  void classifyBiped(StrideRecord& s, double tau) const {
+  void classifyBiped(StrideRecord& s, double tau) {
     const int l = *limbs_.at(Side::left, 0), r = *limbs_.at(Side::right, 0);
     const auto contra = pairPhase(s, l, r);
     const auto df = meanDutyFactor(s, {l, r});
@@ -242,8 +318,8 @@ class StrideBuilder {
   const model::LimbSet& limbs_;
   Rational fps_;
   const AnalysisOptions& options_;
-  const std::vector<LimbTrack>& tracks_;
   SupportTimeline& timeline_;
+  std::vector<TrackCursor> cursors_;  // per limb
 };
 
 // Reference strides (those touching an annotation problem are left out) and support shares.
@@ -254,6 +330,7 @@ void buildStrides(const model::Annotation& annotation, const AnalysisOptions& op
   StrideBuilder builder(annotation, options, scan, timeline);
   const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles;
   report.strides.reserve(referenceCycles.size());
+  adviseHugePages(report.strides);
   for (const LimbCycle& cycle : referenceCycles) {
     if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
     builder.build(cycle, report.strides.emplace_back());
@@ -280,6 +357,7 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   std::size_t cycleCount = 0;
   for (const LimbTrack& t : scan.tracks) cycleCount += t.cycles.size();
   report.cycles.reserve(cycleCount);
+  adviseHugePages(report.cycles);
   for (LimbTrack& t : scan.tracks) {
     t.known = {};
     report.cycles.insert(report.cycles.end(), t.cycles.begin(), t.cycles.end());

@@ -44,6 +44,10 @@ struct LimbSummary {
 
 // One stride of the reference limb and the other limbs seen in its window.
 struct StrideRecord {
+  // User-provided on purpose: `strides.emplace_back()` then skips zero-filling the whole
+  // record before the member initialisers run (a large share of scoring 10^5 strides).
+  StrideRecord() {}  // NOLINT(modernize-use-equals-default)
+
   std::int64_t startFrame = 0;  // reference touchdown k
   std::int64_t endFrame = 0;    // reference touchdown k + 1
   double durationS = 0;
