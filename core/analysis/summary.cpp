@@ -1,5 +1,6 @@
 #include "analysis/summary.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include "analysis/circular.h"
@@ -39,12 +40,16 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
 
 std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strides, int limbCount) {
   std::vector<PhaseSummary> out;
-  std::vector<double> phases;
-  for (int limb = 0; limb < limbCount; ++limb) {
-    phases.clear();
-    for (const StrideRecord& s : strides)
-      if (const auto& p = s.phase[static_cast<std::size_t>(limb)]) phases.push_back(*p);
-    const CircularStats c = circularStats(phases);
+  // One pass over the (large) stride records gathers every limb's phases.
+  std::vector<std::vector<double>> phases(static_cast<std::size_t>(std::max(limbCount, 0)));
+  for (auto& limbPhases : phases) limbPhases.reserve(strides.size());
+  for (const StrideRecord& s : strides) {
+    const std::size_t n = std::min(phases.size(), s.phase.size());
+    for (std::size_t i = 0; i < n; ++i)
+      if (s.phase[i]) phases[i].push_back(*s.phase[i]);
+  }
+  for (const std::vector<double>& limbPhases : phases) {
+    const CircularStats c = circularStats(limbPhases);
     PhaseSummary p;
     p.n = c.n;
     if (c.n > 0) {

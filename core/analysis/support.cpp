@@ -49,11 +49,10 @@ SupportTimeline::SupportTimeline(const LimbSet& limbs, const std::vector<LimbTra
 }
 
 void SupportTimeline::restart() {
-  queue_ = {};
   cursors_.assign(tracks_.size(), Cursor{});
+  nextChange_.assign(tracks_.size(), kNoChange);
   for (std::size_t i = 0; i < tracks_.size(); ++i)
-    if (!tracks_[i].known.empty())
-      queue_.push({tracks_[i].known.front().first, static_cast<int>(i)});
+    if (!tracks_[i].known.empty()) nextChange_[i] = tracks_[i].known.front().first;
   unknown_ = static_cast<int>(tracks_.size());
   stance_ = 0;
   mask_ = 0;
@@ -63,14 +62,16 @@ void SupportTimeline::restart() {
 }
 
 bool SupportTimeline::produce() {
-  while (!queue_.empty()) {
-    const std::int64_t frame = queue_.top().first;
+  while (true) {
+    const auto earliest = std::min_element(nextChange_.begin(), nextChange_.end());
+    if (earliest == nextChange_.end() || *earliest == kNoChange) break;
+    const std::int64_t frame = *earliest;
     const bool known = unknown_ == 0;
     const Segment previous{segmentStart_, frame, known ? mask_ : 0, known ? stance_ : 0, known};
-    while (!queue_.empty() && queue_.top().first == frame) {
-      const int limb = queue_.top().second;
-      queue_.pop();
-      Cursor& c = cursors_[static_cast<std::size_t>(limb)];
+    for (std::size_t i = 0; i < nextChange_.size(); ++i) {
+      if (nextChange_[i] != frame) continue;
+      const int limb = static_cast<int>(i);
+      Cursor& c = cursors_[i];
       const auto& iv = tracks_[static_cast<std::size_t>(limb)].known;
       const int before = c.state;
       while (c.next < iv.size() && iv[c.next].end <= frame) ++c.next;
@@ -85,7 +86,7 @@ bool SupportTimeline::produce() {
       unknown_ += (c.state == 0) - (before == 0);
       stance_ += (c.state == 2) - (before == 2);
       if (named_ && (c.state == 2) != (before == 2)) mask_ ^= std::uint64_t{1} << limb;
-      if (nextChange >= 0) queue_.push({nextChange, limb});
+      nextChange_[i] = nextChange >= 0 ? nextChange : kNoChange;
     }
     const bool hadSegment = started_ && previous.end > previous.first;
     started_ = true;

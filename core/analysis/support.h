@@ -7,7 +7,6 @@
 // annotation is.
 #include <cstdint>
 #include <map>
-#include <queue>
 #include <string>
 #include <unordered_map>
 #include <vector>
@@ -30,8 +29,9 @@ struct SupportShares {
   bool aerial = false;    // some known frame had no limb in stance
 };
 
-// Forward-only sweep over the limbs' known stance/swing intervals (k-way merge, O(log limbs)
-// per change). `tracks` must outlive the sweep. Not thread-safe.
+// Forward-only sweep over the limbs' known stance/swing intervals (k-way merge with a linear
+// minimum over the limbs' next changes: limb sets are small, and a heap cost more). `tracks` must
+// outlive the sweep. Not thread-safe.
 class SupportTimeline {
  public:
   SupportTimeline(const model::LimbSet& limbs, const std::vector<LimbTrack>& tracks);
@@ -55,7 +55,7 @@ class SupportTimeline {
     std::size_t next = 0;
     int state = 0;  // 0 unknown, 1 swing, 2 stance
   };
-  using Change = std::pair<std::int64_t, int>;  // frame, limb
+  static constexpr std::int64_t kNoChange = INT64_MAX;
 
   void restart();
   bool produce();  // appends the next segment to buffer_; false at the end
@@ -68,7 +68,7 @@ class SupportTimeline {
   const std::vector<LimbTrack>& tracks_;
   bool named_ = false;
   // Sweep state.
-  std::priority_queue<Change, std::vector<Change>, std::greater<>> queue_;
+  std::vector<std::int64_t> nextChange_;  // per limb: frame of its next change, or kNoChange
   std::vector<Cursor> cursors_;
   int unknown_ = 0, stance_ = 0;
   std::uint64_t mask_ = 0;
