@@ -77,9 +77,12 @@ class LimbScanner {
   }
 
   LimbTrack scan(std::vector<Tag> tags) {
-    std::sort(tags.begin(), tags.end(), [](const Tag& a, const Tag& b) {
+    const auto byFrameThenKind = [](const Tag& a, const Tag& b) {
       return a.frame != b.frame ? a.frame < b.frame : a.kind < b.kind;
-    });
+    };
+    // Normalized annotations arrive sorted: checking is one cheap pass, sorting is not.
+    if (!std::is_sorted(tags.begin(), tags.end(), byFrameThenKind))
+      std::sort(tags.begin(), tags.end(), byFrameThenKind);
     dropUnusable(tags);
     orderSameFrame(tags);
     track_.known.reserve(tags.size() + 2 * hidden_.size());
