@@ -1,5 +1,6 @@
 #include "ui/figures/analysis_figures.h"
 
+#include <QFontMetricsF>
 #include <QPainterPath>
 #include <array>
 #include <cmath>
@@ -37,6 +38,68 @@ void drawMarker(QPainter& p, QPointF c, double r, const QColor& fill, const QCol
   p.drawEllipse(c, r, r);
 }
 
+// The mean's label goes beside its marker, on whichever side keeps it inside the plot and
+// off the 50 % line and the walking/running labels; elided when the plot is too narrow.
+void drawMeanLabel(QPainter& p, const QRectF& plot, QPointF c, double fp, const QString& text,
+                   std::initializer_list<QRectF> avoid) {
+  const QFontMetricsF fm(p.font());
+  const double pad = fp * 0.3;
+  const QString shown = fm.elidedText(text, Qt::ElideRight, plot.width() - 2 * pad);
+  const QSizeF size(fm.horizontalAdvance(shown) + 2, fm.height());
+  const double gap = fp * 0.7;
+  const std::array<QPointF, 4> corners{{{c.x() + gap, c.y() - gap - size.height()},
+                                        {c.x() - gap - size.width(), c.y() - gap - size.height()},
+                                        {c.x() + gap, c.y() + gap},
+                                        {c.x() - gap - size.width(), c.y() + gap}}};
+  const QRectF inner = plot.adjusted(pad, pad, -pad, -pad);
+  auto fits = [&](const QRectF& r) {
+    if (!inner.contains(r)) return false;
+    for (const auto& a : avoid)
+      if (r.intersects(a)) return false;
+    return true;
+  };
+  // Fallback: a free plot corner away from the 50 % line.
+  QRectF chosen(QPointF(inner.right() - size.width(), inner.top()), size);
+  bool found = false;
+  for (const auto& corner : corners) {
+    const QRectF r(corner, size);
+    if (fits(r)) {
+      chosen = r;
+      found = true;
+      break;
+    }
+  }
+  if (!found && !fits(chosen))
+    chosen.moveTopLeft(QPointF(inner.right() - size.width(), inner.bottom() - size.height()));
+  p.save();
+  p.setClipRect(plot);
+  p.drawText(chosen, Qt::AlignLeft | Qt::AlignVCenter, shown);
+  p.restore();
+}
+
+// Box for the label of quarter `q` (0 %, 25 %, 50 %, 75 %) just outside the dial's edge.
+QRectF quarterLabelRect(int q, QPointF centre, double radius, double gap, const QFontMetricsF& fm) {
+  const QString text = QString::number(q * 25) + "%";
+  const QSizeF size(fm.horizontalAdvance(text) + 1, fm.height());
+  QRectF r(QPointF(), size);
+  const double edge = radius + gap;
+  switch (q) {
+    case 0:
+      r.moveCenter(centre - QPointF(0, edge + size.height() / 2));
+      break;
+    case 1:
+      r.moveCenter(centre + QPointF(edge + size.width() / 2, 0));
+      break;
+    case 2:
+      r.moveCenter(centre + QPointF(0, edge + size.height() / 2));
+      break;
+    default:
+      r.moveCenter(centre - QPointF(edge + size.width() / 2, 0));
+      break;
+  }
+  return r;
+}
+
 }  // namespace
 
 void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& report,
@@ -45,7 +108,11 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
   p.setRenderHint(QPainter::Antialiasing, true);
   p.fillRect(rect, style.background);
   const double fp = style.fontPx;
-  const QRectF plot = rect.adjusted(fp * 3.6, fp * 2.6, -fp * 1.2, -fp * 3.2);
+  // Left margin from the fonts: rotated axis title, then the widest tick label, so neither
+  // is clipped nor touches the other at column width.
+  const double titleH = QFontMetricsF(style.font(-1)).height();
+  const double tickW = QFontMetricsF(style.font(-2)).horizontalAdvance(QStringLiteral("100%"));
+  const QRectF plot = rect.adjusted(titleH + tickW + fp * 0.6, fp * 2.6, -fp * 1.6, -fp * 3.2);
   auto px = [&](double phase, double duty) {
     return QPointF(plot.left() + phase * plot.width(), plot.bottom() - duty * plot.height());
   };
@@ -78,16 +145,16 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
     const double v = i / 4.0;
     p.drawText(QRectF(px(v, 0).x() - 20, plot.bottom() + 2, 40, fp * 1.3), Qt::AlignCenter,
                QString::number(v * 100) + "%");
-    p.drawText(QRectF(plot.left() - fp * 3.4, px(0, v).y() - fp * 0.7, fp * 3.2, fp * 1.4),
+    p.drawText(QRectF(plot.left() - tickW - fp * 0.4, px(0, v).y() - fp * 0.7, tickW, fp * 1.4),
                Qt::AlignRight | Qt::AlignVCenter, QString::number(v * 100) + "%");
   }
   p.setFont(style.font(-1));
   p.drawText(QRectF(plot.left(), plot.bottom() + fp * 1.4, plot.width(), fp * 1.6), Qt::AlignCenter,
              QStringLiteral("limb phase (% of hind stride)"));
   p.save();
-  p.translate(rect.left() + fp * 0.2, plot.center().y());
+  p.translate(rect.left() + fp * 0.1, plot.center().y());
   p.rotate(-90);
-  p.drawText(QRectF(-plot.height() / 2, 0, plot.height(), fp * 1.4), Qt::AlignCenter,
+  p.drawText(QRectF(-plot.height() / 2, 0, plot.height(), titleH), Qt::AlignCenter,
              QStringLiteral("hind duty factor"));
   p.restore();
   p.setFont(style.font(-3));
@@ -111,8 +178,13 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
     drawMarker(p, c, fp * 0.6, QColor(0xd5, 0x5e, 0x00), style.foreground);
     p.setPen(style.foreground);
     p.setFont(style.font(-1, true));
-    p.drawText(c + QPointF(fp * 0.8, -fp * 0.5),
-               QStringLiteral("mean · %1").arg(QString::fromStdString(report.hildebrand->band)));
+    const QString text =
+        QStringLiteral("mean · %1").arg(QString::fromStdString(report.hildebrand->band));
+    const QRectF keepOut(QPointF(plot.left(), px(0, 0.5).y() - fp * 1.3),
+                         QPointF(plot.left() + fp * 6, px(0, 0.5).y() + fp * 1.3));
+    drawMeanLabel(
+        p, plot, c, fp, text,
+        {keepOut, QRectF(px(0, 0.5) - QPointF(0, fp * 0.45), px(1, 0.5) + QPointF(0, fp * 0.45))});
   }
   if (plotted == 0) {
     drawEmpty(p, plot, style,
@@ -130,8 +202,15 @@ void paintPhaseDial(QPainter& p, const QRectF& rect, const analysis::Report& rep
   p.fillRect(rect, style.background);
   const double fp = style.fontPx;
   const double legendW = fp * 7;
-  const QRectF area = rect.adjusted(fp * 2.2, fp * 2.8, -legendW, -fp * 1.6);
-  const double radius = std::min(area.width(), area.height()) / 2;
+  const QRectF area = rect.adjusted(fp * 0.3, fp * 1.6, -legendW, -fp * 0.3);
+  // Leave room around the dial for the quarter labels so "75%" and "25%" are never clipped.
+  p.setFont(style.font(-2));
+  const QFontMetricsF fm(p.font());
+  const double labelGap = fp * 0.3;
+  const double labelW = fm.horizontalAdvance(QStringLiteral("75%")) + labelGap;
+  const double labelH = fm.height() + labelGap;
+  const double radius =
+      std::max(fp, std::min(area.width() / 2 - labelW, area.height() / 2 - labelH));
   const QPointF centre = area.center();
   const int n = report.limbs.size();
   const double inner = radius * 0.25;
@@ -148,8 +227,7 @@ void paintPhaseDial(QPainter& p, const QRectF& rect, const analysis::Report& rep
     p.setPen(QPen(style.grid, 1));
     p.drawLine(centre, at(q / 4.0, radius));
     p.setPen(style.muted);
-    const QPointF lp = at(q / 4.0, radius + fp * 0.9);
-    p.drawText(QRectF(lp.x() - 20, lp.y() - fp * 0.7, 40, fp * 1.4), Qt::AlignCenter,
+    p.drawText(quarterLabelRect(q, centre, radius, labelGap, fm), Qt::AlignCenter,
                QString::number(q * 25) + "%");
   }
   for (int limb = 0; limb < n; ++limb) {
@@ -185,7 +263,8 @@ void paintPhaseDial(QPainter& p, const QRectF& rect, const analysis::Report& rep
   }
   p.setPen(style.muted);
   p.setFont(style.font(-2));
-  p.drawText(QRectF(rect.left(), rect.top(), rect.width(), fp * 1.4), Qt::AlignLeft,
+  p.drawText(QRectF(rect.left() + fp * 0.3, rect.top(), rect.width() - fp * 0.6, fp * 1.4),
+             Qt::AlignLeft,
              QStringLiteral("phase relative to %1; spoke length = r")
                  .arg(QString::fromStdString(report.limbs.label(report.referenceLimb))));
   if (report.strides.empty()) drawEmpty(p, area, style, QStringLiteral("No strides yet"));

@@ -1,5 +1,6 @@
 #include "ui/figures/footfall_diagram.h"
 
+#include <QFontMetricsF>
 #include <QPainterPath>
 #include <algorithm>
 #include <cmath>
@@ -8,7 +9,8 @@ namespace stridemark::ui::figures {
 
 namespace {
 
-constexpr double kAxisHeight = 18;
+// Two text lines (frame, seconds) under the lanes.
+constexpr double kAxisHeight = 30;
 
 bool isSelected(const FootfallOptions& o, const model::Event& e) {
   return std::find(o.selected.begin(), o.selected.end(), e) != o.selected.end();
@@ -22,20 +24,42 @@ double niceStep(double span, double targetTicks) {
   return std::max(1.0, 10 * mag);
 }
 
+QString secondsLabel(std::int64_t frame, Rational rate) {
+  return QStringLiteral("%1 s").arg(framesToSeconds(frame, rate), 0, 'f', 3);
+}
+
+// Ticks at 1-2-5 x 10^k frames, spaced so the widest label fits between neighbours: the frame
+// number on the first line, its time in seconds on a second line. Labels stay inside the
+// plotted span (never under the lane labels) and are skipped, tick kept, where they would
+// touch the previous one.
 void paintAxis(QPainter& p, const QRectF& rect, const FrameAxis& axis, const model::Annotation& a,
                const FigureStyle& style) {
   p.setFont(style.font(-2));
   p.setPen(style.muted);
+  const QFontMetricsF fm(p.font());
+  const double gap = fm.horizontalAdvance(QStringLiteral("MM"));
+  const auto widest = static_cast<std::int64_t>(std::ceil(axis.frameLast));
+  const double labelWidth = std::max(fm.horizontalAdvance(QString::number(widest)),
+                                     fm.horizontalAdvance(secondsLabel(widest, a.captureRate))) +
+                            gap;
   const double span = axis.frameLast - axis.frameFirst;
-  const double step = niceStep(span, std::max(2.0, (axis.right - axis.left) / 90.0));
+  const double pixels = std::max(1.0, axis.right - axis.left);
+  const double step = niceStep(span, std::max(1.0, pixels / labelWidth));
   const double start = std::ceil(axis.frameFirst / step) * step;
+  double lastRight = -1e300;
   for (double f = start; f <= axis.frameLast; f += step) {
     const double x = axis.x(f);
     p.drawLine(QPointF(x, rect.top()), QPointF(x, rect.top() + 4));
-    const double seconds = framesToSeconds(static_cast<std::int64_t>(f), a.captureRate);
-    p.drawText(QRectF(x - 45, rect.top() + 3, 90, rect.height() - 3),
-               Qt::AlignHCenter | Qt::AlignTop,
-               QStringLiteral("%1 · %2 s").arg(static_cast<qint64>(f)).arg(seconds, 0, 'f', 3));
+    const auto frame = static_cast<std::int64_t>(f);
+    const QString text =
+        QString::number(frame) + QLatin1Char('\n') + secondsLabel(frame, a.captureRate);
+    const double w = std::max(fm.horizontalAdvance(QString::number(frame)),
+                              fm.horizontalAdvance(secondsLabel(frame, a.captureRate)));
+    const double left = std::clamp(x - w / 2, axis.left, std::max(axis.left, rect.right() - w));
+    if (left < lastRight + gap / 2) continue;
+    p.drawText(QRectF(left, rect.top() + 3, w + 1, rect.height() - 3),
+               Qt::AlignHCenter | Qt::AlignTop, text);
+    lastRight = left + w;
   }
 }
 
