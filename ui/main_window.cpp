@@ -32,6 +32,7 @@
 #include "ui/app/palettes.h"
 #include "ui/app/video_source.h"
 #include "ui/document/project_io.h"
+#include "ui/export/export_dialog.h"
 #include "ui/export/figure_output.h"
 #include "ui/figures/analysis_figures.h"
 #include "ui/widgets/figure_view.h"
@@ -227,7 +228,10 @@ void MainWindow::buildActions() {
   rebuildRecentMenu();
   addAction(file, tr("&Save"), QKeySequence::Save, [this] { save(); });
   addAction(file, tr("Save &as…"), QKeySequence::SaveAs, [this] { saveAsDialog(); });
-  addAction(file, tr("&Export figures…"), QKeySequence(tr("Ctrl+E")), [this] { exportFigures(); });
+  exportAction_ =
+      addAction(file, tr("&Export…"), QKeySequence(tr("Ctrl+E")), [this] { openExport(); });
+  addAction(file, tr("Export &figures…"), QKeySequence(tr("Ctrl+Shift+E")),
+            [this] { exportFigures(); });
   file->addSeparator();
   addAction(file, tr("&Quit"), QKeySequence::Quit, [this] { close(); });
 
@@ -482,6 +486,19 @@ void MainWindow::dropEvent(QDropEvent* event) {
   const auto urls = event->mimeData()->urls();
   if (urls.isEmpty() || !urls.front().isLocalFile()) return;
   if (maybeSave()) openPath(urls.front().toLocalFile());
+}
+
+bool MainWindow::saveBeforeExport() {
+  // The export reads the project file, so it must hold what the user sees.
+  if (!doc_.projectPath().isEmpty() && !doc_.isModified()) return true;
+  return save();  // Save As prompt when never saved; cancel returns false
+}
+
+void MainWindow::openExport() {
+  if (!saveBeforeExport()) return;
+  const std::int64_t frames = video_ ? video_->frameCount() : 0;
+  exports::ExportDialog dialog(doc_.projectPath(), frames, doc_.annotation().captureRate, this);
+  dialog.exec();
 }
 
 void MainWindow::exportFigures() {

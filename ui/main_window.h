@@ -45,6 +45,8 @@ class MainWindow : public QMainWindow {
   bool saveProjectAs(const QString& path);
   // Gait map, Phase dial, duty plot and footfall diagram as SVG, PNG and PDF in `dir`.
   bool exportFiguresTo(const QString& dir);
+  // File > Export… (Ctrl+E); exposed for tests.
+  QAction* exportAction() const { return exportAction_; }
 
   void seek(std::int64_t frame);
   std::int64_t playhead() const { return playhead_; }
@@ -100,6 +102,9 @@ class MainWindow : public QMainWindow {
   void editTrialCard();
   void editTagKeys();
   void exportFigures();
+  // File > Export…: saves first when needed, then opens the Export dialog on the project file.
+  bool saveBeforeExport();
+  void openExport();
 
   ProjectDocument doc_;
   AnalysisRunner runner_;
@@ -121,6 +126,7 @@ class MainWindow : public QMainWindow {
   QMenu* recentMenu_ = nullptr;
   QMenu* viewMenu_ = nullptr;
   QAction* autoAdvanceAction_ = nullptr;
+  QAction* exportAction_ = nullptr;
   QAction* darkAction_ = nullptr;
 
   std::int64_t playhead_ = 0;
