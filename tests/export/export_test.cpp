@@ -263,9 +263,17 @@ std::pair<bool, QString> runDialog(ui::exports::ExportDialog& dialog, bool cance
                                 });
   QPushButton* exportButton = nullptr;
   QPushButton* cancelButton = nullptr;
-  for (QPushButton* b : dialog.findChildren<QPushButton*>()) {
-    if (b->text() == QStringLiteral("Export")) exportButton = b;
-    if (b->text() == QStringLiteral("Close")) cancelButton = b;
+  // After a previous run the dialog turns "Cancel" back into "Close" through a queued signal:
+  // let the event loop deliver it before looking for the buttons.
+  const auto waitStart = std::chrono::steady_clock::now();
+  while (std::chrono::steady_clock::now() - waitStart < std::chrono::seconds(10)) {
+    exportButton = cancelButton = nullptr;
+    for (QPushButton* b : dialog.findChildren<QPushButton*>()) {
+      if (b->text() == QStringLiteral("Export") && b->isEnabled()) exportButton = b;
+      if (b->text() == QStringLiteral("Close")) cancelButton = b;
+    }
+    if (exportButton && cancelButton) break;
+    QCoreApplication::processEvents(QEventLoop::AllEvents, 20);
   }
   if (!exportButton || !cancelButton) return {false, QStringLiteral("buttons not found")};
   if (cancelAtClip) {
