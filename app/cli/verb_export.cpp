@@ -3,7 +3,11 @@
 // Writes tables and figures (always), the PDF report and the marked clip (when asked).
 // Exit 1 when the project is bad, or when a clip was asked for but the video is missing (the
 // tables and figures are still written; the message says why there is no clip).
+#include <sys/stat.h>
+#include <unistd.h>
+
 #include <atomic>
+#include <cerrno>
 #include <cstdlib>
 #include <iostream>
 #include <memory>
@@ -53,6 +57,16 @@ std::vector<ui::exports::FigureFormat> parseFigureList(const std::string& text) 
 // Offscreen Qt for fonts and painting, created only for this verb.
 std::unique_ptr<QGuiApplication> startOffscreenQt() {
   setenv("QT_QPA_PLATFORM", "offscreen", 0);  // keep a platform the user chose
+  // Batch machines often have no session runtime dir; give Qt a private one instead of a
+  // warning on every run.
+  if (std::getenv("XDG_RUNTIME_DIR") == nullptr) {
+    const std::string dir = "/tmp/stridemark-runtime-" + std::to_string(getuid());
+    struct stat info {};
+    if ((mkdir(dir.c_str(), 0700) == 0 || errno == EEXIST) && lstat(dir.c_str(), &info) == 0 &&
+        S_ISDIR(info.st_mode) && info.st_uid == getuid() && (info.st_mode & 077) == 0) {
+      setenv("XDG_RUNTIME_DIR", dir.c_str(), 0);
+    }
+  }
   static int argc = 1;
   static char name[] = "stridemark";
   static char* argv[] = {name, nullptr};
