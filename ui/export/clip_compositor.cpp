@@ -9,6 +9,9 @@
 #include <optional>
 #include <thread>
 
+#include <opencv2/core/utility.hpp>
+#include <opencv2/imgproc.hpp>
+
 #include "common/error.h"
 #include "video/convert.h"
 #include "video/encoder.h"
@@ -177,7 +180,8 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
   options.height = layout.output.height();
   options.fileRate = s.playbackRate;
   options.codec = video::VideoCodec::h264;
-  options.input = video::PixelLayout::bgra32;
+  // OpenCV's SIMD BGRA -> I420 beat swscale's generic RGB -> YUV path here.
+  options.input = video::PixelLayout::yuv420p;
   options.threads = s.encoderThreads;
   options.x264Preset = s.x264Preset;
   options.x264Crf = s.x264Crf;
@@ -206,9 +210,21 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
 
   const std::int64_t total = s.last - s.first + 1;
   std::int64_t done = 0;
+  // One OpenCV thread: its pool's spinning workers would compete with libx264's threads.
+  const int openCvThreads = cv::getNumThreads();
+  cv::setNumThreads(1);
+  struct RestoreOpenCvThreads {
+    int count;
+    ~RestoreOpenCvThreads() { cv::setNumThreads(count); }
+  } restoreOpenCv{openCvThreads};
+  cv::Mat planar;  // I420, reused: height * 3 / 2 rows of width bytes
   while (std::optional<ImageQueue::Item> item = queue.takeReady()) {
     if (cancel.load()) break;
-    encoder.write(item->image.constBits(), item->image.bytesPerLine());
+    const cv::Mat bgra(item->image.height(), item->image.width(), CV_8UC4,
+                       const_cast<uchar*>(item->image.constBits()),
+                       static_cast<std::size_t>(item->image.bytesPerLine()));
+    cv::cvtColor(bgra, planar, cv::COLOR_BGRA2YUV_I420);
+    encoder.write(planar.data, planar.cols);
     queue.giveBack(std::move(item->image));
     ++done;
     if (progress) progress(done, total);
