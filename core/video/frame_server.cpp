@@ -1,5 +1,8 @@
 #include "video/frame_server.h"
 
+#include <sys/resource.h>
+#include <unistd.h>
+
 #include <algorithm>
 
 #include "common/error.h"
@@ -13,25 +16,54 @@ namespace stridemark::video {
 namespace {
 
 // Frames kept before the target of a cold jump: about one second of holding the back-step
-// key, which gives the first window refill time to finish (VIDEO-NOTES §4.2.4).
+// key, which gives the first refill time to finish (VIDEO-NOTES §4.2.4), while the jump costs
+// only a few frames more than an exact seek.
 constexpr std::int64_t kKeepBeforeJump = 30;
 
+// Frames behind the direction of travel that stay cached when space is short.
+std::int64_t behindReserve(std::int64_t budgetFrames) {
+  return std::clamp<std::int64_t>(budgetFrames / 8, 1, 32);
+}
+
+std::int64_t budgetFrames(std::size_t budgetBytes, std::size_t frameBytes) {
+  return std::max<std::int64_t>(
+      1, static_cast<std::int64_t>(budgetBytes / std::max<std::size_t>(frameBytes, 1)));
+}
+
+// Frames the budget holds ahead of the playhead in the direction of travel.
+std::int64_t aheadCapacity(std::size_t budgetBytes, std::size_t frameBytes) {
+  const std::int64_t frames = budgetFrames(budgetBytes, frameBytes);
+  return std::max<std::int64_t>(1, frames - behindReserve(frames));
+}
+
+// Linux nice values are per thread and inherited by threads created later, so lowering the
+// worker's priority before it opens the decoder also covers libavcodec's frame threads.
+void lowerThisThreadsPriority(int nice) {
+  if (nice <= 0) return;
+  const auto tid = static_cast<id_t>(gettid());
+  const int current = getpriority(PRIO_PROCESS, tid);
+  (void)setpriority(PRIO_PROCESS, tid, std::min(current + nice, 19));  // best effort
+}
+
 }  // namespace
+
+// Half the ahead part, so the span being stepped through and the one being decoded fit together.
+std::int64_t backwardRefillFrames(std::size_t budgetBytes, std::size_t frameBytes) {
+  return std::max<std::int64_t>(1, aheadCapacity(budgetBytes, frameBytes) / 2);
+}
 
 FrameServer::FrameServer(const std::string& path, std::shared_ptr<const FrameIndex> index,
                          FrameServerOptions options)
     : index_(std::move(index)), options_(options), pool_(FramePool::create()) {
   if (!index_) throw Error(ErrorCategory::seek, path + ": no frame index given to the server");
-  ReaderOptions readerOptions;
-  readerOptions.decodeThreads = options_.decodeThreads;
-  reader_ = std::make_unique<FrameReader>(path, index_, readerOptions, pool_);
-  // Frame 0 tells the frame size; it also becomes the first cached frame.
-  auto first = std::make_shared<const DecodedFrame>(reader_->frameAt(0));
-  frameBytes_ = first->bytes();
-  std::vector<Ready> none;
-  insertLocked(std::move(first), none);
-  stats_.windowFrames = windowFramesLocked();
-  worker_ = std::thread([this] { workerLoop(); });
+  worker_ = std::thread([this, path] { workerMain(path); });
+  std::unique_lock lock(mutex_);
+  arrived_.wait(lock, [this] { return started_ || startError_; });
+  if (startError_) {
+    lock.unlock();
+    worker_.join();
+    std::rethrow_exception(startError_);
+  }
 }
 
 FrameServer::~FrameServer() {
@@ -48,6 +80,30 @@ FrameServer::~FrameServer() {
   arrived_.notify_all();
   worker_.join();
   deliver(cancelled);
+}
+
+// Opens the file on the worker thread (so its decoder threads inherit the lower priority) and
+// decodes frame 0, which tells the frame size and becomes the first cached frame.
+void FrameServer::workerMain(const std::string& path) {
+  try {
+    lowerThisThreadsPriority(options_.workerNice);
+    ReaderOptions readerOptions;
+    readerOptions.decodeThreads = options_.decodeThreads;
+    reader_ = std::make_unique<FrameReader>(path, index_, readerOptions, pool_);
+    auto first = std::make_shared<const DecodedFrame>(reader_->frameAt(0));
+    std::lock_guard lock(mutex_);
+    frameBytes_ = first->bytes();
+    std::vector<Ready> none;
+    insertLocked(std::move(first), none);
+    stats_.windowFrames = windowFramesLocked();
+    started_ = true;
+  } catch (...) {
+    std::lock_guard lock(mutex_);
+    startError_ = std::current_exception();
+  }
+  arrived_.notify_all();
+  if (startError_) return;
+  workerLoop();
 }
 
 void FrameServer::deliver(std::vector<Ready>& ready) {
@@ -173,10 +229,16 @@ FrameServerStats FrameServer::stats() const {
   return s;
 }
 
+std::int64_t FrameServer::budgetFramesLocked() const {
+  return budgetFrames(options_.budgetBytes, frameBytes_);
+}
+
+std::int64_t FrameServer::aheadCapacityLocked() const {
+  return aheadCapacity(options_.budgetBytes, frameBytes_);
+}
+
 std::int64_t FrameServer::windowFramesLocked() const {
-  const auto budgetFrames =
-      static_cast<std::int64_t>(options_.budgetBytes / std::max<std::size_t>(frameBytes_, 1));
-  return std::clamp<std::int64_t>(budgetFrames / 2, 1, index_->frameCount());
+  return std::min(backwardRefillFrames(options_.budgetBytes, frameBytes_), index_->frameCount());
 }
 
 std::int64_t FrameServer::keyFrameNumber(std::int64_t n) const {
@@ -230,15 +292,18 @@ void FrameServer::failLocked(std::int64_t first, std::int64_t last, std::excepti
   pending_ = std::move(waiting);
 }
 
-// Evicts the frames least likely to be shown next: far behind the direction of travel first
-// (weighted 4x), then far ahead. The playhead frame itself is kept.
+// Evicts the frames least likely to be shown next: behind the direction of travel beyond the
+// reserve first, then far ahead, then the reserve (weighted 4x). The playhead frame is kept.
 void FrameServer::evictOverBudgetLocked() {
+  const std::int64_t reserve = behindReserve(budgetFramesLocked());
+  const std::int64_t capacity = aheadCapacityLocked();
+  const auto score = [&](std::int64_t n) {
+    const std::int64_t d = n - playhead_;
+    const bool behind = direction_ == Direction::forward ? d < 0 : d > 0;
+    if (!behind) return std::abs(d);
+    return std::abs(d) <= reserve ? 4 * std::abs(d) : capacity + std::abs(d);
+  };
   while (cachedBytes_ > options_.budgetBytes && cache_.size() > 1) {
-    const auto score = [this](std::int64_t n) {
-      const std::int64_t d = n - playhead_;
-      const bool behind = direction_ == Direction::forward ? d < 0 : d > 0;
-      return behind ? 4 * std::abs(d) : std::abs(d);
-    };
     // Only the two ends of the ordered map can hold the worst frame.
     auto low = cache_.begin();
     auto high = std::prev(cache_.end());
@@ -271,11 +336,9 @@ void FrameServer::runDemand(std::unique_lock<std::mutex>& lock) {
     lock.lock();
     return;
   }
-  // Backward: keep a window up to the target, but never cross into the previous GOP here (that
-  // would make this step slower than a plain seek); the prefetch fills the rest.
-  const std::int64_t keep =
-      direction_ == Direction::backward ? windowFramesLocked() - 1 : kKeepBeforeJump;
-  std::int64_t first = std::max(keyFrameNumber(n), n - keep);
+  // Keep a few frames before the target whichever way the playhead moves: the step costs
+  // about one exact seek, and the background refill takes over from there.
+  std::int64_t first = std::max(keyFrameNumber(n), n - kKeepBeforeJump);
   while (first < n && cache_.count(first)) ++first;
   // When the decoder already stands inside the span, continue from there instead of seeking
   // back (a forward step that outran the decode-ahead).
@@ -284,34 +347,46 @@ void FrameServer::runDemand(std::unique_lock<std::mutex>& lock) {
   decodeSpan(first, n, lock);
 }
 
-// Background work: decode ahead when moving forward; refill the window before the playhead
+// Background work: decode ahead when moving forward; refill the frames before the playhead
 // when moving backward. Returns false when there is nothing to do.
 bool FrameServer::runBackground(std::unique_lock<std::mutex>& lock) {
-  const std::int64_t count = index_->frameCount();
+  Span span;
   if (direction_ == Direction::forward) {
-    const std::int64_t budgetFrames =
-        static_cast<std::int64_t>(options_.budgetBytes / std::max<std::size_t>(frameBytes_, 1));
-    const std::int64_t ahead =
-        std::min(options_.aheadFrames, std::max<std::int64_t>(budgetFrames / 2, 1));
-    const std::int64_t last = std::min(count - 1, playhead_ + ahead);
-    std::int64_t m = playhead_ + 1;
-    while (m <= last && (cache_.count(m) || unreadable_.count(m))) ++m;
-    if (m > last) return false;
-    decodeSpan(m, last, lock);
-    return true;
+    if (!planForwardLocked(span)) return false;
+  } else {
+    if (!planBackwardLocked(span)) return false;
+    ++stats_.windowRefills;
   }
-  const std::int64_t window = windowFramesLocked();
+  decodeSpan(span.first, span.last, lock);
+  return true;
+}
+
+bool FrameServer::planForwardLocked(Span& span) const {
+  const std::int64_t count = index_->frameCount();
+  const std::int64_t ahead =
+      std::min(options_.aheadFrames, std::max<std::int64_t>(budgetFramesLocked() / 2, 1));
+  const std::int64_t last = std::min(count - 1, playhead_ + ahead);
+  std::int64_t m = playhead_ + 1;
+  while (m <= last && (cache_.count(m) || unreadable_.count(m))) ++m;
+  if (m > last) return false;
+  span = {m, last};
+  return true;
+}
+
+// The next span below the cached run that holds the playhead (see the policy in the header).
+bool FrameServer::planBackwardLocked(Span& span) const {
   const std::int64_t start = contiguousStartLocked(playhead_);
   if (start > playhead_ || start == 0) return false;  // playhead not cached yet, or at the start
-  if (unreadable_.count(start - 1)) return false;     // damaged frame: only on explicit request
-  // Refill as soon as less than a window is cached before the playhead: the cache holds the
-  // window being stepped through plus the next one (window = budget / 2).
-  if (playhead_ - start >= window) return false;
-  // One refill never crosses into the previous GOP, so it costs at most one plain seek to
-  // start-1; the next refill takes the GOP before.
-  ++stats_.windowRefills;
   const std::int64_t last = start - 1;
-  decodeSpan(std::max({std::int64_t{0}, last - window + 1, keyFrameNumber(last)}), last, lock);
+  if (unreadable_.count(last)) return false;  // damaged frame: only on explicit request
+  const std::int64_t capacity = aheadCapacityLocked();
+  const std::int64_t room = capacity - (playhead_ - start + 1);
+  const std::int64_t restOfGop = last - keyFrameNumber(last) + 1;
+  const std::int64_t size = std::min({room, restOfGop, windowFramesLocked()});
+  // Wait for room for a worthwhile span: a short one pays the GOP's pre-roll for few frames.
+  const std::int64_t worthwhile = std::min(restOfGop, std::max<std::int64_t>(1, capacity / 4));
+  if (size < worthwhile) return false;
+  span = {last - size + 1, last};
   return true;
 }
 

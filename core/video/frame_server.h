@@ -1,9 +1,16 @@
 #pragma once
 // The player-facing frame source. It keeps native-format frames around the playhead under a
 // byte budget, decodes ahead in the direction of travel on one worker thread, and refills the
-// window before the playhead when stepping backwards so back steps are cache lookups (decode a
+// frames before the playhead when stepping backwards so back steps are cache lookups (decode a
 // GOP span once, keep the frames; VIDEO-NOTES §4.2). A new request elsewhere cancels the
 // worker's current job through a generation counter.
+//
+// Backward refill policy: the budget is split into a small reserve behind the direction of
+// travel (for a change of mind) and the frames ahead of it. A refill is planned as soon as the
+// ahead part has room for a worthwhile span below the cached run; it takes at most half of the
+// ahead part, so one span is stepped through while the next one decodes. Frames before the span
+// are pre-rolled with non-reference frames skipped. The worker and its decoder threads run at
+// a lower priority, so the thread that steps and converts is not slowed down by refills.
 //
 // Threading: every public method is thread-safe. Callbacks given to request() run on the
 // worker thread; they must be quick and must not call back into the server synchronously
@@ -31,6 +38,7 @@ struct FrameServerOptions {
   std::size_t budgetBytes = std::size_t{1} << 30;  // 1 GiB default (setting)
   int decodeThreads = 2;                           // frame threads for refill / decode-ahead
   std::int64_t aheadFrames = 32;                   // decode-ahead depth when moving forward
+  int workerNice = 10;  // niceness added to the worker and its decoder threads (0 = unchanged)
 };
 
 struct FrameServerStats {
@@ -41,8 +49,11 @@ struct FrameServerStats {
   std::int64_t misses = 0;
   std::int64_t cancelledJobs = 0;
   std::int64_t windowRefills = 0;
-  std::int64_t windowFrames = 0;  // frames kept per backward window at the current budget
+  std::int64_t windowFrames = 0;  // largest span one backward refill keeps at this budget
 };
+
+// The most frames one backward refill keeps for this budget and frame size (the policy above).
+std::int64_t backwardRefillFrames(std::size_t budgetBytes, std::size_t frameBytes);
 
 class FrameServer {
  public:
@@ -94,15 +105,24 @@ class FrameServer {
   void demandLocked(std::int64_t n, std::shared_ptr<Slot> slot, Callback done,
                     std::vector<Ready>& cancelled);
   bool jobWillProduceLocked(std::int64_t n) const;
+  void workerMain(const std::string& path);
   void workerLoop();
   void runDemand(std::unique_lock<std::mutex>& lock);
   bool runBackground(std::unique_lock<std::mutex>& lock);
+  struct Span {
+    std::int64_t first = 0;
+    std::int64_t last = -1;
+  };
+  bool planForwardLocked(Span& span) const;
+  bool planBackwardLocked(Span& span) const;
   // Decodes [first, last] on the worker with the mutex released; frames go into the cache.
   void decodeSpan(std::int64_t first, std::int64_t last, std::unique_lock<std::mutex>& lock);
   void insertLocked(std::shared_ptr<const DecodedFrame> frame, std::vector<Ready>& ready);
   void failLocked(std::int64_t first, std::int64_t last, std::exception_ptr error,
                   std::vector<Ready>& ready);
   void evictOverBudgetLocked();
+  std::int64_t budgetFramesLocked() const;
+  std::int64_t aheadCapacityLocked() const;
   std::int64_t windowFramesLocked() const;
   std::int64_t keyFrameNumber(std::int64_t n) const;
   std::int64_t contiguousStartLocked(std::int64_t n) const;
@@ -111,7 +131,7 @@ class FrameServer {
   std::shared_ptr<const FrameIndex> index_;
   FrameServerOptions options_;
   std::shared_ptr<FramePool> pool_;
-  std::unique_ptr<FrameReader> reader_;  // used only by the worker thread
+  std::unique_ptr<FrameReader> reader_;  // made and used only by the worker thread
   std::size_t frameBytes_ = 0;
 
   mutable std::mutex mutex_;
@@ -128,6 +148,8 @@ class FrameServer {
   std::int64_t jobNext_ = 0;  // next frame the running job will deliver
   std::int64_t jobLast_ = -1;
   FrameServerStats stats_;
+  bool started_ = false;  // the worker has opened the file and decoded frame 0
+  std::exception_ptr startError_;
   bool stopping_ = false;
   std::thread worker_;  // last member: starts after everything above exists
 };

@@ -7,14 +7,15 @@
 #include "video/convert.h"
 #include "video/encoder.h"
 #include "video/frame_reader.h"
+#include "video/frame_server.h"
 #include "video/video_info.h"
 
 namespace stridemark::video {
 
 bool intraProxyAdvised(const FrameIndex& index, std::size_t budgetBytes, std::size_t frameBytes) {
   if (index.isIntraOnly() || frameBytes == 0) return false;
-  const auto window = static_cast<std::int64_t>(budgetBytes / frameBytes / 2);
-  return index.maxKeyframeInterval() > window;
+  return index.maxKeyframeInterval() >
+         kProxyPrerollSpans * backwardRefillFrames(budgetBytes, frameBytes);
 }
 
 FrameIndex buildIntraProxy(const std::string& source, std::shared_ptr<const FrameIndex> index,

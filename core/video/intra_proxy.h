@@ -16,8 +16,13 @@
 
 namespace stridemark::video {
 
-// True when backward stepping would need refills that cost more than a window of stepping:
-// the longest keyframe interval is longer than the frames the budget holds per window.
+// True when backward stepping would stall: a refill pre-rolls up to one keyframe interval
+// before the span it keeps, so once the longest interval exceeds kProxyPrerollSpans refill
+// spans (backwardRefillFrames), a refill costs more decoding than holding the back-step key
+// gives it time for. Skipping non-reference frames makes the pre-roll about 1.5-1.9x cheaper
+// than full decoding (VIDEO-NOTES §4.2.3); 1080p H.264 on two cores decodes about 8x faster
+// than 30 steps/s, which leaves room for about four spans of pre-roll per span stepped.
+constexpr std::int64_t kProxyPrerollSpans = 4;
 bool intraProxyAdvised(const FrameIndex& index, std::size_t budgetBytes, std::size_t frameBytes);
 
 // Writes the proxy (MJPEG in AVI, even sizes only) and returns its index. `progress(done,

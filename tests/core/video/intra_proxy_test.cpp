@@ -7,6 +7,7 @@
 #include "common/error.h"
 #include "video/convert.h"
 #include "video/frame_reader.h"
+#include "video/frame_server.h"
 #include "video/intra_proxy.h"
 #include "video_test_support.h"
 
@@ -33,8 +34,14 @@ TEST(IntraProxy, SameFrameNumberingAsTheSource) {
   av_log_set_level(AV_LOG_ERROR);
   const std::string source = testing::makeClip(testing::clipNamed("h264_one_keyframe.mp4"));
   auto index = std::make_shared<const FrameIndex>(FrameIndex::build(source));
-  // One keyframe in 240 frames and a 20-frame window: the proxy is advised.
+  // One keyframe in 240 frames and a 40-frame budget (refill spans of 17 frames): the proxy
+  // is advised. With 1 GiB of 1080p 4:2:0 frames (345 frames, spans of 156) a 240-frame GOP
+  // steps backwards from the source; a single keyframe in 2000 frames would not.
   EXPECT_TRUE(intraProxyAdvised(*index, 40 * 28800, 28800));
+  EXPECT_EQ(backwardRefillFrames(std::size_t{1} << 30, 1920 * 1080 * 3 / 2), 156);
+  const std::string gop250 = testing::makeClip(testing::clipNamed("h264_bframes_gop250.mp4"));
+  EXPECT_FALSE(
+      intraProxyAdvised(FrameIndex::build(gop250), std::size_t{1} << 30, 1920 * 1080 * 3 / 2));
   const std::string proxyPath = testing::clipFolder() + "/proxy-one-keyframe.avi";
   std::filesystem::remove(proxyPath);
   IntraProxyJob job(source, index, proxyPath);
