@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <cstdlib>
 #include <cstring>
 #include <filesystem>
 #include <fstream>
@@ -283,6 +284,38 @@ FrameIndex FrameIndex::buildOrLoad(const std::string& path, const std::string& s
     index.sidecarWritten_ = false;  // read-only folder: work without a cache
   }
   return index;
+}
+
+FrameIndex FrameIndex::openCached(const std::string& path) {
+  const std::string sidecar = defaultSidecarPath(path);
+  return sidecar.empty() ? build(path) : buildOrLoad(path, sidecar);
+}
+
+std::string defaultSidecarPath(const std::string& videoPath) {
+  namespace fs = std::filesystem;
+  fs::path folder;
+  const char* chosen = std::getenv("STRIDEMARK_INDEX_CACHE");
+  const char* xdg = std::getenv("XDG_CACHE_HOME");
+  const char* home = std::getenv("HOME");
+  if (chosen && *chosen) {
+    if (std::string(chosen) == "off") return {};
+    folder = chosen;
+  } else if (xdg && *xdg) {
+    folder = fs::path(xdg) / "stridemark" / "index";
+  } else if (home && *home) {
+    folder = fs::path(home) / ".cache" / "stridemark" / "index";
+  } else {
+    return {};
+  }
+  std::error_code ec;
+  fs::create_directories(folder, ec);
+  if (ec) return {};
+  const std::string absolute = fs::absolute(videoPath, ec).lexically_normal().string();
+  char name[32];
+  std::snprintf(name, sizeof name, "%016llx.smindex",
+                static_cast<unsigned long long>(
+                    fnv1a(absolute.data(), absolute.size(), 14695981039346656037ULL)));
+  return (folder / name).string();
 }
 
 }  // namespace stridemark::video

@@ -34,6 +34,12 @@ struct VideoSignature {
 };
 VideoSignature computeSignature(const std::string& path);  // throws Error(io)
 
+// Where index sidecars of the command line go, one per absolute video path: the folder named
+// by $STRIDEMARK_INDEX_CACHE, else $XDG_CACHE_HOME/stridemark/index, else
+// ~/.cache/stridemark/index (the video's own folder may be read-only). Empty when
+// STRIDEMARK_INDEX_CACHE is "off" or no folder is known.
+std::string defaultSidecarPath(const std::string& videoPath);
+
 class FrameIndex {
  public:
   static constexpr std::uint32_t kSidecarVersion = 1;
@@ -46,6 +52,9 @@ class FrameIndex {
   // tries to write the sidecar (a write failure is not fatal: see sidecarWritten()).
   static FrameIndex buildOrLoad(const std::string& path, const std::string& sidecarPath,
                                 const std::function<bool(double)>& progress = {});
+  // buildOrLoad with the per-user index cache (defaultSidecarPath), or a plain build when
+  // there is no usable cache folder.
+  static FrameIndex openCached(const std::string& path);
   // Returns nothing when the sidecar is missing, unreadable, of another version or stale.
   static std::optional<FrameIndex> loadSidecar(const std::string& sidecarPath,
                                                const VideoSignature& expected);

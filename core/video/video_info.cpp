@@ -153,7 +153,7 @@ VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
 }
 
 VideoInfo probeVideo(const std::string& path) {
-  const FrameIndex index = FrameIndex::build(path);
+  const FrameIndex index = FrameIndex::openCached(path);
   return describeVideo(path, index);
 }
 

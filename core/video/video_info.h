@@ -39,7 +39,7 @@ struct VideoInfo {
   std::vector<std::string> warnings;
 };
 
-// Opens the file, scans the index and fills VideoInfo. Throws stridemark::Error with a message
+// Opens the file, scans the index (or loads it from the index cache) and fills VideoInfo. Throws stridemark::Error with a message
 // naming the file for missing/empty/unreadable files and files without video.
 VideoInfo probeVideo(const std::string& path);
 // Same, reusing an index already built for this file.

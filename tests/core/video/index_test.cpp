@@ -1,6 +1,7 @@
 // Index, sidecar cache and probe figures against ffprobe / known clip recipes.
 #include <gtest/gtest.h>
 
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 
@@ -98,6 +99,28 @@ TEST_F(IndexTest, SidecarRoundTripAndStaleSidecarIsRebuilt) {
   const FrameIndex fourth = FrameIndex::buildOrLoad(path, sidecar);
   EXPECT_FALSE(fourth.loadedFromSidecar());
   EXPECT_EQ(fourth.frameCount(), 60);
+}
+
+TEST_F(IndexTest, CommandLineIndexCacheIsPerUserAndReusedWhileTheFileIsUnchanged) {
+  const std::string cache = testing::clipFolder() + "/index-cache";
+  fs::remove_all(cache);
+  ::setenv("STRIDEMARK_INDEX_CACHE", cache.c_str(), 1);
+  const std::string path = testing::makeClip(testing::clipNamed("mjpeg.avi"));
+  const std::string sidecar = defaultSidecarPath(path);
+  EXPECT_EQ(fs::path(sidecar).parent_path(), fs::path(cache));
+  // The same file named another way maps to the same sidecar.
+  EXPECT_EQ(defaultSidecarPath(testing::clipFolder() + "/./mjpeg.avi"), sidecar);
+  const FrameIndex first = FrameIndex::openCached(path);
+  EXPECT_FALSE(first.loadedFromSidecar());
+  EXPECT_TRUE(fs::exists(sidecar));
+  const FrameIndex second = FrameIndex::openCached(path);
+  EXPECT_TRUE(second.loadedFromSidecar());
+  EXPECT_EQ(second.frameCount(), first.frameCount());
+  EXPECT_EQ(probeVideo(path).frameCount, first.frameCount());
+  ::setenv("STRIDEMARK_INDEX_CACHE", "off", 1);
+  EXPECT_TRUE(defaultSidecarPath(path).empty());
+  EXPECT_FALSE(FrameIndex::openCached(path).loadedFromSidecar());
+  ::unsetenv("STRIDEMARK_INDEX_CACHE");
 }
 
 TEST_F(IndexTest, ProbeReportsRatesSizeAndGop) {
