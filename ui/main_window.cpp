@@ -18,6 +18,8 @@
 #include <QMessageBox>
 #include <QMimeData>
 #include <QPlainTextEdit>
+#include <QProgressBar>
+#include <QPushButton>
 #include <QSettings>
 #include <QSplitter>
 #include <QStatusBar>
@@ -116,6 +118,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   status_ = new QLabel;
   status_->setAccessibleName(tr("Status"));
   statusBar()->addPermanentWidget(status_);
+  buildProxyStatus();
   buildDocks();
   buildActions();
   keys_ = TagKeyMap::load(doc_.annotation().limbs);
@@ -153,6 +156,10 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   bigStep_ = settings.value(QStringLiteral("bigStep"), 10).toLongLong();
   darkAction_->setChecked(settings.value(QStringLiteral("theme")).toString() ==
                           QLatin1String("dark"));
+  stepOnProxyAction_->setChecked(
+      settings.value(QStringLiteral("video/stepOnProxy"), true).toBool());
+  const auto budgetMiB = settings.value(QStringLiteral("video/cacheBudgetMiB"), 0).toULongLong();
+  if (budgetMiB > 0) videoOptions_.budgetBytes = static_cast<std::size_t>(budgetMiB) << 20;
   onAnnotationChanged();
   updateTitle();
 }
@@ -306,6 +313,20 @@ void MainWindow::buildActions() {
             [this] { lanes_->setVisibleSpan(lanes_->visibleSpan() * 5 / 4); });
   addAction(viewMenu_, tr("Fit video"), QKeySequence(tr("Ctrl+0")),
             [this] { viewer_->resetView(); });
+  stepOnProxyAction_ = addAction(viewMenu_, tr("Step on intra &proxy"), {}, [] {});
+  stepOnProxyAction_->setCheckable(true);
+  stepOnProxyAction_->setChecked(true);
+  stepOnProxyAction_->setToolTip(
+      tr("Show frames from the all-intra stepping proxy of a long-GOP clip (export always reads "
+         "the source)"));
+  connect(stepOnProxyAction_, &QAction::toggled, this, [this](bool on) {
+    QSettings().setValue(QStringLiteral("video/stepOnProxy"), on);
+    if (video_) video_->setStepOnProxy(on);
+    updateStatus();
+  });
+  cancelProxyAction_ =
+      addAction(viewMenu_, tr("Cancel stepping proxy build"), {}, [this] { cancelProxyBuild(); });
+  cancelProxyAction_->setEnabled(false);
   darkAction_ = addAction(viewMenu_, tr("&Dark palette"), {}, [] {});
   darkAction_->setCheckable(true);
   connect(darkAction_, &QAction::toggled, this, &MainWindow::setTheme);
@@ -349,7 +370,8 @@ std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFi
 
 bool MainWindow::openVideo(const QString& path) {
   std::unique_ptr<VideoSource> source;
-  if (!runGuarded(this, tr("Open video"), [&] { source = std::make_unique<VideoSource>(path); }))
+  if (!runGuarded(this, tr("Open video"),
+                  [&] { source = std::make_unique<VideoSource>(path, videoOptions_); }))
     return false;
   stopPlayback();
   model::Project project;
@@ -399,7 +421,7 @@ bool MainWindow::openVideoForProject(const QString& projectPath) {
   }
   std::unique_ptr<VideoSource> source;
   if (!runGuarded(this, tr("Open video"),
-                  [&] { source = std::make_unique<VideoSource>(videoPath); }))
+                  [&] { source = std::make_unique<VideoSource>(videoPath, videoOptions_); }))
     return false;
   attachVideo(std::move(source));
   return true;
@@ -407,12 +429,14 @@ bool MainWindow::openVideoForProject(const QString& projectPath) {
 
 void MainWindow::attachVideo(std::unique_ptr<VideoSource> video) {
   video_ = std::move(video);
+  showProxyProgress(false);
   viewer_->setFrame(-1, QImage());
   if (video_) {
     connect(video_.get(), &VideoSource::frameReady, this, &MainWindow::onFrame);
     connect(video_.get(), &VideoSource::frameFailed, this, [this](qint64 f, const QString& m) {
       statusBar()->showMessage(tr("Frame %1: %2").arg(f).arg(m), 8000);
     });
+    connectProxySignals();
     viewer_->setFrameCount(video_->frameCount());
     lanes_->setFrameCount(video_->frameCount());
   } else {
@@ -425,6 +449,56 @@ void MainWindow::attachVideo(std::unique_ptr<VideoSource> video) {
   playhead_ = -1;
   seek(0);
   updateTitle();
+  if (video_) {
+    video_->setStepOnProxy(stepOnProxyAction_->isChecked());
+    if (video_->startProxyIfAdvised() && video_->proxyBuilding()) showProxyProgress(true);
+  }
+}
+
+// --- stepping proxy (long-GOP clips) ---
+
+void MainWindow::buildProxyStatus() {
+  proxyBar_ = new QProgressBar;
+  proxyBar_->setAccessibleName(tr("Stepping proxy progress"));
+  proxyBar_->setRange(0, 1000);
+  proxyBar_->setFormat(tr("Building stepping proxy %p%"));
+  proxyBar_->setMaximumWidth(proxyBar_->fontMetrics().horizontalAdvance(proxyBar_->format()) * 2);
+  proxyCancel_ = new QPushButton(tr("Cancel"));
+  proxyCancel_->setAccessibleName(tr("Cancel stepping proxy"));
+  proxyCancel_->setToolTip(tr("Stop building the stepping proxy; stepping uses the source video"));
+  proxyCancel_->setFocusPolicy(Qt::StrongFocus);
+  connect(proxyCancel_, &QPushButton::clicked, this, &MainWindow::cancelProxyBuild);
+  statusBar()->addPermanentWidget(proxyBar_);
+  statusBar()->addPermanentWidget(proxyCancel_);
+  showProxyProgress(false);
+}
+
+void MainWindow::showProxyProgress(bool on) {
+  proxyBar_->setVisible(on);
+  proxyCancel_->setVisible(on);
+  if (cancelProxyAction_) cancelProxyAction_->setEnabled(on);
+  if (on) proxyBar_->setValue(0);
+}
+
+void MainWindow::connectProxySignals() {
+  connect(video_.get(), &VideoSource::proxyProgress, this,
+          [this](double f) { proxyBar_->setValue(static_cast<int>(f * 1000)); });
+  connect(video_.get(), &VideoSource::proxyReady, this, [this] {
+    showProxyProgress(false);
+    statusBar()->showMessage(tr("Stepping proxy ready: backward steps are now as quick as forward "
+                                "ones (export still reads the source)."),
+                             8000);
+    updateStatus();
+  });
+  connect(video_.get(), &VideoSource::proxyFailed, this, [this](const QString& message) {
+    showProxyProgress(false);
+    statusBar()->showMessage(message, 10000);
+    updateStatus();
+  });
+}
+
+void MainWindow::cancelProxyBuild() {
+  if (video_) video_->cancelProxy();
 }
 
 bool MainWindow::saveProjectAs(const QString& path) {
@@ -751,13 +825,14 @@ void MainWindow::updateStatus() {
   const QString limb =
       QString::fromStdString(a.limbs.label(std::min(selectedLimb_, a.limbs.size() - 1)));
   const bool stance = a.inStance(selectedLimb_, playhead_);
-  status_->setText(tr("limb %1 (%2) · %3 events · speed %4%5")
+  status_->setText(tr("limb %1 (%2) · %3 events · speed %4%5%6")
                        .arg(limb, stance ? tr("stance") : tr("swing"))
                        .arg(a.events.size())
                        .arg(speedText(kSpeeds[static_cast<std::size_t>(speedIndex_)]))
                        .arg(playDirection_ > 0   ? tr(" · playing")
                             : playDirection_ < 0 ? tr(" · playing backwards")
-                                                 : QString()));
+                                                 : QString())
+                       .arg(video_ && video_->displayingProxy() ? tr(" · proxy") : QString()));
 }
 
 void MainWindow::setTheme(bool dark) {

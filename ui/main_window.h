@@ -12,12 +12,15 @@
 
 #include "analysis/report.h"
 #include "ui/app/analysis_runner.h"
+#include "ui/app/video_source.h"
 #include "ui/document/project_document.h"
 #include "ui/widgets/tag_keys.h"
 
 class QAction;
 class QLabel;
 class QMenu;
+class QProgressBar;
+class QPushButton;
 
 namespace stridemark::ui {
 
@@ -27,7 +30,6 @@ class StrideSheet;
 class FigureView;
 class ChecksList;
 class SummaryView;
-class VideoSource;
 
 // What to do when a journal from a crashed session exists (tests choose without a dialog).
 enum class RecoveryPolicy { ask, recover, discard };
@@ -64,6 +66,11 @@ class MainWindow : public QMainWindow {
   void setAutoAdvance(bool on, std::int64_t frames = 1);
   void setRecoveryPolicy(RecoveryPolicy policy) { recovery_ = policy; }
   void setAskBeforeDiscard(bool ask) { askBeforeDiscard_ = ask; }
+  // Cache budget and proxy folder for videos opened from now on (tests; else from settings).
+  void setVideoOptions(const VideoSourceOptions& options) { videoOptions_ = options; }
+  QAction* stepOnProxyAction() const { return stepOnProxyAction_; }
+  QPushButton* proxyCancelButton() const { return proxyCancel_; }
+  QProgressBar* proxyProgressBar() const { return proxyBar_; }
 
  protected:
   bool eventFilter(QObject* watched, QEvent* event) override;
@@ -80,6 +87,10 @@ class MainWindow : public QMainWindow {
   void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);
   void onFrame(qint64 frame, const QImage& image);
   void attachVideo(std::unique_ptr<VideoSource> video);
+  void buildProxyStatus();
+  void showProxyProgress(bool on);
+  void connectProxySignals();
+  void cancelProxyBuild();
   bool openVideoForProject(const QString& projectPath);
   std::optional<model::Project> offerRecovery(const QString& journalFile);
   bool maybeSave();
@@ -108,6 +119,7 @@ class MainWindow : public QMainWindow {
 
   ProjectDocument doc_;
   AnalysisRunner runner_;
+  VideoSourceOptions videoOptions_;
   std::unique_ptr<VideoSource> video_;
   std::shared_ptr<const analysis::Report> report_;
   std::uint64_t shownRevision_ = 0;
@@ -128,6 +140,10 @@ class MainWindow : public QMainWindow {
   QAction* autoAdvanceAction_ = nullptr;
   QAction* exportAction_ = nullptr;
   QAction* darkAction_ = nullptr;
+  QAction* stepOnProxyAction_ = nullptr;
+  QAction* cancelProxyAction_ = nullptr;
+  QProgressBar* proxyBar_ = nullptr;
+  QPushButton* proxyCancel_ = nullptr;
 
   std::int64_t playhead_ = 0;
   int selectedLimb_ = 0;

@@ -5,9 +5,12 @@
 #include <QMetaObject>
 #include <QPointer>
 #include <QStandardPaths>
+#include <algorithm>
 #include <cstdio>
 
 #include "common/error.h"
+#include "ui/app/proxy_builder.h"
+#include "video/intra_proxy.h"
 
 namespace stridemark::ui {
 
@@ -23,9 +26,13 @@ std::string sidecarFor(const QString& videoPath) {
       .toStdString();
 }
 
+// While the proxy serves the display the source only answers export reads: keep it small.
+constexpr std::size_t kIdleSourceBudget = std::size_t{64} << 20;
+
 }  // namespace
 
-VideoSource::VideoSource(const QString& path, QObject* parent) : QObject(parent), path_(path) {
+VideoSource::VideoSource(const QString& path, const VideoSourceOptions& options, QObject* parent)
+    : QObject(parent), path_(path), options_(options) {
   const std::string file = path.toStdString();
   index_ = std::make_shared<const video::FrameIndex>(
       video::FrameIndex::buildOrLoad(file, sidecarFor(path)));
@@ -34,10 +41,84 @@ VideoSource::VideoSource(const QString& path, QObject* parent) : QObject(parent)
                 file + ": the file holds no video frames. Choose another video file.");
   }
   info_ = video::describeVideo(file, *index_);
-  server_ = std::make_unique<video::FrameServer>(file, index_);
+  video::FrameServerOptions serverOptions;
+  serverOptions.budgetBytes = options_.budgetBytes;
+  server_ = std::make_unique<video::FrameServer>(file, index_, serverOptions);
 }
 
 VideoSource::~VideoSource() = default;
+
+video::FrameServer& VideoSource::display() const {
+  return displayingProxy() ? *proxyServer_ : *server_;
+}
+
+bool VideoSource::proxyAdvised() const {
+  const auto frameBytes =
+      video::planeLayoutFor(info_.width, info_.height, info_.pixelFormatId).bytes;
+  return video::intraProxyAdvised(*index_, options_.budgetBytes, frameBytes);
+}
+
+QString VideoSource::proxyPath() const {
+  return ProxyBuilder::proxyPathFor(options_.proxyDir, signatureText());
+}
+
+bool VideoSource::startProxyIfAdvised() {
+  if (proxyServer_ || builder_ || !proxyAdvised()) return false;
+  builder_ = std::make_unique<ProxyBuilder>(path_, index_, proxyPath());
+  if (auto existing = builder_->reuseExisting()) {
+    builder_.reset();
+    useProxy(std::move(existing));
+    return true;
+  }
+  connect(builder_.get(), &ProxyBuilder::progressed, this, &VideoSource::proxyProgress);
+  connect(builder_.get(), &ProxyBuilder::ready, this,
+          [this](std::shared_ptr<const video::FrameIndex> proxyIndex) {
+            builder_.release()->deleteLater();  // we are inside its signal
+            useProxy(std::move(proxyIndex));
+          });
+  connect(builder_.get(), &ProxyBuilder::failed, this, [this](const QString& message) {
+    builder_.release()->deleteLater();
+    emit proxyFailed(message);
+  });
+  builder_->start();
+  return true;
+}
+
+void VideoSource::cancelProxy() {
+  if (builder_) builder_->cancel();  // failed() follows synchronously
+}
+
+bool VideoSource::proxyBuilding() const {
+  return builder_ && builder_->running();
+}
+
+void VideoSource::useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex) {
+  try {
+    video::FrameServerOptions serverOptions;
+    serverOptions.budgetBytes = options_.budgetBytes;
+    proxyServer_ = std::make_unique<video::FrameServer>(proxyPath().toStdString(),
+                                                        std::move(proxyIndex), serverOptions);
+  } catch (const std::exception& e) {
+    emit proxyFailed(tr("Stepping proxy unusable: %1 Stepping uses the source video.")
+                         .arg(QString::fromStdString(e.what())));
+    return;
+  }
+  switchDisplay(stepOnProxy_);
+  emit proxyReady();
+}
+
+void VideoSource::setStepOnProxy(bool on) {
+  if (on == stepOnProxy_) return;
+  stepOnProxy_ = on;
+  if (proxyServer_) switchDisplay(on);
+}
+
+void VideoSource::switchDisplay(bool proxy) {
+  server_->setBudget(proxy ? std::min(options_.budgetBytes, kIdleSourceBudget)
+                           : options_.budgetBytes);
+  // Same frame numbers on both: ask the new display server for the frame the user waits for.
+  if (wanted_ >= 0) request(wanted_);
+}
 
 std::string VideoSource::signatureText(const video::VideoSignature& s) {
   char text[64];
@@ -60,12 +141,12 @@ model::VideoLink VideoSource::link() const {
   return link;
 }
 
-QImage VideoSource::toImage(const video::DecodedFrame& frame) {
+QImage VideoSource::toImage(const video::DecodedFrame& frame, video::FrameConverter& converter) {
   // BGRA bytes are Qt's native 0xffRRGGBB on little-endian machines: the raster engine draws
   // Format_RGB32 without a per-paint conversion (RGBA8888 would be re-premultiplied each time).
   QImage image(frame.width(), frame.height(), QImage::Format_RGB32);
-  converter_.convert(frame, video::PackedFormat::bgra, image.bits(),
-                     static_cast<int>(image.bytesPerLine()));
+  converter.convert(frame, video::PackedFormat::bgra, image.bits(),
+                    static_cast<int>(image.bytesPerLine()));
   return image;
 }
 
@@ -73,7 +154,10 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
                           std::exception_ptr error) {
   if (n != wanted_) return;  // superseded by a newer request
   if (frame) {
-    emit frameReady(n, toImage(*frame));
+    // Frames of either server may arrive (a request made just before a switch): pick the
+    // converter by origin, told apart by pixel format.
+    const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
+    emit frameReady(n, toImage(*frame, fromSource ? converter_ : proxyConverter_));
   } else if (error) {
     try {
       std::rethrow_exception(error);
@@ -85,13 +169,14 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
 
 void VideoSource::request(std::int64_t frame) {
   wanted_ = frame;
-  if (auto cached = server_->tryGet(frame)) {
+  auto& server = display();
+  if (auto cached = server.tryGet(frame)) {
     deliver(frame, std::move(cached), nullptr);
     return;
   }
   QPointer<VideoSource> self(this);
-  server_->request(frame, [self](std::int64_t n, std::shared_ptr<const video::DecodedFrame> f,
-                                 std::exception_ptr e) {
+  server.request(frame, [self](std::int64_t n, std::shared_ptr<const video::DecodedFrame> f,
+                               std::exception_ptr e) {
     if (!f && !e) return;  // cancelled by a newer request
     // Runs on the decode worker: hop to the UI thread before touching anything.
     QMetaObject::invokeMethod(
@@ -104,7 +189,7 @@ void VideoSource::request(std::int64_t frame) {
 }
 
 QImage VideoSource::frameNow(std::int64_t frame) {
-  return toImage(*server_->get(frame));
+  return toImage(*server_->get(frame), converter_);
 }
 
 }  // namespace stridemark::ui

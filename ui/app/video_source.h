@@ -2,6 +2,9 @@
 // The Viewer's link to core/video. Opening builds (or loads) the frame index; frames come from
 // a FrameServer whose worker thread decodes; the UI thread only converts the finished frame to
 // RGBA (about a memcpy, VIDEO-NOTES §0.9) and paints it. Requests never block the UI thread.
+// Long-GOP clips: when backward stepping would stall, an all-intra stepping proxy is built in the
+// background (ProxyBuilder) and, once verified, serves the display with the same frame numbers;
+// frameNow() (export) always reads the source.
 #include <QImage>
 #include <QObject>
 #include <QString>
@@ -15,11 +18,19 @@
 
 namespace stridemark::ui {
 
+class ProxyBuilder;
+
+struct VideoSourceOptions {
+  std::size_t budgetBytes = video::FrameServerOptions{}.budgetBytes;  // frame cache budget
+  QString proxyDir;  // where stepping proxies go; empty: the user's cache folder
+};
+
 class VideoSource : public QObject {
   Q_OBJECT
  public:
   // Throws stridemark::Error naming the file when it cannot be opened or has no video.
-  explicit VideoSource(const QString& path, QObject* parent = nullptr);
+  explicit VideoSource(const QString& path, const VideoSourceOptions& options = {},
+                       QObject* parent = nullptr);
   ~VideoSource() override;
 
   const video::VideoInfo& info() const { return info_; }
@@ -33,25 +44,54 @@ class VideoSource : public QObject {
   void request(std::int64_t frame);
   // Blocking exact read (export and tests). Throws stridemark::Error.
   QImage frameNow(std::int64_t frame);
-  video::FrameServerStats stats() const { return server_->stats(); }
+  // The display server's statistics (the proxy's once it is in use).
+  video::FrameServerStats stats() const { return display().stats(); }
+
+  // --- stepping proxy ---
+  // True when backward steps would stall at this cache budget (long keyframe intervals).
+  bool proxyAdvised() const;
+  // Starts the proxy when advised: reuses a verified one at once (proxyReady) or builds it in
+  // the background (proxyProgress ... then proxyReady or proxyFailed). False: not advised.
+  bool startProxyIfAdvised();
+  void cancelProxy();
+  bool proxyBuilding() const;
+  bool hasProxy() const { return proxyServer_ != nullptr; }
+  // Display from the proxy when there is one (default) or from the source.
+  void setStepOnProxy(bool on);
+  bool stepOnProxy() const { return stepOnProxy_; }
+  bool displayingProxy() const { return stepOnProxy_ && proxyServer_; }
+  QString proxyPath() const;
 
   static std::string signatureText(const video::VideoSignature& s);
 
  signals:
   void frameReady(qint64 frame, const QImage& image);
   void frameFailed(qint64 frame, const QString& message);
+  void proxyProgress(double fraction);
+  void proxyReady();
+  void proxyFailed(const QString& message);
 
  private:
-  QImage toImage(const video::DecodedFrame& frame);
+  video::FrameServer& display() const;
+  void useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex);
+  void switchDisplay(bool proxy);
+  static QImage toImage(const video::DecodedFrame& frame, video::FrameConverter& converter);
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
                std::exception_ptr error);
 
   QString path_;
   std::shared_ptr<const video::FrameIndex> index_;
   video::VideoInfo info_;
-  std::unique_ptr<video::FrameServer> server_;
-  video::FrameConverter converter_;  // UI thread only
-  std::int64_t wanted_ = -1;         // newest request; older answers are dropped
+  VideoSourceOptions options_;
+  std::unique_ptr<video::FrameServer> server_;       // the source: export and frameNow()
+  std::unique_ptr<video::FrameServer> proxyServer_;  // all-intra proxy, display only
+  std::unique_ptr<ProxyBuilder> builder_;
+  bool stepOnProxy_ = true;
+  // UI thread only. One per server: swscale's cached context mixes up the colour range when a
+  // converter alternates between yuv420p (source) and yuvj420p (MJPEG proxy) frames.
+  video::FrameConverter converter_;
+  video::FrameConverter proxyConverter_;
+  std::int64_t wanted_ = -1;  // newest request; older answers are dropped
 };
 
 }  // namespace stridemark::ui
