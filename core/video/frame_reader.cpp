@@ -58,21 +58,9 @@ struct FrameReader::State {
 
 namespace {
 
-std::int64_t keyOf(const PacketEntry& p, PacketKey kind) {
-  switch (kind) {
-    case PacketKey::pos:
-      return p.pos;
-    case PacketKey::dts:
-      return p.dts;
-    case PacketKey::pts:
-      return p.pts;
-    case PacketKey::count:
-      break;
-  }
-  return -1;
-}
-
-std::int64_t keyOf(const AVPacket& p, PacketKey kind) {
+// PacketEntry (the index) and AVPacket (the demuxer) name the three keys alike.
+template <typename Packet>
+std::int64_t keyOf(const Packet& p, PacketKey kind) {
   switch (kind) {
     case PacketKey::pos:
       return p.pos;

@@ -135,27 +135,18 @@ std::shared_ptr<const DecodedFrame> FrameServer::get(std::int64_t n) {
 }
 
 std::shared_ptr<const DecodedFrame> FrameServer::tryGet(std::int64_t n) {
-  index_->decodePosition(n);
-  std::vector<Ready> cancelled;
-  std::shared_ptr<const DecodedFrame> found;
-  {
-    std::lock_guard lock(mutex_);
-    moveToLocked(n);
-    if (auto it = cache_.find(n); it != cache_.end()) {
-      ++stats_.hits;
-      found = it->second;
-    } else {
-      ++stats_.misses;
-      demandLocked(n, nullptr, nullptr, cancelled);
-    }
-  }
-  wake_.notify_one();
-  deliver(cancelled);
-  return found;
+  Callback none;
+  return lookupOrDemand(n, none);
 }
 
 void FrameServer::request(std::int64_t n, Callback done) {
-  index_->decodePosition(n);
+  auto found = lookupOrDemand(n, done);
+  if (found && done) done(n, std::move(found), nullptr);
+}
+
+// The cached frame, or null after queueing a demand (which takes `done` over).
+std::shared_ptr<const DecodedFrame> FrameServer::lookupOrDemand(std::int64_t n, Callback& done) {
+  index_->decodePosition(n);  // throws Error(seek) for frames outside the clip
   std::vector<Ready> cancelled;
   std::shared_ptr<const DecodedFrame> found;
   {
@@ -171,7 +162,7 @@ void FrameServer::request(std::int64_t n, Callback done) {
   }
   wake_.notify_one();
   deliver(cancelled);
-  if (found && done) done(n, std::move(found), nullptr);
+  return found;
 }
 
 void FrameServer::moveToLocked(std::int64_t n) {

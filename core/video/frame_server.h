@@ -100,6 +100,7 @@ class FrameServer {
   };
   enum class Direction { forward, backward };
 
+  std::shared_ptr<const DecodedFrame> lookupOrDemand(std::int64_t n, Callback& done);
   // All private helpers named "...Locked" expect mutex_ to be held.
   void moveToLocked(std::int64_t n);
   void demandLocked(std::int64_t n, std::shared_ptr<Slot> slot, Callback done,
