@@ -40,6 +40,7 @@
 #include "ui/widgets/figure_view.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/help_dialogs.h"
+#include "ui/widgets/hidden_span_dialog.h"
 #include "ui/widgets/report_panels.h"
 #include "ui/widgets/stride_sheet.h"
 #include "ui/widgets/trial_card_dialog.h"
@@ -254,10 +255,12 @@ void MainWindow::buildActions() {
             [this] { lanes_->nudgeSelection(-1); });
   addAction(edit, tr("Nudge selected events later"), QKeySequence(Qt::Key_Period),
             [this] { lanes_->nudgeSelection(1); });
-  addAction(edit, tr("&Delete selected events"), QKeySequence::Delete,
+  addAction(edit, tr("&Delete selected events or hidden span"), QKeySequence::Delete,
             [this] { lanes_->deleteSelection(); });
   addAction(edit, tr("Start / end &hidden span of selected limb"), QKeySequence(tr("Ctrl+H")),
             [this] { toggleHiddenSpan(); });
+  hiddenSpanAction_ = addAction(edit, tr("Mark hidden span for &limbs…"),
+                                QKeySequence(tr("Ctrl+Shift+H")), [this] { hiddenSpanDialog(); });
   edit->addSeparator();
   addAction(edit, tr("&Trial card…"), QKeySequence(tr("Ctrl+T")), [this] { editTrialCard(); });
 
@@ -761,6 +764,27 @@ void MainWindow::toggleHiddenSpan() {
   doc_.addHiddenSpan({selectedLimb_, *hiddenStart_, playhead_});
   hiddenStart_.reset();
   statusBar()->clearMessage();
+}
+
+void MainWindow::hiddenSpanDialog() {
+  // A span started with Ctrl+H ends here; otherwise the dialog starts at the playhead.
+  const auto first = hiddenStart_.value_or(playhead_);
+  HiddenSpanDialog dialog(doc_.annotation().limbs, first, playhead_, frameCount(), selectedLimb_,
+                          this);
+  if (dialog.exec() != QDialog::Accepted) return;
+  hiddenStart_.reset();
+  markHiddenSpans(dialog.spans());
+}
+
+bool MainWindow::markHiddenSpans(const std::vector<model::HiddenSpan>& spans) {
+  if (spans.empty()) return false;
+  // Several limbs hidden at once are one edit: one undo step removes them all.
+  doc_.undoStack()->beginMacro(spans.size() == 1 ? tr("Hide a limb")
+                                                 : tr("Hide %1 limbs").arg(spans.size()));
+  for (const auto& span : spans) doc_.addHiddenSpan(span);
+  doc_.undoStack()->endMacro();
+  statusBar()->clearMessage();
+  return true;
 }
 
 void MainWindow::selectLimb(int limb) {

@@ -55,6 +55,9 @@ class MainWindow : public QMainWindow {
   std::int64_t frameCount() const;
   // What a tag key press does (Shift: the opposite kind).
   bool tagLimb(int limb, bool opposite = false);
+  // Marks these hidden spans as one undoable edit (Edit > Mark hidden span for limbs…).
+  bool markHiddenSpans(const std::vector<model::HiddenSpan>& spans);
+  QAction* hiddenSpanAction() const { return hiddenSpanAction_; }
 
   ProjectDocument* document() { return &doc_; }
   AnalysisRunner* analysisRunner() { return &runner_; }
@@ -104,6 +107,7 @@ class MainWindow : public QMainWindow {
   void changeSpeed(int direction);
   void goToDialog();
   void toggleHiddenSpan();
+  void hiddenSpanDialog();
   void selectLimb(int limb);
   void updateTitle();
   void updateStatus();
@@ -141,6 +145,7 @@ class MainWindow : public QMainWindow {
   QAction* exportAction_ = nullptr;
   QAction* darkAction_ = nullptr;
   QAction* stepOnProxyAction_ = nullptr;
+  QAction* hiddenSpanAction_ = nullptr;
   QAction* cancelProxyAction_ = nullptr;
   QProgressBar* proxyBar_ = nullptr;
   QPushButton* proxyCancel_ = nullptr;

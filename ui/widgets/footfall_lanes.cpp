@@ -27,10 +27,15 @@ FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(pa
   connect(doc_, &ProjectDocument::annotationChanged, this, [this] {
     // Drop selected events that no longer exist (undo, delete).
     std::erase_if(selection_, [this](const model::Event& e) { return !doc_->contains(e); });
+    const auto& hidden = doc_->annotation().hidden;
+    if (selectedHidden_ &&
+        std::find(hidden.begin(), hidden.end(), *selectedHidden_) == hidden.end())
+      selectedHidden_.reset();
     update();
   });
   connect(doc_, &ProjectDocument::projectReset, this, [this] {
     selection_.clear();
+    selectedHidden_.reset();
     first_ = 0;
     update();
   });
@@ -60,6 +65,14 @@ void FootfallLanes::setVisibleSpan(std::int64_t frames) {
 void FootfallLanes::setSelection(std::vector<model::Event> events) {
   selection_ = std::move(events);
   std::sort(selection_.begin(), selection_.end());
+  if (!selection_.empty()) selectedHidden_.reset();
+  emit selectionChanged();
+  update();
+}
+
+void FootfallLanes::setSelectedHiddenSpan(std::optional<model::HiddenSpan> span) {
+  selectedHidden_ = span;
+  if (span) selection_.clear();
   emit selectionChanged();
   update();
 }
@@ -80,9 +93,14 @@ bool FootfallLanes::nudgeSelection(std::int64_t delta) {
 }
 
 void FootfallLanes::deleteSelection() {
-  if (selection_.empty()) return;
-  doc_->removeEvents(selection_);
-  setSelection({});
+  if (!selection_.empty()) {
+    doc_->removeEvents(selection_);
+    setSelection({});
+  } else if (selectedHidden_) {
+    const auto span = *selectedHidden_;
+    setSelectedHiddenSpan(std::nullopt);
+    doc_->removeHiddenSpan(span);  // one undo step: "Unhide …"
+  }
 }
 
 QRectF FootfallLanes::lanesArea() const {
@@ -126,12 +144,34 @@ void FootfallLanes::paintEvent(QPaintEvent*) {
       p.drawLine(QPointF(x, l.top()), QPointF(x, l.bottom()));
     }
   }
+  paintHiddenSelection(p, style);
   figures::paintSupportStrip(p, stripArea(), a, axis(), style, kLabelWidth);
   if (hasFocus()) {
     p.setPen(QPen(style.highlight, 1, Qt::DotLine));
     p.setBrush(Qt::NoBrush);
     p.drawRect(rect().adjusted(0, 0, -1, -1));
   }
+}
+
+void FootfallLanes::paintHiddenSelection(QPainter& p, const figures::FigureStyle& style) const {
+  if (!selectedHidden_) return;
+  const auto& a = doc_->annotation();
+  if (selectedHidden_->limb >= a.limbs.size()) return;
+  const auto ax = axis();
+  const QRectF lane = figures::laneRect(lanesArea(), a.limbs.size(), selectedHidden_->limb, true);
+  const double left = std::max(ax.x(static_cast<double>(selectedHidden_->first)), kLabelWidth);
+  const double right = std::min(ax.x(static_cast<double>(selectedHidden_->last + 1)), lane.right());
+  if (right <= left) return;
+  QPen pen(style.highlight, 2, Qt::DashLine);
+  pen.setCosmetic(true);
+  p.setPen(pen);
+  p.setBrush(Qt::NoBrush);
+  p.drawRect(QRectF(left, lane.top() + 1, right - left, lane.height() - 2));
+}
+
+QPointF FootfallLanes::pointFor(int limb, std::int64_t frame) const {
+  const QRectF lane = figures::laneRect(lanesArea(), doc_->annotation().limbs.size(), limb, true);
+  return {axis().x(static_cast<double>(frame) + 0.5), lane.center().y()};
 }
 
 std::int64_t FootfallLanes::frameAt(QPointF pos) const {
@@ -161,6 +201,15 @@ std::optional<model::Event> FootfallLanes::eventAt(QPointF pos) const {
     }
   }
   return best;
+}
+
+std::optional<model::HiddenSpan> FootfallLanes::hiddenSpanAt(QPointF pos) const {
+  const int limb = laneAt(pos);
+  if (limb < 0) return std::nullopt;
+  const auto frame = frameAt(pos);
+  for (const auto& span : doc_->annotation().hidden)
+    if (span.limb == limb && frame >= span.first && frame <= span.last) return span;
+  return std::nullopt;
 }
 
 void FootfallLanes::mousePressEvent(QMouseEvent* event) {
@@ -196,6 +245,12 @@ void FootfallLanes::mousePressEvent(QMouseEvent* event) {
     return;
   }
   if (!additive) setSelection({});
+  // Inside a hidden span: select it (Delete removes it); the click still seeks.
+  if (auto span = hiddenSpanAt(pos)) {
+    setSelectedHiddenSpan(span);
+  } else if (!additive && selectedHidden_) {
+    setSelectedHiddenSpan(std::nullopt);
+  }
   const int limb = laneAt(pos);
   if (limb >= 0) {
     setSelectedLimb(limb);

@@ -1,8 +1,11 @@
 #pragma once
 // Footfall lanes: one editable lane per limb (stance bars, event ticks), the playhead and the
 // Support strip. Click or drag on a lane to seek, drag a tick to move it, Ctrl+click to select
-// several, wheel to scroll, Ctrl+wheel to zoom. Edits go through the document's commands.
+// several, wheel to scroll, Ctrl+wheel to zoom. A click inside a hidden span selects it (Delete
+// removes it). Edits go through the document's commands.
 #include <QWidget>
+
+class QPainter;
 #include <cstdint>
 #include <optional>
 #include <vector>
@@ -30,9 +33,17 @@ class FootfallLanes : public QWidget {
   int selectedLimb() const { return selectedLimb_; }
   void setSelectedLimb(int limb);
 
-  // Keyboard edits of the selection (bound to actions by the main window).
+  // A hidden span chosen by clicking inside it (exclusive with the event selection).
+  const std::optional<model::HiddenSpan>& selectedHiddenSpan() const { return selectedHidden_; }
+  void setSelectedHiddenSpan(std::optional<model::HiddenSpan> span);
+
+  // Keyboard edits of the selection (bound to actions by the main window). Delete removes the
+  // selected events, or else the selected hidden span.
   bool nudgeSelection(std::int64_t delta);
   void deleteSelection();
+
+  // Where frame `frame` of a limb's lane is drawn (middle of the lane), in widget pixels.
+  QPointF pointFor(int limb, std::int64_t frame) const;
 
   QSize sizeHint() const override { return {800, 170}; }
 
@@ -54,6 +65,8 @@ class FootfallLanes : public QWidget {
   figures::FootfallOptions options() const;
   figures::FrameAxis axis() const;
   std::optional<model::Event> eventAt(QPointF pos) const;
+  std::optional<model::HiddenSpan> hiddenSpanAt(QPointF pos) const;
+  void paintHiddenSelection(QPainter& p, const figures::FigureStyle& style) const;
   int laneAt(QPointF pos) const;
   std::int64_t frameAt(QPointF pos) const;
   void keepPlayheadVisible();
@@ -66,6 +79,7 @@ class FootfallLanes : public QWidget {
   std::int64_t playhead_ = 0;
   int selectedLimb_ = 0;
   std::vector<model::Event> selection_;
+  std::optional<model::HiddenSpan> selectedHidden_;
   enum class Drag { none, scrub, events } drag_ = Drag::none;
   std::int64_t dragOrigin_ = 0;
   std::int64_t dragDelta_ = 0;
