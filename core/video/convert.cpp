@@ -2,6 +2,9 @@
 
 #include <fstream>
 
+#include <opencv2/core.hpp>
+#include <opencv2/imgproc.hpp>
+
 #include "common/error.h"
 #include "video/libav_handles.h"
 
@@ -28,18 +31,19 @@ AVPixelFormat avFormatOf(PackedFormat format) {
   return AV_PIX_FMT_RGBA;
 }
 
-// Converts with a cached swscale context into any destination format.
+int swsFlags(ConversionQuality quality, int filter) {
+  return quality == ConversionQuality::exact ? filter | SWS_ACCURATE_RND : filter;
+}
+
+// Converts with a cached swscale context into any destination format and size.
 void scaleInto(detail::SwsContextPtr& cached, const DecodedFrame& frame, AVPixelFormat dstFormat,
-               std::uint8_t* dst, int stride) {
+               std::uint8_t* dst, int stride, int width, int height, int flags) {
   if (!dst || frame.bytes() == 0)
     throw Error(ErrorCategory::decode, "cannot convert an empty frame");
-  // Unscaled conversion: the point filter avoids any resampling of chroma beyond what the
-  // format change needs (VIDEO-NOTES §0.9: every flag costs the same here).
   // sws_getCachedContext frees the old context itself when it has to make a new one.
   cached.reset(sws_getCachedContext(cached.release(), frame.width(), frame.height(),
-                                    static_cast<AVPixelFormat>(frame.pixelFormat()), frame.width(),
-                                    frame.height(), dstFormat, SWS_POINT | SWS_ACCURATE_RND,
-                                    nullptr, nullptr, nullptr));
+                                    static_cast<AVPixelFormat>(frame.pixelFormat()), width, height,
+                                    dstFormat, flags, nullptr, nullptr, nullptr));
   if (!cached)
     throw Error(ErrorCategory::decode,
                 std::string("cannot convert pixel format ") +
@@ -60,23 +64,86 @@ int bytesPerPixel(PackedFormat format) {
 }
 
 struct FrameConverter::State {
+  ConversionQuality quality = ConversionQuality::exact;
   detail::SwsContextPtr sws;
+  detail::SwsContextPtr swsScaled;
+  cv::Mat planes[3];  // halved planes (reused between calls)
+  cv::Mat i420;       // planes at the target size, one buffer in I420 order
 };
 
-FrameConverter::FrameConverter() : state_(std::make_unique<State>()) {}
+FrameConverter::FrameConverter(ConversionQuality quality) : state_(std::make_unique<State>()) {
+  state_->quality = quality;
+}
 FrameConverter::~FrameConverter() = default;
 
 void FrameConverter::convert(const DecodedFrame& frame, PackedFormat format, std::uint8_t* dst,
                              int stride) {
-  scaleInto(state_->sws, frame, avFormatOf(format), dst, stride);
+  // Unscaled: the point filter avoids any resampling of chroma beyond what the format change
+  // needs (VIDEO-NOTES §0.9: every filter costs the same here).
+  scaleInto(state_->sws, frame, avFormatOf(format), dst, stride, frame.width(), frame.height(),
+            swsFlags(state_->quality, SWS_POINT));
+}
+
+namespace {
+
+// Resizes the three planes of an 8-bit 4:2:0 frame into `i420` (Y, then U, then V, at the
+// target size), halving by area averaging first while the scale is 1/2 or less.
+void resizePlanes(const DecodedFrame& frame, cv::Mat (&halved)[3], cv::Mat& i420, int width,
+                  int height) {
+  const auto data = frame.planes();
+  const auto& lines = frame.linesizes();
+  const int cw = (frame.width() + 1) / 2, ch = (frame.height() + 1) / 2;
+  cv::Mat source[3] = {
+      cv::Mat(frame.height(), frame.width(), CV_8UC1, const_cast<std::uint8_t*>(data[0]),
+              static_cast<std::size_t>(lines[0])),
+      cv::Mat(ch, cw, CV_8UC1, const_cast<std::uint8_t*>(data[1]),
+              static_cast<std::size_t>(lines[1])),
+      cv::Mat(ch, cw, CV_8UC1, const_cast<std::uint8_t*>(data[2]),
+              static_cast<std::size_t>(lines[2]))};
+  i420.create(height * 3 / 2, width, CV_8UC1);
+  const int quarter = (width / 2) * (height / 2);
+  cv::Mat target[3] = {i420.rowRange(0, height),
+                       cv::Mat(height / 2, width / 2, CV_8UC1, i420.ptr(height)),
+                       cv::Mat(height / 2, width / 2, CV_8UC1, i420.ptr(height) + quarter)};
+  for (int p = 0; p < 3; ++p) {
+    cv::Mat plane = source[p];
+    while (plane.cols >= 2 * target[p].cols && plane.rows >= 2 * target[p].rows) {
+      cv::Mat& half = halved[p];
+      cv::resize(plane, half, cv::Size(plane.cols / 2, plane.rows / 2), 0, 0, cv::INTER_AREA);
+      plane = half;
+    }
+    cv::resize(plane, target[p], target[p].size(), 0, 0, cv::INTER_LINEAR);
+  }
+}
+
+}  // namespace
+
+void FrameConverter::convertScaled(const DecodedFrame& frame, PackedFormat format,
+                                   std::uint8_t* dst, int stride, int width, int height) {
+  if (width == frame.width() && height == frame.height())
+    return convert(frame, format, dst, stride);
+  if (width <= 0 || height <= 0 || !dst || frame.bytes() == 0)
+    throw Error(ErrorCategory::decode, "cannot convert a frame to " + std::to_string(width) + "x" +
+                                           std::to_string(height));
+  const bool fourBytes = format == PackedFormat::bgra || format == PackedFormat::rgba;
+  if (frame.pixelFormat() == AV_PIX_FMT_YUV420P && fourBytes && width % 2 == 0 && height % 2 == 0) {
+    resizePlanes(frame, state_->planes, state_->i420, width, height);
+    cv::Mat out(height, width, CV_8UC4, dst, static_cast<std::size_t>(stride));
+    // Limited-range BT.601, as swscale's default for these frames.
+    cv::cvtColor(state_->i420, out,
+                 format == PackedFormat::bgra ? cv::COLOR_YUV2BGRA_I420 : cv::COLOR_YUV2RGBA_I420);
+    return;
+  }
+  scaleInto(state_->swsScaled, frame, avFormatOf(format), dst, stride, width, height,
+            swsFlags(state_->quality, SWS_BILINEAR));
 }
 
 void toRgba(const DecodedFrame& frame, std::uint8_t* dst, int stride) {
-  FrameConverter().convert(frame, PackedFormat::rgba, dst, stride);
+  FrameConverter(ConversionQuality::exact).convert(frame, PackedFormat::rgba, dst, stride);
 }
 
 void toBgr(const DecodedFrame& frame, std::uint8_t* dst, int stride) {
-  FrameConverter().convert(frame, PackedFormat::bgr24, dst, stride);
+  FrameConverter(ConversionQuality::exact).convert(frame, PackedFormat::bgr24, dst, stride);
 }
 
 void writePng(const DecodedFrame& frame, const std::string& path) {
@@ -104,7 +171,8 @@ void writePng(const DecodedFrame& frame, const std::string& path) {
   if (av_frame_get_buffer(rgb.get(), 0) < 0)
     throw Error(ErrorCategory::export_, "out of memory converting the frame for PNG");
   detail::SwsContextPtr sws;
-  scaleInto(sws, frame, rgbFormat, rgb->data[0], rgb->linesize[0]);
+  scaleInto(sws, frame, rgbFormat, rgb->data[0], rgb->linesize[0], frame.width(), frame.height(),
+            swsFlags(ConversionQuality::exact, SWS_POINT));
 
   detail::PacketPtr packet = detail::makePacket();
   if (avcodec_send_frame(enc.get(), rgb.get()) < 0 || avcodec_send_frame(enc.get(), nullptr) < 0 ||

@@ -12,18 +12,29 @@ namespace stridemark::video {
 
 enum class PackedFormat { rgba, bgra, rgb24, bgr24 };
 
+// exact: swscale's accurate rounding (PNG, export), the bytes `ffmpeg -sws_flags
+// neighbor+accurate_rnd` gives. fast: swscale's SIMD path, within 1-2 levels of exact and about
+// 5x quicker on 1080p (VIDEO-NOTES §0.9), for the Viewer, which converts a frame per step.
+enum class ConversionQuality { exact, fast };
+
 int bytesPerPixel(PackedFormat format);
 
 // Converts one frame into a caller-owned buffer of height rows of `stride` bytes. Holds a
 // cached swscale context, so keep one converter per thread (it is not thread-safe).
 class FrameConverter {
  public:
-  FrameConverter();
+  explicit FrameConverter(ConversionQuality quality = ConversionQuality::exact);
   ~FrameConverter();
   FrameConverter(const FrameConverter&) = delete;
   FrameConverter& operator=(const FrameConverter&) = delete;
 
   void convert(const DecodedFrame& frame, PackedFormat format, std::uint8_t* dst, int stride);
+  // Converts and resizes to width x height in one pass (bilinear; planes are first halved by
+  // area averaging while the scale is 1/2 or less, so small views do not alias). 8-bit 4:2:0
+  // frames resize their planes with OpenCV and convert once at the target size; other formats
+  // go through swscale. For a Viewer that shows the frame smaller than its pixel size.
+  void convertScaled(const DecodedFrame& frame, PackedFormat format, std::uint8_t* dst, int stride,
+                     int width, int height);
 
  private:
   struct State;

@@ -113,7 +113,7 @@ int main(int argc, char** argv) {
 
   const int width = 1920, height = 1080, stride = width * 4;
   std::vector<std::uint8_t> rgba(static_cast<std::size_t>(stride * height));
-  FrameConverter converter;
+  FrameConverter converter(ConversionQuality::fast);  // the Viewer's conversion
 
   // 2. Forward steps, interleaved with the yardstick (ABAB over the clip): A = sequential
   // decode + RGBA conversion per frame with a FrameReader (same threads), B = UI-style steps
