@@ -1,10 +1,13 @@
 // Screenshots of the main window with a scored sample in the light and dark palettes, written
 // to the build folder for people to look at, with checks that catch a blank or unthemed window.
 #include <gtest/gtest.h>
+#include <QCoreApplication>
 #include <QDir>
 #include <QImage>
+#include <QSet>
 #include <QTemporaryDir>
 
+#include "tests/support/process.h"
 #include "tests/ui/test_support.h"
 #include "ui/app/palettes.h"
 #include "ui/main_window.h"
@@ -69,6 +72,53 @@ TEST(Screenshots, MainWindowWithScoredSampleLightAndDark) {
   // The first limb's Okabe-Ito orange appears in stance bars (a scored sample is on screen).
   EXPECT_GT(pixelsNear(light, QColor(0xe6, 0x9f, 0x00), 12), 500);
   EXPECT_GT(pixelsNear(dark, QColor(0xe6, 0x9f, 0x00), 12), 500);
+}
+
+QString screenshotDir() {
+  return QStringLiteral(STRIDEMARK_BINARY_DIR) + QStringLiteral("/tests/ui/screenshots");
+}
+
+int distinctColours(const QImage& image) {
+  QSet<QRgb> colours;
+  for (int y = 0; y < image.height(); y += 3)
+    for (int x = 0; x < image.width(); x += 3) colours.insert(image.pixel(x, y));
+  return static_cast<int>(colours.size());
+}
+
+// High-DPI: QT_SCALE_FACTOR must be set before the QApplication exists, so the window is drawn
+// by a child run of this same program at device scale 2 (the child test below).
+TEST(Screenshots, MainWindowAtScaleTwoIsTwiceTheLogicalSizeAndNotBlank) {
+  const std::string self = QCoreApplication::applicationFilePath().toStdString();
+  const auto r = testsupport::runShell("QT_SCALE_FACTOR=2 " + testsupport::shellQuote(self) +
+                                       " --gtest_filter=ScreenshotsAtScale.*");
+  EXPECT_EQ(r.exitCode, 0) << r.out << r.err;
+  EXPECT_NE(r.out.find("[  PASSED  ] 1 test"), std::string::npos) << "the child did not run\n"
+                                                                  << r.out;
+  const QImage shot(screenshotDir() + QStringLiteral("/main-light-scale2.png"));
+  EXPECT_EQ(shot.size(), QSize(2880, 1800)) << "1440x900 logical pixels at scale 2";
+}
+
+// Runs only as the child of the test above (or by hand with QT_SCALE_FACTOR=1.5 to look at it).
+TEST(ScreenshotsAtScale, MainWindowAtTheEnvironmentScale) {
+  const double scale = qEnvironmentVariable("QT_SCALE_FACTOR").toDouble();
+  if (scale <= 1.0)
+    GTEST_SKIP() << "child of Screenshots.MainWindowAtScaleTwo…; needs QT_SCALE_FACTOR";
+  QTemporaryDir dir;
+  const auto clip = test::makeTrotClip(dir.path().toStdString(), 3.0);
+  const QString name = QStringLiteral("main-light-scale%1.png").arg(scale);
+  const QImage shot = shoot(Theme::light, clip.project, name);
+  ASSERT_FALSE(shot.isNull());
+  // Drawn in device pixels: scale times the 1440x900 logical window, not an upscaled copy.
+  EXPECT_EQ(shot.width(), qRound(1440 * scale));
+  EXPECT_EQ(shot.height(), qRound(900 * scale));
+  // Not blank: a themed window with a scored sample (orange stance bars of LF, many colours).
+  EXPECT_GT(pixelsNear(shot, QColor(0xe6, 0x9f, 0x00), 12), static_cast<int>(500 * scale * scale));
+  EXPECT_GT(distinctColours(shot), 200);
+  const double lightness = meanLightness(shot);
+  EXPECT_GT(lightness, 60);
+  EXPECT_LT(lightness, 250);
+  const QImage lanes(screenshotDir() + QStringLiteral("/lanes-") + name);
+  EXPECT_GT(pixelsNear(lanes, QColor(0xe6, 0x9f, 0x00), 12), static_cast<int>(200 * scale * scale));
 }
 
 }  // namespace

@@ -1,5 +1,7 @@
 #include "ui/widgets/footfall_lanes.h"
 
+#include <QEvent>
+#include <QFontMetricsF>
 #include <QMouseEvent>
 #include <QPainter>
 #include <QWheelEvent>
@@ -11,9 +13,10 @@
 namespace stridemark::ui {
 
 namespace {
-constexpr double kStripHeight = 22;
-constexpr double kLabelWidth = 44;
+constexpr double kMinStripHeight = 22;
+constexpr double kMinLabelWidth = 44;
 constexpr double kHitPixels = 5;
+constexpr double kAxisAllowance = 30;  // the time axis under the lanes (figures::laneRect)
 }  // namespace
 
 FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(parent), doc_(doc) {
@@ -22,7 +25,7 @@ FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(pa
       tr("One lane per limb: stance bars and event ticks. Click to seek, drag a tick to move "
          "it, Ctrl+click to select several, Ctrl+wheel to zoom."));
   setFocusPolicy(Qt::StrongFocus);
-  setMinimumHeight(120);
+  updateMetrics();
   setMouseTracking(false);
   connect(doc_, &ProjectDocument::annotationChanged, this, [this] {
     // Drop selected events that no longer exist (undo, delete).
@@ -34,6 +37,7 @@ FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(pa
     update();
   });
   connect(doc_, &ProjectDocument::projectReset, this, [this] {
+    updateMetrics();  // another limb set: other labels and lane count
     selection_.clear();
     selectedHidden_.reset();
     first_ = 0;
@@ -103,19 +107,46 @@ void FootfallLanes::deleteSelection() {
   }
 }
 
+void FootfallLanes::updateMetrics() {
+  // Sizes follow the label font (user font size, high-DPI), not pixel constants.
+  const auto style = figures::FigureStyle::fromPalette(palette());
+  const QFontMetricsF labels(style.font(0, true));
+  const QFontMetricsF strip(style.font(-1, true));
+  const auto& limbs = doc_->annotation().limbs;
+  double widest = 0;
+  for (int i = 0; i < limbs.size(); ++i)
+    widest = std::max(widest, labels.horizontalAdvance(QString::fromStdString(limbs.label(i))));
+  labelWidth_ = std::max(kMinLabelWidth, std::ceil(widest + 14));
+  stripHeight_ = std::max(kMinStripHeight, std::ceil(strip.height() + 8));
+  const double laneHeight = std::ceil(labels.height() + 6);
+  setMinimumHeight(
+      static_cast<int>(laneHeight * std::max(1, limbs.size()) + kAxisAllowance + stripHeight_));
+  updateGeometry();
+}
+
+void FootfallLanes::changeEvent(QEvent* event) {
+  if (event->type() == QEvent::FontChange || event->type() == QEvent::PaletteChange)
+    updateMetrics();
+  QWidget::changeEvent(event);
+}
+
+QSize FootfallLanes::sizeHint() const {
+  return {800, std::max(170, minimumHeight() + 20)};
+}
+
 QRectF FootfallLanes::lanesArea() const {
-  return QRectF(0, 0, width(), height() - kStripHeight);
+  return QRectF(0, 0, width(), height() - stripHeight_);
 }
 
 QRectF FootfallLanes::stripArea() const {
-  return QRectF(0, height() - kStripHeight, width(), kStripHeight);
+  return QRectF(0, height() - stripHeight_, width(), stripHeight_);
 }
 
 figures::FootfallOptions FootfallLanes::options() const {
   figures::FootfallOptions o;
   o.viewFirst = first_;
   o.viewLast = first_ + span_ - 1;
-  o.labelWidth = kLabelWidth;
+  o.labelWidth = labelWidth_;
   o.playhead = playhead_;
   o.selected = selection_;
   return o;
@@ -130,11 +161,16 @@ void FootfallLanes::paintEvent(QPaintEvent*) {
   const auto style = figures::FigureStyle::fromPalette(palette());
   const auto& a = doc_->annotation();
   figures::paintFootfallDiagram(p, lanesArea(), a, options(), style);
-  // The selected limb's label is underlined so the keyboard target is visible.
+  // The selected limb's label is underlined so the keyboard target is visible: just under the
+  // (vertically centred) text, from font metrics, so it never crosses the glyphs.
   const QRectF lane = figures::laneRect(lanesArea(), a.limbs.size(), selectedLimb_, true);
-  p.setPen(QPen(style.highlight, 2));
-  p.drawLine(QPointF(lane.left() + 3, lane.bottom() - 3),
-             QPointF(lane.left() + kLabelWidth - 6, lane.bottom() - 3));
+  const QFontMetricsF fm(style.font(0, true));
+  const double underline = std::min(lane.center().y() + fm.height() / 2 + 1, lane.bottom() - 1);
+  QPen mark(style.highlight, 2);
+  mark.setCapStyle(Qt::FlatCap);
+  p.setPen(mark);
+  p.drawLine(QPointF(lane.left() + 4, underline),
+             QPointF(lane.left() + labelWidth_ - 6, underline));
   if (drag_ == Drag::events && dragDelta_ != 0) {
     const auto ax = axis();
     p.setPen(QPen(style.highlight, 2, Qt::DashLine));
@@ -145,7 +181,7 @@ void FootfallLanes::paintEvent(QPaintEvent*) {
     }
   }
   paintHiddenSelection(p, style);
-  figures::paintSupportStrip(p, stripArea(), a, axis(), style, kLabelWidth);
+  figures::paintSupportStrip(p, stripArea(), a, axis(), style, labelWidth_);
   if (hasFocus()) {
     p.setPen(QPen(style.highlight, 1, Qt::DotLine));
     p.setBrush(Qt::NoBrush);
@@ -159,7 +195,7 @@ void FootfallLanes::paintHiddenSelection(QPainter& p, const figures::FigureStyle
   if (selectedHidden_->limb >= a.limbs.size()) return;
   const auto ax = axis();
   const QRectF lane = figures::laneRect(lanesArea(), a.limbs.size(), selectedHidden_->limb, true);
-  const double left = std::max(ax.x(static_cast<double>(selectedHidden_->first)), kLabelWidth);
+  const double left = std::max(ax.x(static_cast<double>(selectedHidden_->first)), labelWidth_);
   const double right = std::min(ax.x(static_cast<double>(selectedHidden_->last + 1)), lane.right());
   if (right <= left) return;
   QPen pen(style.highlight, 2, Qt::DashLine);
@@ -215,7 +251,7 @@ std::optional<model::HiddenSpan> FootfallLanes::hiddenSpanAt(QPointF pos) const 
 void FootfallLanes::mousePressEvent(QMouseEvent* event) {
   if (event->button() != Qt::LeftButton) return;
   const QPointF pos = event->position();
-  if (pos.x() < kLabelWidth) {
+  if (pos.x() < labelWidth_) {
     const int limb = laneAt(pos);
     if (limb >= 0) {
       setSelectedLimb(limb);

@@ -45,7 +45,7 @@ class FootfallLanes : public QWidget {
   // Where frame `frame` of a limb's lane is drawn (middle of the lane), in widget pixels.
   QPointF pointFor(int limb, std::int64_t frame) const;
 
-  QSize sizeHint() const override { return {800, 170}; }
+  QSize sizeHint() const override;
 
  signals:
   void seekRequested(qint64 frame);
@@ -54,12 +54,14 @@ class FootfallLanes : public QWidget {
 
  protected:
   void paintEvent(QPaintEvent* event) override;
+  void changeEvent(QEvent* event) override;
   void mousePressEvent(QMouseEvent* event) override;
   void mouseMoveEvent(QMouseEvent* event) override;
   void mouseReleaseEvent(QMouseEvent* event) override;
   void wheelEvent(QWheelEvent* event) override;
 
  private:
+  void updateMetrics();
   QRectF lanesArea() const;
   QRectF stripArea() const;
   figures::FootfallOptions options() const;
@@ -73,6 +75,8 @@ class FootfallLanes : public QWidget {
   void clampView();
 
   ProjectDocument* doc_;
+  double labelWidth_ = 44;   // from the label font (updateMetrics)
+  double stripHeight_ = 22;  // from the strip font
   std::int64_t first_ = 0;
   std::int64_t span_ = 480;
   std::int64_t frameCount_ = 0;
