@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <span>
 
 #include "analysis/bouts.h"
 #include "analysis/circular.h"
@@ -69,7 +70,7 @@ bool touchesFlag(const std::vector<FlaggedSpan>& flags, std::int64_t first, std:
 // strides look up nearby frames, so a lookup costs O(log distance) and stays in cache instead of
 // a cold O(log n) binary search over the whole track.
 template <typename Item, typename Key>
-std::size_t lowerBoundNear(const std::vector<Item>& items, std::size_t hint, std::int64_t value,
+std::size_t lowerBoundNear(std::span<const Item> items, std::size_t hint, std::int64_t value,
                            Key key) {
   const std::size_t n = items.size();
   hint = std::min(hint, n);
@@ -108,16 +109,14 @@ class TrackCursor {
  public:
   explicit TrackCursor(const LimbTrack& track) : track_(&track) {}
 
-  const std::vector<std::int64_t>& touchdowns() const { return track_->touchdowns; }
-
-  // Same result as phaseInWindow(touchdowns(), start, end).
+  // Same result as phaseInWindow(track.touchdowns, start, end).
   WindowPhase phaseIn(std::int64_t start, std::int64_t end) {
     WindowPhase out;
     if (end <= start) return out;
     const auto& td = track_->touchdowns;
     const auto frame = [](std::int64_t f) { return f; };
-    const std::size_t first = lowerBoundNear(td, touchdownHint_, start, frame);
-    const std::size_t last = lowerBoundNear(td, first, end, frame);
+    const std::size_t first = lowerBoundNear<std::int64_t>(td, touchdownHint_, start, frame);
+    const std::size_t last = lowerBoundNear<std::int64_t>(td, first, end, frame);
     touchdownHint_ = first;
     out.touchdowns = static_cast<int>(last - first);
     if (out.touchdowns > 0) out.first = td[first];
@@ -125,11 +124,24 @@ class TrackCursor {
     return out;
   }
 
+  // Same result as nearestTouchdown(track.touchdowns, frame).
+  std::optional<std::int64_t> nearest(std::int64_t frame) {
+    const auto& td = track_->touchdowns;
+    if (td.empty()) return std::nullopt;
+    const std::size_t after =
+        lowerBoundNear<std::int64_t>(td, nearestHint_, frame, [](std::int64_t f) { return f; });
+    nearestHint_ = after;
+    if (after == 0) return td[0];
+    const std::int64_t before = td[after - 1];
+    if (after == td.size()) return before;
+    return (frame - before) <= (td[after] - frame) ? before : td[after];
+  }
+
   // Same result as cycleStartingAt(track, touchdown).
   const LimbCycle* cycleAt(std::int64_t touchdown) {
     const auto& cycles = track_->cycles;
-    const std::size_t i = lowerBoundNear(cycles, cycleHint_, touchdown,
-                                         [](const LimbCycle& c) { return c.touchdown; });
+    const std::size_t i = lowerBoundNear<LimbCycle>(cycles, cycleHint_, touchdown,
+                                                    [](const LimbCycle& c) { return c.touchdown; });
     cycleHint_ = i;
     if (i == cycles.size() || cycles[i].touchdown != touchdown) return nullptr;
     return &cycles[i];
@@ -139,6 +151,7 @@ class TrackCursor {
   const LimbTrack* track_;
   std::size_t touchdownHint_ = 0;
   std::size_t cycleHint_ = 0;
+  std::size_t nearestHint_ = 0;
 };
 
 class StrideBuilder {
@@ -183,18 +196,24 @@ class StrideBuilder {
  private:
   TrackCursor& cursor(int limb) { return cursors_[static_cast<std::size_t>(limb)]; }
 
+  // Also remembers each limb's first touchdown in the window and the cycle it starts, which the
+  // pair phases and the diagonal placement below look up again.
   void fillLimbs(StrideRecord& s) {
     const std::size_t n = static_cast<std::size_t>(limbs_.size());
     s.phase.assign(n, std::nullopt);
     s.dutyFactor.assign(n, std::nullopt);
     s.touchdownCount.assign(n, 0);
+    firsts_.assign(n, std::nullopt);
+    firstCycles_.assign(n, nullptr);
     for (int limb = 0; limb < limbs_.size(); ++limb) {
       const auto i = static_cast<std::size_t>(limb);
       const WindowPhase wp = cursor(limb).phaseIn(s.startFrame, s.endFrame);
       s.touchdownCount[i] = wp.touchdowns;
       s.phase[i] = wp.phase;
+      firsts_[i] = wp.first;
       if (!wp.first) continue;
       const LimbCycle* cycle = cursor(limb).cycleAt(*wp.first);
+      firstCycles_[i] = cycle;
       if (cycle && cycle->liftoff)
         s.dutyFactor[i] = static_cast<double>(*cycle->stanceFrames()) /
                           static_cast<double>(cycle->strideFrames());
@@ -204,13 +223,10 @@ class StrideBuilder {
   // Phase of `target` in the cycle of `base` that starts first in the stride; falls back to the
   // difference of their phases in the reference stride when that cycle is not usable.
   std::optional<double> pairPhase(const StrideRecord& s, int base, int target) {
-    const WindowPhase first = cursor(base).phaseIn(s.startFrame, s.endFrame);
-    if (first.first) {
-      if (const LimbCycle* c = cursor(base).cycleAt(*first.first)) {
-        const WindowPhase wp = cursor(target).phaseIn(c->touchdown, c->nextTouchdown);
-        if (wp.phase) return wp.phase;
-        if (wp.ambiguous()) return std::nullopt;
-      }
+    if (const LimbCycle* c = firstCycles_[static_cast<std::size_t>(base)]) {
+      const WindowPhase wp = cursor(target).phaseIn(c->touchdown, c->nextTouchdown);
+      if (wp.phase) return wp.phase;
+      if (wp.ambiguous()) return std::nullopt;
     }
     const auto& pb = s.phase[static_cast<std::size_t>(base)];
     const auto& pt = s.phase[static_cast<std::size_t>(target)];
@@ -265,12 +281,11 @@ class StrideBuilder {
     double ms = 0, percent = 0;
     int n = 0;
     for (const auto& [hind, fore] : diagonals) {
-      const WindowPhase h = cursor(hind).phaseIn(s.startFrame, s.endFrame);
-      if (!h.first) continue;
-      const auto f = nearestTouchdown(cursor(fore).touchdowns(), *h.first);
+      const std::optional<std::int64_t>& h = firsts_[static_cast<std::size_t>(hind)];
+      if (!h) continue;
+      const auto f = cursor(fore).nearest(*h);
       if (!f) continue;
-      const AdvancedPlacement dap =
-          advancedPlacement(*h.first, *f, s.endFrame - s.startFrame, fps_);
+      const AdvancedPlacement dap = advancedPlacement(*h, *f, s.endFrame - s.startFrame, fps_);
       ms += dap.ms;
       percent += dap.percent;
       ++n;
@@ -320,6 +335,9 @@ class StrideBuilder {
   const AnalysisOptions& options_;
   SupportTimeline& timeline_;
   std::vector<TrackCursor> cursors_;  // per limb
+  // Per limb, for the stride being built: first touchdown in the window and the cycle it starts.
+  std::vector<std::optional<std::int64_t>> firsts_;
+  std::vector<const LimbCycle*> firstCycles_;
 };
 
 // Reference strides (those touching an annotation problem are left out) and support shares.
@@ -329,8 +347,7 @@ void buildStrides(const model::Annotation& annotation, const AnalysisOptions& op
   const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
   StrideBuilder builder(annotation, options, scan, timeline);
   const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles;
-  report.strides.reserve(referenceCycles.size());
-  adviseHugePages(report.strides);
+  reserveHuge(report.strides, referenceCycles.size());
   for (const LimbCycle& cycle : referenceCycles) {
     if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
     builder.build(cycle, report.strides.emplace_back());
@@ -354,15 +371,8 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   buildStrides(annotation, options, scan, report);
   // Cycles move into the report once strides and support no longer need the tracks.
-  std::size_t cycleCount = 0;
-  for (const LimbTrack& t : scan.tracks) cycleCount += t.cycles.size();
-  report.cycles.reserve(cycleCount);
-  adviseHugePages(report.cycles);
-  for (LimbTrack& t : scan.tracks) {
-    t.known = {};
-    report.cycles.insert(report.cycles.end(), t.cycles.begin(), t.cycles.end());
-    t.cycles = {};
-  }
+  scan.tracks.clear();
+  report.cycles = std::move(scan.cycles);
 
   report.phase = summarisePhases(report.strides, annotation.limbs.size());
   if (annotation.limbs.kind() == model::LimbSetKind::quadruped)

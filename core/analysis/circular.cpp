@@ -40,14 +40,22 @@ double meanResultantLength(std::span<const double> samples, double high, double 
   return std::min(1.0, resultant(samples, high, low).r());
 }
 
-double circularMean(std::span<const double> samples, double high, double low) {
-  const Resultant res = resultant(samples, high, low);
-  if (samples.empty() || res.r() < kZeroR) return std::numeric_limits<double>::quiet_NaN();
+namespace {
+
+// Mean direction of a resultant on a period (NaN when R is numerically 0).
+double meanOf(const Resultant& res, bool empty, double high, double low) {
+  if (empty || res.r() < kZeroR) return std::numeric_limits<double>::quiet_NaN();
   double angle = std::atan2(res.s, res.c);
   if (angle < 0) angle += kTwoPi;
   double value = low + angle * (high - low) / kTwoPi;
   if (value >= high) value = low;
   return value;
+}
+
+}  // namespace
+
+double circularMean(std::span<const double> samples, double high, double low) {
+  return meanOf(resultant(samples, high, low), samples.empty(), high, low);
 }
 
 double circularSd(std::span<const double> samples, double high, double low) {
@@ -79,7 +87,8 @@ CircularStats circularStats(std::span<const double> phases) {
   out.r = std::min(1.0, res.r());
   out.defined = out.r >= kZeroR;
   if (!out.defined) out.r = 0.0;
-  out.mean = out.defined ? circularMean(phases, 1.0) : std::numeric_limits<double>::quiet_NaN();
+  // One pass of cos/sin serves R and the mean (10^5 strides: the trigonometry is the cost).
+  out.mean = out.defined ? meanOf(res, false, 1.0, 0.0) : std::numeric_limits<double>::quiet_NaN();
   out.circVar = 1.0 - out.r;
   out.circSd = out.defined ? std::sqrt(-2.0 * std::log(out.r)) / kTwoPi
                            : std::numeric_limits<double>::infinity();

@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <string>
 
+#include "analysis/huge_pages.h"
+
 namespace stridemark::analysis {
 namespace {
 
@@ -58,7 +60,7 @@ bool overlapsHidden(const std::vector<StateInterval>& hidden, std::int64_t first
 
 // Appends [first, end) minus the hidden intervals to `out`.
 void appendVisible(const std::vector<StateInterval>& hidden, StateInterval interval,
-                   std::vector<StateInterval>& out) {
+                   HugeVector<StateInterval>& out) {
   auto it = std::upper_bound(hidden.begin(), hidden.end(), interval.first,
                              [](std::int64_t f, const StateInterval& s) { return f < s.end; });
   std::int64_t cursor = interval.first;
@@ -71,12 +73,13 @@ void appendVisible(const std::vector<StateInterval>& hidden, StateInterval inter
 
 class LimbScanner {
  public:
-  LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems)
-      : annotation_(annotation), limb_(limb), problems_(problems) {
+  LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems,
+              std::vector<LimbCycle>& cycles)
+      : annotation_(annotation), limb_(limb), problems_(problems), cycles_(cycles) {
     hidden_ = hiddenIntervals(annotation, limb, problems);
   }
 
-  LimbTrack scan(std::vector<Tag> tags) {
+  LimbTrack scan(HugeVector<Tag> tags) {
     const auto byFrameThenKind = [](const Tag& a, const Tag& b) {
       return a.frame != b.frame ? a.frame < b.frame : a.kind < b.kind;
     };
@@ -85,10 +88,9 @@ class LimbScanner {
       std::sort(tags.begin(), tags.end(), byFrameThenKind);
     dropUnusable(tags);
     orderSameFrame(tags);
-    track_.known.reserve(tags.size() + 2 * hidden_.size());
-    track_.touchdowns.reserve(tags.size() / 2 + 1);
-    track_.cycles.reserve(tags.size() / 2 + 1);
-    const std::vector<PairStatus> status = checkPairs(tags);
+    reserveHuge(track_.known, tags.size() + 2 * hidden_.size());
+    reserveHuge(track_.touchdowns, tags.size() / 2 + 1);
+    const HugeVector<PairStatus> status = checkPairs(tags);
     buildCycles(tags, status);
     for (const Tag& t : tags)
       if (t.kind == EventKind::touchdown) track_.touchdowns.push_back(t.frame);
@@ -107,7 +109,7 @@ class LimbScanner {
 
   // Duplicates, tags outside the clip and tags inside hidden spans are reported and ignored.
   // Filters in place: long annotations should not pay for a second copy.
-  void dropUnusable(std::vector<Tag>& tags) {
+  void dropUnusable(HugeVector<Tag>& tags) {
     std::size_t kept = 0;
     const auto& clip = annotation_.clip;
     for (std::size_t i = 0; i < tags.size(); ++i) {
@@ -136,7 +138,7 @@ class LimbScanner {
 
   // A touchdown and a lift-off on one frame: read them in the order the state implies (a limb
   // in stance lifts off first), so the zero-length phase is the one reported.
-  static void orderSameFrame(std::vector<Tag>& tags) {
+  static void orderSameFrame(HugeVector<Tag>& tags) {
     for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
       if (tags[i].frame != tags[i + 1].frame) continue;
       const bool inStance = i > 0 && tags[i - 1].kind == EventKind::touchdown;
@@ -144,8 +146,8 @@ class LimbScanner {
     }
   }
 
-  std::vector<PairStatus> checkPairs(const std::vector<Tag>& tags) {
-    std::vector<PairStatus> status(tags.size() > 0 ? tags.size() - 1 : 0, PairStatus::ok);
+  HugeVector<PairStatus> checkPairs(const HugeVector<Tag>& tags) {
+    HugeVector<PairStatus> status(tags.size() > 0 ? tags.size() - 1 : 0, PairStatus::ok);
     for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
       const Tag& a = tags[i];
       const Tag& b = tags[i + 1];
@@ -199,7 +201,7 @@ class LimbScanner {
     if (last->end < b.frame) track_.known.push_back({last->end, b.frame, !stanceAfterA});
   }
 
-  void buildCycles(const std::vector<Tag>& tags, const std::vector<PairStatus>& status) {
+  void buildCycles(const HugeVector<Tag>& tags, const HugeVector<PairStatus>& status) {
     std::size_t next = 0;
     for (std::size_t i = 0; i < tags.size(); ++i) {
       if (tags[i].kind != EventKind::touchdown) continue;
@@ -213,13 +215,14 @@ class LimbScanner {
       LimbCycle cycle{limb_, tags[i].frame, std::nullopt, tags[next].frame};
       if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
         cycle.liftoff = tags[i + 1].frame;
-      track_.cycles.push_back(cycle);
+      cycles_.push_back(cycle);
     }
   }
 
   const model::Annotation& annotation_;
   int limb_;
   std::vector<Problem>& problems_;
+  std::vector<LimbCycle>& cycles_;  // shared by all limbs; this limb's are appended
   std::vector<StateInterval> hidden_;
   LimbTrack track_;
 };
@@ -229,11 +232,11 @@ class LimbScanner {
 CycleScan scanCycles(const model::Annotation& annotation) {
   CycleScan scan;
   const int limbCount = annotation.limbs.size();
-  std::vector<std::vector<Tag>> tags(static_cast<std::size_t>(limbCount));
+  std::vector<HugeVector<Tag>> tags(static_cast<std::size_t>(limbCount));
   std::vector<std::size_t> perLimb(static_cast<std::size_t>(limbCount), 0);
   for (const model::Event& e : annotation.events)
     if (e.limb >= 0 && e.limb < limbCount) ++perLimb[static_cast<std::size_t>(e.limb)];
-  for (std::size_t i = 0; i < tags.size(); ++i) tags[i].reserve(perLimb[i]);
+  for (std::size_t i = 0; i < tags.size(); ++i) reserveHuge(tags[i], perLimb[i]);
   for (const model::Event& e : annotation.events) {
     if (e.limb < 0 || e.limb >= limbCount) {
       scan.problems.push_back({e.frame, std::nullopt,
@@ -256,10 +259,19 @@ CycleScan scanCycles(const model::Annotation& annotation) {
                                  "ignored"});
   }
   scan.tracks.reserve(tags.size());
+  std::size_t cycleRoom = 0;
+  for (const std::size_t n : perLimb) cycleRoom += n / 2 + 1;
+  reserveHuge(scan.cycles, cycleRoom);
+  std::vector<std::size_t> firstCycle;
   for (int limb = 0; limb < limbCount; ++limb) {
-    LimbScanner scanner(annotation, limb, scan.problems);
+    firstCycle.push_back(scan.cycles.size());
+    LimbScanner scanner(annotation, limb, scan.problems, scan.cycles);
     scan.tracks.push_back(scanner.scan(std::move(tags[static_cast<std::size_t>(limb)])));
   }
+  firstCycle.push_back(scan.cycles.size());
+  for (std::size_t i = 0; i < scan.tracks.size(); ++i)  // now that scan.cycles stays put
+    scan.tracks[i].cycles = std::span<const LimbCycle>(scan.cycles.data() + firstCycle[i],
+                                                       firstCycle[i + 1] - firstCycle[i]);
   std::stable_sort(scan.problems.begin(), scan.problems.end(),
                    [](const Problem& a, const Problem& b) {
                      if (a.frame != b.frame) return a.frame < b.frame;

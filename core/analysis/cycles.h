@@ -3,8 +3,10 @@
 // (METHODS.md §1.1, §1.3). Problems never abort: each is reported with frame, limb and what to
 // do, and the frames it touches are listed so strides over them can be left out.
 #include <cstdint>
+#include <span>
 #include <vector>
 
+#include "analysis/huge_pages.h"
 #include "analysis/report.h"
 #include "model/annotation.h"
 
@@ -24,14 +26,17 @@ struct FlaggedSpan {
 };
 
 struct LimbTrack {
-  std::vector<std::int64_t> touchdowns;  // every usable touchdown, ascending
-  std::vector<LimbCycle> cycles;         // complete cycles without problems, ascending
-  std::vector<StateInterval> known;      // where the limb's state is known, ascending, disjoint
-  std::vector<FlaggedSpan> flagged;      // ascending by first
+  HugeVector<std::int64_t> touchdowns;  // every usable touchdown, ascending
+  std::span<const LimbCycle> cycles;    // complete cycles without problems, ascending
+  HugeVector<StateInterval> known;      // where the limb's state is known, ascending, disjoint
+  std::vector<FlaggedSpan> flagged;     // ascending by first
 };
 
 struct CycleScan {
   std::vector<LimbTrack> tracks;  // indexed by limb
+  // Every limb's cycles, limb after limb (the tracks' cycles point into it): built in place,
+  // it becomes Report::cycles without a copy.
+  std::vector<LimbCycle> cycles;
   std::vector<Problem> problems;  // ordered by frame, then limb
 };
 

@@ -10,11 +10,11 @@ namespace stridemark::analysis {
 
 void adviseHugePages(void* data, std::size_t bytes) {
 #if defined(MADV_HUGEPAGE)
-  constexpr std::uintptr_t kHugePage = std::uintptr_t{2} << 20;
-  if (data == nullptr || bytes < 2 * kHugePage) return;  // too small to hold a whole huge page
+  constexpr std::uintptr_t kPage = kHugePage;
+  if (data == nullptr || bytes < kPage) return;  // too small to hold a whole huge page
   const auto begin = reinterpret_cast<std::uintptr_t>(data);
-  const std::uintptr_t first = (begin + kHugePage - 1) & ~(kHugePage - 1);
-  const std::uintptr_t last = (begin + bytes) & ~(kHugePage - 1);
+  const std::uintptr_t first = (begin + kPage - 1) & ~(kPage - 1);
+  const std::uintptr_t last = (begin + bytes) & ~(kPage - 1);
   if (last <= first) return;
   // Failure only means 4 KiB pages: the hint is dropped on purpose.
   static_cast<void>(::madvise(reinterpret_cast<void*>(first), last - first, MADV_HUGEPAGE));

@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/limb_values.h"
 #include "common/rational.h"
 #include "model/limb_set.h"
 
@@ -51,8 +52,8 @@ struct StrideRecord {
   std::int64_t startFrame = 0;  // reference touchdown k
   std::int64_t endFrame = 0;    // reference touchdown k + 1
   double durationS = 0;
-  std::vector<std::optional<double>> dutyFactor;  // per limb: its cycle that starts in the window
-  std::vector<std::optional<double>> phase;       // per limb, [0, 1); reference limb = 0
+  LimbValues<std::optional<double>> dutyFactor;  // per limb: its cycle that starts in the window
+  LimbValues<std::optional<double>> phase;       // per limb, [0, 1); reference limb = 0
   std::string gait = "unclassified";
   std::optional<std::string> band;      // Hildebrand band (symmetrical quadruped strides)
   std::optional<std::string> quadrant;  // Cartmill et al. 2002 quadrant (LSLC, LSDC, DSDC, DSLC)
@@ -75,7 +76,7 @@ struct StrideRecord {
   // Added by analysis: touchdowns of each limb inside the window (phase is null unless 1; more
   // than 1 flags a stride mismatch or stumble), the template gait's mean circular distance, and
   // the asymmetrical lags of METHODS §3.2 (fore, hind, pair; cycles).
-  std::vector<int> touchdownCount;
+  LimbValues<int> touchdownCount;
   std::optional<double> templateDistance;
   std::optional<double> foreLag, hindLag, pairLag;
 };

@@ -5,6 +5,7 @@
 
 #include "analysis/circular.h"
 #include "analysis/hildebrand.h"
+#include "analysis/huge_pages.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
 #include "analysis/symmetry.h"
@@ -13,12 +14,12 @@ namespace stridemark::analysis {
 
 std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
   std::vector<LimbSummary> out;
-  std::vector<double> stride, stance, swing, duty;
+  HugeVector<double> stride, stance, swing, duty;
   for (const LimbTrack& track : tracks) {
-    stride.clear();
-    stance.clear();
-    swing.clear();
-    duty.clear();
+    for (HugeVector<double>* values : {&stride, &stance, &swing, &duty}) {
+      values->clear();
+      values->reserve(track.cycles.size());
+    }
     for (const LimbCycle& c : track.cycles) {
       stride.push_back(framesToSeconds(c.strideFrames(), fps));
       if (!c.liftoff) continue;
@@ -41,14 +42,14 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
 std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strides, int limbCount) {
   std::vector<PhaseSummary> out;
   // One pass over the (large) stride records gathers every limb's phases.
-  std::vector<std::vector<double>> phases(static_cast<std::size_t>(std::max(limbCount, 0)));
+  std::vector<HugeVector<double>> phases(static_cast<std::size_t>(std::max(limbCount, 0)));
   for (auto& limbPhases : phases) limbPhases.reserve(strides.size());
   for (const StrideRecord& s : strides) {
     const std::size_t n = std::min(phases.size(), s.phase.size());
     for (std::size_t i = 0; i < n; ++i)
       if (s.phase[i]) phases[i].push_back(*s.phase[i]);
   }
-  for (const std::vector<double>& limbPhases : phases) {
+  for (const HugeVector<double>& limbPhases : phases) {
     const CircularStats c = circularStats(limbPhases);
     PhaseSummary p;
     p.n = c.n;

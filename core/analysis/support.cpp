@@ -59,6 +59,14 @@ void SupportTimeline::restart() {
   started_ = false;
   producedTo_ = 0;
   buffer_.clear();
+  resetTally(overall_);
+}
+
+void SupportTimeline::resetTally(Tally& tally) const {
+  tally.shares = SupportShares{};
+  tally.shares.byCount.assign(static_cast<std::size_t>(limbs_.size()) + 1, 0.0);
+  tally.covered = 0;
+  tally.byMask.clear();
 }
 
 bool SupportTimeline::produce() {
@@ -94,6 +102,7 @@ bool SupportTimeline::produce() {
     if (hadSegment) {
       buffer_.push_back(previous);
       producedTo_ = previous.end;
+      accumulate(previous, previous.first, previous.end, overall_);
       return true;
     }
   }
@@ -101,32 +110,35 @@ bool SupportTimeline::produce() {
 }
 
 void SupportTimeline::accumulate(const Segment& s, std::int64_t first, std::int64_t end,
-                                 SupportShares& out, std::int64_t& covered) {
+                                 Tally& tally) const {
   const std::int64_t frames = std::min(end, s.end) - std::max(first, s.first);
   if (frames <= 0 || !s.known) return;
-  covered += frames;
-  out.byCount[static_cast<std::size_t>(s.count)] += static_cast<double>(frames);
-  if (s.count == 0) out.aerial = true;
+  tally.covered += frames;
+  tally.shares.byCount[static_cast<std::size_t>(s.count)] += static_cast<double>(frames);
+  if (s.count == 0) tally.shares.aerial = true;
   if (!named_) return;
-  auto slot = std::find_if(scratch_.begin(), scratch_.end(),
+  auto slot = std::find_if(tally.byMask.begin(), tally.byMask.end(),
                            [&](const auto& e) { return e.first == s.mask; });
-  if (slot == scratch_.end()) {
-    scratch_.push_back({s.mask, frames});
+  if (slot == tally.byMask.end()) {
+    tally.byMask.push_back({s.mask, frames});
   } else {
     slot->second += frames;
   }
 }
 
-void SupportTimeline::finish(SupportShares& out, std::int64_t covered, bool combinations) {
+SupportShares SupportTimeline::finish(Tally& tally, bool combinations) {
+  SupportShares out = std::move(tally.shares);
+  const std::int64_t covered = tally.covered;
   out.knownFrames = covered;
   if (covered == 0) {
     out.byCount.clear();
-    return;
+    return out;
   }
   for (double& share : out.byCount) share /= static_cast<double>(covered);
-  if (!combinations) return;
-  for (const auto& [m, frames] : scratch_)
+  if (!combinations) return out;
+  for (const auto& [m, frames] : tally.byMask)
     out.byCombination[nameOf(m)] += static_cast<double>(frames) / static_cast<double>(covered);
+  return out;
 }
 
 const std::string& SupportTimeline::nameOf(std::uint64_t mask) {
@@ -145,28 +157,17 @@ SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end, bool
   while ((buffer_.empty() || buffer_.back().end < end) && produce()) {
     if (buffer_.size() == 1 && buffer_.front().end <= first) buffer_.clear();
   }
-  SupportShares out;
-  out.byCount.assign(static_cast<std::size_t>(limbs_.size()) + 1, 0.0);
-  scratch_.clear();
-  std::int64_t covered = 0;
-  for (const Segment& s : buffer_) accumulate(s, first, end, out, covered);
-  out.complete = covered == end - first;
-  finish(out, covered, combinations);
+  resetTally(window_);
+  for (const Segment& s : buffer_) accumulate(s, first, end, window_);
+  const bool complete = window_.covered == end - first;
+  SupportShares out = finish(window_, combinations);
+  out.complete = complete;
   return out;
 }
 
 SupportShares SupportTimeline::overall() {
-  restart();
-  SupportShares out;
-  out.byCount.assign(static_cast<std::size_t>(limbs_.size()) + 1, 0.0);
-  scratch_.clear();
-  std::int64_t covered = 0;
-  while (produce()) {
-    const Segment s = buffer_.back();
-    buffer_.clear();
-    accumulate(s, s.first, s.end, out, covered);
-  }
-  finish(out, covered);
+  while (produce()) buffer_.clear();  // the rest of the sweep; earlier segments are counted
+  SupportShares out = finish(overall_);
   restart();
   return out;
 }

@@ -40,7 +40,8 @@ class SupportTimeline {
   // earlier window restarts the sweep.
   // Without `combinations` only byCount, complete and aerial are filled (cheaper).
   SupportShares window(std::int64_t first, std::int64_t end, bool combinations = true);
-  // Shares over every frame where all limbs' states are known (one full sweep).
+  // Shares over every frame where all limbs' states are known. Windows already swept in order
+  // are not swept again: every produced segment is also counted for this total.
   SupportShares overall();
 
  private:
@@ -59,9 +60,15 @@ class SupportTimeline {
 
   void restart();
   bool produce();  // appends the next segment to buffer_; false at the end
-  void accumulate(const Segment& s, std::int64_t first, std::int64_t end, SupportShares& out,
-                  std::int64_t& covered);
-  void finish(SupportShares& out, std::int64_t covered, bool combinations = true);
+  // Running shares of one range: frames per count, per combination (in order of appearance).
+  struct Tally {
+    SupportShares shares;
+    std::int64_t covered = 0;
+    std::vector<std::pair<std::uint64_t, std::int64_t>> byMask;
+  };
+  void resetTally(Tally& tally) const;
+  void accumulate(const Segment& s, std::int64_t first, std::int64_t end, Tally& tally) const;
+  SupportShares finish(Tally& tally, bool combinations = true);
   const std::string& nameOf(std::uint64_t mask);
 
   model::LimbSet limbs_;
@@ -77,7 +84,8 @@ class SupportTimeline {
   std::int64_t producedTo_ = 0;  // end of the last segment produced
   std::vector<Segment> buffer_;  // produced segments not yet behind every window
   std::unordered_map<std::uint64_t, std::string> names_;
-  std::vector<std::pair<std::uint64_t, std::int64_t>> scratch_;
+  Tally window_;   // the current window
+  Tally overall_;  // every segment produced since the sweep (re)started at the beginning
 };
 
 }  // namespace stridemark::analysis

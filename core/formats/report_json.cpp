@@ -32,17 +32,6 @@ void writeFps(JsonOut& out, Rational fps) {
   }
 }
 
-template <typename Value>
-void writePerLimb(JsonOut& out, const Report& report, const std::vector<Value>& values) {
-  out.beginObject();
-  for (int i = 0; i < report.limbs.size(); ++i) {
-    out.key(report.limbs.label(i));
-    const auto index = static_cast<std::size_t>(i);
-    out.number(index < values.size() ? values[index] : std::nullopt);
-  }
-  out.endObject();
-}
-
 void writeLimbs(JsonOut& out, const Report& report) {
   out.beginObject();
   for (int i = 0; i < report.limbs.size(); ++i) {
@@ -175,7 +164,7 @@ class StrideText {
   }
 
   char* perLimb(char* p, text::NumberText& numbers,
-                const std::vector<std::optional<double>>& values) const {
+                const analysis::LimbValues<std::optional<double>>& values) const {
     *p++ = '{';
     for (std::size_t i = 0; i < labels_.size(); ++i) {
       if (i > 0) *p++ = ',';

@@ -83,8 +83,8 @@ class CsvText {
   bool rowStart_ = true;
 };
 
-template <typename T>
-const T* elementOrNull(const std::vector<T>& values, int index) {
+template <typename Values>
+const auto* elementOrNull(const Values& values, int index) {
   const auto i = static_cast<std::size_t>(index);
   return i < values.size() ? &values[i] : nullptr;
 }
