@@ -172,11 +172,15 @@ class StrideBuilder {
     s.endFrame = reference.nextTouchdown;
     s.durationS = framesToSeconds(reference.strideFrames(), fps_);
     fillLimbs(s);
-    SupportShares support = timeline_.window(s.startFrame, s.endFrame, options_.strideSupport);
-    s.aerial = support.aerial;
-    if (support.complete && options_.strideSupport) {
-      s.supportByCount = std::move(support.byCount);
-      s.supportByCombination = std::move(support.byCombination);
+    if (options_.strideSupport) {
+      SupportShares support = timeline_.window(s.startFrame, s.endFrame);
+      s.aerial = support.aerial;
+      if (support.complete) {
+        s.supportByCount = std::move(support.byCount);
+        s.supportByCombination = std::move(support.byCombination);
+      }
+    } else {
+      s.aerial = timeline_.flags(s.startFrame, s.endFrame).aerial;
     }
     const double tau =
         std::max(options_.asymmetricTau,

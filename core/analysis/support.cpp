@@ -147,7 +147,7 @@ const std::string& SupportTimeline::nameOf(std::uint64_t mask) {
   return it->second;
 }
 
-SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end, bool combinations) {
+void SupportTimeline::advanceTo(std::int64_t first, std::int64_t end) {
   const bool passed = buffer_.empty() ? first < producedTo_ : first < buffer_.front().first;
   if (passed) restart();
   // Drop segments wholly before the window; produce until the window is covered.
@@ -157,6 +157,24 @@ SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end, bool
   while ((buffer_.empty() || buffer_.back().end < end) && produce()) {
     if (buffer_.size() == 1 && buffer_.front().end <= first) buffer_.clear();
   }
+}
+
+SupportTimeline::WindowFlags SupportTimeline::flags(std::int64_t first, std::int64_t end) {
+  advanceTo(first, end);
+  WindowFlags out;
+  std::int64_t covered = 0;
+  for (const Segment& s : buffer_) {
+    const std::int64_t frames = std::min(end, s.end) - std::max(first, s.first);
+    if (frames <= 0 || !s.known) continue;
+    covered += frames;
+    if (s.count == 0) out.aerial = true;
+  }
+  out.complete = covered == end - first;
+  return out;
+}
+
+SupportShares SupportTimeline::window(std::int64_t first, std::int64_t end, bool combinations) {
+  advanceTo(first, end);
   resetTally(window_);
   for (const Segment& s : buffer_) accumulate(s, first, end, window_);
   const bool complete = window_.covered == end - first;

@@ -40,6 +40,14 @@ class SupportTimeline {
   // earlier window restarts the sweep.
   // Without `combinations` only byCount, complete and aerial are filled (cheaper).
   SupportShares window(std::int64_t first, std::int64_t end, bool combinations = true);
+  // Only whether [first, end) was wholly known and had a suspension: what window() says in
+  // `complete` and `aerial`, without building the shares (one call per stride of a long trial).
+  struct WindowFlags {
+    bool complete = false;
+    bool aerial = false;
+  };
+  WindowFlags flags(std::int64_t first, std::int64_t end);
+
   // Shares over every frame where all limbs' states are known. Windows already swept in order
   // are not swept again: every produced segment is also counted for this total.
   SupportShares overall();
@@ -59,6 +67,7 @@ class SupportTimeline {
   static constexpr std::int64_t kNoChange = INT64_MAX;
 
   void restart();
+  void advanceTo(std::int64_t first, std::int64_t end);  // buffer_ covers the window
   bool produce();  // appends the next segment to buffer_; false at the end
   // Running shares of one range: frames per count, per combination (in order of appearance).
   struct Tally {

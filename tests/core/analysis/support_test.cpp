@@ -17,6 +17,10 @@ double share(const std::map<std::string, double>& m, const std::string& key) {
   return it == m.end() ? 0.0 : it->second;
 }
 
+SupportTimeline::WindowFlags flags(SupportTimeline& timeline, const StrideRecord& s) {
+  return timeline.flags(s.startFrame, s.endFrame);
+}
+
 // Every full stride of the train must show the same support; checks the middle one.
 const StrideRecord& middleStride(const Report& r) {
   return r.strides.at(r.strides.size() / 2);
@@ -57,6 +61,33 @@ TEST(Support, RunningTrotHasTwoSuspensions) {
   const auto second = t.window(s.startFrame + 600, s.endFrame);
   EXPECT_DOUBLE_EQ(first.byCount[0], 0.2);
   EXPECT_DOUBLE_EQ(second.byCount[0], 0.2);
+}
+
+TEST(Support, FlagsAgreeWithWindowAndTotalWithFreshSweep) {
+  // Common practice, no source: the cheap per-stride flags and the total counted during the
+  // window sweep must equal what a full window and a fresh sweep give. Walking trot (no
+  // suspension) and running trot (suspension), with windows over the clip's unknown edges.
+  for (const double df : {0.60, 0.40}) {
+    const model::Annotation a = symmetricalQuadruped(df, 0.50);
+    const CycleScan scan = scanCycles(a);
+    SupportTimeline swept(a.limbs, scan.tracks), cheap(a.limbs, scan.tracks);
+    const Report r = analyse(a);
+    ASSERT_GE(r.strides.size(), 3u);
+    const std::int64_t from = r.strides.front().startFrame - 300;
+    const std::int64_t to = r.strides.back().endFrame + 300;
+    for (std::int64_t start = from; start < to; start += 250) {
+      const SupportShares full = swept.window(start, start + 400);
+      const SupportTimeline::WindowFlags flags = cheap.flags(start, start + 400);
+      EXPECT_EQ(flags.complete, full.complete) << "df " << df << " frame " << start;
+      EXPECT_EQ(flags.aerial, full.aerial) << "df " << df << " frame " << start;
+    }
+    SupportTimeline fresh(a.limbs, scan.tracks);
+    const SupportShares total = swept.overall(), reference = fresh.overall();
+    EXPECT_EQ(total.byCount, reference.byCount) << "df " << df;
+    EXPECT_EQ(total.byCombination, reference.byCombination) << "df " << df;
+    EXPECT_EQ(total.knownFrames, reference.knownFrames) << "df " << df;
+    EXPECT_EQ(df < 0.5, flags(cheap, r.strides[1]).aerial) << "df " << df;
+  }
 }
 
 TEST(Support, WalkingTrotHasQuadrupedalSupport) {
