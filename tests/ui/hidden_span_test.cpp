@@ -4,6 +4,7 @@
 #include <gtest/gtest.h>
 #include <QApplication>
 #include <QDialogButtonBox>
+#include <QDir>
 #include <QPushButton>
 #include <QTemporaryDir>
 #include <QTest>
@@ -127,6 +128,11 @@ TEST(HiddenSpans, ClickSelectsASpanAndDeleteRemovesItAsUndoableEdit) {
   ASSERT_TRUE(lanes->selectedHiddenSpan().has_value()) << "a click inside the span selects it";
   EXPECT_EQ(*lanes->selectedHiddenSpan(), (HiddenSpan{1, 30, 60}));
   EXPECT_EQ(w.playhead(), 45) << "the click still seeks";
+  // For people to look at: the selected span is outlined in its lane.
+  const QString shots =
+      QStringLiteral(STRIDEMARK_BINARY_DIR) + QStringLiteral("/tests/ui/screenshots");
+  QDir().mkpath(shots);
+  lanes->grab().save(shots + QStringLiteral("/lanes-hidden-span-selected.png"));
 
   press(lanes, Qt::Key_Delete);
   EXPECT_EQ(desk.hidden(), (std::vector<HiddenSpan>{{2, 30, 60}}));

@@ -118,7 +118,7 @@ void FootfallLanes::updateMetrics() {
     widest = std::max(widest, labels.horizontalAdvance(QString::fromStdString(limbs.label(i))));
   labelWidth_ = std::max(kMinLabelWidth, std::ceil(widest + 14));
   stripHeight_ = std::max(kMinStripHeight, std::ceil(strip.height() + 8));
-  const double laneHeight = std::ceil(labels.height() + 6);
+  const double laneHeight = std::ceil(labels.height() * 1.4);  // room above and below the label
   setMinimumHeight(
       static_cast<int>(laneHeight * std::max(1, limbs.size()) + kAxisAllowance + stripHeight_));
   updateGeometry();
