@@ -15,7 +15,7 @@ struct Tag {
   EventKind kind = EventKind::touchdown;
 };
 
-enum class PairStatus { ok, occluded, bad };
+enum class PairStatus : std::uint8_t { ok, occluded, bad };
 
 std::string describe(EventKind kind) {
   return kind == EventKind::touchdown ? "touchdown" : "lift-off";
