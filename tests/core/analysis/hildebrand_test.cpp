@@ -29,6 +29,19 @@ TEST(Hildebrand, LateralSequenceWalk) {
   EXPECT_EQ(r.hildebrand->quadrant, "LSLC");
 }
 
+TEST(Hildebrand, LateralSequenceDiagonalCoupletsWalk) {
+  // Source: METHODS §2.2 scheme A, Cartmill et al. 2002 [src]: 25 < D < 50 -> "LSDC"; scheme B
+  // band [31.25, 43.75) -> "LS diagonal couplets" [mem + choice]; METHODS §2.4 [src]: fore DF
+  // 60 % puts the LSDC optimum at D = 40. Hind DF 0.60 >= 0.5 -> a walk (DESIGN §5 vocabulary).
+  const StrideRecord s = analyse(symmetricalQuadruped(0.60, 0.40)).strides.at(2);
+  EXPECT_TRUE(s.symmetrical);
+  EXPECT_EQ(s.gait, "walk");
+  EXPECT_EQ(*s.quadrant, "LSDC");
+  EXPECT_EQ(*s.band, "lateral-sequence diagonal couplets");
+  EXPECT_EQ(*s.sequence, "lateral");
+  EXPECT_NEAR(*s.limbPhase, 0.40, 1e-12);
+}
+
 TEST(Hildebrand, DiagonalSequenceWalk) {
   // Source: METHODS check 17: hind DF 0.62, phase 0.60 -> "DSDC" walk, "DS diagonal couplets".
   const StrideRecord s = analyse(symmetricalQuadruped(0.62, 0.60)).strides.at(2);
