@@ -148,6 +148,8 @@ TEST(SteppingProxy, BuiltForLongGopThenShowsTheSameFrameNumbers) {
   for (const int n : {437, 436, 120, 1}) {
     ASSERT_TRUE(win.showFrame(n)) << "frame " << n;
     const QImage shown = win.lastImage.convertToFormat(QImage::Format_RGB32);
+    // The Viewer is larger than the 320x240 clip, so it gets the picture at full size.
+    ASSERT_EQ(shown.size(), QSize(kWidth, kHeight)) << "frame " << n;
     const double same = psnr(shown, ffmpegFrame(clip, n, tmp.path()));
     const double before = psnr(shown, ffmpegFrame(clip, n - 1, tmp.path()));
     const double after = psnr(shown, ffmpegFrame(clip, n + 1, tmp.path()));
