@@ -440,10 +440,16 @@ void MainWindow::attachVideo(std::unique_ptr<VideoSource> video) {
       statusBar()->showMessage(tr("Frame %1: %2").arg(f).arg(m), 8000);
     });
     connectProxySignals();
+    // Pictures are made at the Viewer's fitted size (see Viewer::displayPixels).
+    connect(viewer_, &Viewer::displayPixelsChanged, video_.get(),
+            [this](QSize pixels, qreal ratio) { video_->setDisplaySize(pixels, ratio); });
+    viewer_->setSourceSize(QSize(video_->info().width, video_->info().height));
+    video_->setDisplaySize(viewer_->displayPixels(), viewer_->devicePixelRatioF());
     viewer_->setFrameCount(video_->frameCount());
     lanes_->setFrameCount(video_->frameCount());
   } else {
     viewer_->setPlaceholder(tr("No video: tags can still be edited in the Footfall lanes."));
+    viewer_->setSourceSize({});
     const auto& clip = doc_.annotation().clip;
     const auto count = clip ? clip->last + 1 : 0;
     viewer_->setFrameCount(count);

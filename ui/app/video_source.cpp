@@ -141,13 +141,42 @@ model::VideoLink VideoSource::link() const {
   return link;
 }
 
-QImage VideoSource::toImage(const video::DecodedFrame& frame, video::FrameConverter& converter) {
+QImage VideoSource::recycledImage(QSize size) {
+  for (QImage& image : recycled_)
+    if (image.size() == size && image.isDetached()) return image;
+  // None free at this size: replace one the Viewer does not hold (or the first).
+  auto slot = std::find_if(recycled_.begin(), recycled_.end(), [](const QImage& image) {
+    return image.isNull() || image.isDetached();
+  });
+  if (slot == recycled_.end()) slot = recycled_.begin();
   // BGRA bytes are Qt's native 0xffRRGGBB on little-endian machines: the raster engine draws
   // Format_RGB32 without a per-paint conversion (RGBA8888 would be re-premultiplied each time).
-  QImage image(frame.width(), frame.height(), QImage::Format_RGB32);
-  converter.convert(frame, video::PackedFormat::bgra, image.bits(),
-                    static_cast<int>(image.bytesPerLine()));
+  *slot = QImage(size, QImage::Format_RGB32);
+  return *slot;
+}
+
+QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame,
+                                   video::FrameConverter& converter) {
+  const QSize full(frame.width(), frame.height());
+  const bool smaller = displayPixels_.isValid() && displayPixels_.width() < full.width() &&
+                       displayPixels_.height() < full.height();
+  QImage image = recycledImage(smaller ? displayPixels_ : full);
+  const auto stride = static_cast<int>(image.bytesPerLine());
+  if (smaller) {
+    converter.convertScaled(frame, video::PackedFormat::bgra, image.bits(), stride, image.width(),
+                            image.height());
+  } else {
+    converter.convert(frame, video::PackedFormat::bgra, image.bits(), stride);
+  }
+  image.setDevicePixelRatio(smaller ? displayRatio_ : 1.0);  // detached: no copy
   return image;
+}
+
+void VideoSource::setDisplaySize(QSize pixels, qreal devicePixelRatio) {
+  if (pixels == displayPixels_ && devicePixelRatio == displayRatio_) return;
+  displayPixels_ = pixels;
+  displayRatio_ = devicePixelRatio;
+  if (wanted_ >= 0) request(wanted_);
 }
 
 void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
@@ -157,7 +186,7 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
     // Frames of either server may arrive (a request made just before a switch): pick the
     // converter by origin, told apart by pixel format.
     const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
-    emit frameReady(n, toImage(*frame, fromSource ? converter_ : proxyConverter_));
+    emit frameReady(n, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_));
   } else if (error) {
     try {
       std::rethrow_exception(error);
@@ -189,7 +218,11 @@ void VideoSource::request(std::int64_t frame) {
 }
 
 QImage VideoSource::frameNow(std::int64_t frame) {
-  return toImage(*server_->get(frame), converter_);
+  const auto decoded = server_->get(frame);
+  QImage image(decoded->width(), decoded->height(), QImage::Format_RGB32);
+  exportConverter_.convert(*decoded, video::PackedFormat::bgra, image.bits(),
+                           static_cast<int>(image.bytesPerLine()));
+  return image;
 }
 
 }  // namespace stridemark::ui

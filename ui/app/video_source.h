@@ -8,6 +8,7 @@
 #include <QImage>
 #include <QObject>
 #include <QString>
+#include <array>
 #include <cstdint>
 #include <memory>
 
@@ -42,8 +43,12 @@ class VideoSource : public QObject {
 
   // Non-blocking: frameReady() follows on the UI thread (at once when the frame is cached).
   void request(std::int64_t frame);
-  // Blocking exact read (export and tests). Throws stridemark::Error.
+  // Blocking exact read at full size and exact conversion (export and tests). Throws
+  // stridemark::Error.
   QImage frameNow(std::int64_t frame);
+  // Pictures for frameReady() are made at this size (device pixels; the Viewer's fitted frame)
+  // when it is smaller than the frame, else at full size. Re-sends the current frame.
+  void setDisplaySize(QSize pixels, qreal devicePixelRatio);
   // The display server's statistics (the proxy's once it is in use).
   video::FrameServerStats stats() const { return display().stats(); }
 
@@ -75,7 +80,8 @@ class VideoSource : public QObject {
   video::FrameServer& display() const;
   void useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex);
   void switchDisplay(bool proxy);
-  static QImage toImage(const video::DecodedFrame& frame, video::FrameConverter& converter);
+  QImage toDisplayImage(const video::DecodedFrame& frame, video::FrameConverter& converter);
+  QImage recycledImage(QSize size);
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
                std::exception_ptr error);
 
@@ -89,8 +95,14 @@ class VideoSource : public QObject {
   bool stepOnProxy_ = true;
   // UI thread only. One per server: swscale's cached context mixes up the colour range when a
   // converter alternates between yuv420p (source) and yuvj420p (MJPEG proxy) frames.
-  video::FrameConverter converter_;
-  video::FrameConverter proxyConverter_;
+  video::FrameConverter converter_{video::ConversionQuality::fast};
+  video::FrameConverter proxyConverter_{video::ConversionQuality::fast};
+  video::FrameConverter exportConverter_;  // exact, for frameNow()
+  QSize displayPixels_;                    // empty: full size
+  qreal displayRatio_ = 1.0;
+  // Pictures handed out before: one the Viewer no longer holds is refilled instead of
+  // allocating (and page-faulting) 8 MB per 1080p step.
+  std::array<QImage, 3> recycled_;
   std::int64_t wanted_ = -1;  // newest request; older answers are dropped
 };
 

@@ -2,6 +2,7 @@
 
 #include <QMouseEvent>
 #include <QPainter>
+#include <QResizeEvent>
 #include <QWheelEvent>
 #include <algorithm>
 #include <cmath>
@@ -43,18 +44,56 @@ void Viewer::setPlaceholder(const QString& text) {
   update();
 }
 
+void Viewer::setSourceSize(QSize size) {
+  sourceSize_ = size;
+  announceDisplayPixels();
+  update();
+}
+
 void Viewer::resetView() {
   zoom_ = 1.0;
   pan_ = {};
+  announceDisplayPixels();
   update();
+}
+
+QSizeF Viewer::fittedSize() const {
+  const QSize base = sourceSize_.isValid() ? sourceSize_ : image_.size();
+  if (base.isEmpty()) return {};
+  const qreal dpr = devicePixelRatioF();
+  const QSizeF fit = QSizeF(base).scaled(QSizeF(size()) * dpr, Qt::KeepAspectRatio);
+  // Whole, even device pixels (4:2:0 pictures), never larger than the frame itself.
+  const int w = std::min(base.width(), static_cast<int>(fit.width()) / 2 * 2);
+  const int h = std::min(base.height(), static_cast<int>(fit.height()) / 2 * 2);
+  return QSizeF(std::max(w, 2), std::max(h, 2)) / dpr;
+}
+
+QSize Viewer::displayPixels() const {
+  if (!sourceSize_.isValid()) return {};
+  if (zoom_ != 1.0) return sourceSize_;
+  return (fittedSize() * devicePixelRatioF()).toSize();
+}
+
+void Viewer::announceDisplayPixels() {
+  const QSize pixels = displayPixels();
+  if (pixels == announced_) return;
+  announced_ = pixels;
+  emit displayPixelsChanged(pixels, devicePixelRatioF());
+}
+
+void Viewer::resizeEvent(QResizeEvent* event) {
+  QWidget::resizeEvent(event);
+  announceDisplayPixels();
 }
 
 QRectF Viewer::imageRect() const {
   if (image_.isNull()) return {};
-  const QSizeF fit = QSizeF(image_.size()).scaled(QSizeF(size()), Qt::KeepAspectRatio);
-  const QSizeF scaled = fit * zoom_;
-  const QPointF topLeft = QPointF(width() / 2.0, height() / 2.0) + pan_ -
-                          QPointF(scaled.width() / 2, scaled.height() / 2);
+  const QSizeF scaled = fittedSize() * zoom_;
+  QPointF topLeft = QPointF(width() / 2.0, height() / 2.0) + pan_ -
+                    QPointF(scaled.width() / 2, scaled.height() / 2);
+  // On whole device pixels, so a picture made at this size is copied, not resampled.
+  const qreal dpr = devicePixelRatioF();
+  topLeft = QPointF(std::round(topLeft.x() * dpr), std::round(topLeft.y() * dpr)) / dpr;
   return {topLeft, scaled};
 }
 
@@ -76,8 +115,15 @@ void Viewer::paintEvent(QPaintEvent*) {
     p.setPen(QColor(0xcc, 0xcc, 0xcc));
     p.drawText(rect().adjusted(20, 20, -20, -40), Qt::AlignCenter | Qt::TextWordWrap, placeholder_);
   } else {
-    p.setRenderHint(QPainter::SmoothPixmapTransform, zoom_ < 2.0);
-    p.drawImage(imageRect(), image_);
+    const QRectF target = imageRect();
+    const QSizeF logical = QSizeF(image_.size()) / image_.devicePixelRatio();
+    if (std::abs(logical.width() - target.width()) < 0.01 &&
+        std::abs(logical.height() - target.height()) < 0.01) {
+      p.drawImage(target.topLeft(), image_);  // made for this size: a plain copy
+    } else {
+      p.setRenderHint(QPainter::SmoothPixmapTransform, zoom_ < 2.0);
+      p.drawImage(target, image_);
+    }
   }
   // Frame number and time at the capture rate: always visible, on a solid band.
   QFont f = font();
@@ -109,6 +155,7 @@ void Viewer::wheelEvent(QWheelEvent* event) {
   pan_ = cursor - centre - rel * (newZoom / zoom_);
   zoom_ = newZoom;
   if (zoom_ == 1.0) pan_ = {};
+  announceDisplayPixels();
   update();
   event->accept();
 }
