@@ -38,7 +38,7 @@ struct FrameServerOptions {
   std::size_t budgetBytes = std::size_t{1} << 30;  // 1 GiB default (setting)
   int decodeThreads = 2;                           // frame threads for refill / decode-ahead
   std::int64_t aheadFrames = 32;                   // decode-ahead depth when moving forward
-  int workerNice = 10;  // niceness added to the worker and its decoder threads (0 = unchanged)
+  int workerNice = 5;  // niceness added to the worker and its decoder threads (0 = unchanged)
 };
 
 struct FrameServerStats {
