@@ -62,16 +62,18 @@ QSizeF Viewer::fittedSize() const {
   if (base.isEmpty()) return {};
   const qreal dpr = devicePixelRatioF();
   const QSizeF fit = QSizeF(base).scaled(QSizeF(size()) * dpr, Qt::KeepAspectRatio);
-  // Whole, even device pixels (4:2:0 pictures), never larger than the frame itself.
-  const int w = std::min(base.width(), static_cast<int>(fit.width()) / 2 * 2);
-  const int h = std::min(base.height(), static_cast<int>(fit.height()) / 2 * 2);
+  // Whole, even device pixels (4:2:0 pictures).
+  const int w = static_cast<int>(fit.width()) / 2 * 2;
+  const int h = static_cast<int>(fit.height()) / 2 * 2;
   return QSizeF(std::max(w, 2), std::max(h, 2)) / dpr;
 }
 
 QSize Viewer::displayPixels() const {
   if (!sourceSize_.isValid()) return {};
   if (zoom_ != 1.0) return sourceSize_;
-  return (fittedSize() * devicePixelRatioF()).toSize();
+  // A frame smaller than the view comes at full size and is scaled up when painted.
+  const QSize fit = (fittedSize() * devicePixelRatioF()).toSize();
+  return fit.width() < sourceSize_.width() ? fit : sourceSize_;
 }
 
 void Viewer::announceDisplayPixels() {
