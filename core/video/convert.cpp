@@ -1,5 +1,6 @@
 #include "video/convert.h"
 
+#include <array>
 #include <fstream>
 
 #include <opencv2/core.hpp>
@@ -35,16 +36,29 @@ int swsFlags(ConversionQuality quality, int filter) {
   return quality == ConversionQuality::exact ? filter | SWS_ACCURATE_RND : filter;
 }
 
-// Converts with a cached swscale context into any destination format and size.
-void scaleInto(detail::SwsContextPtr& cached, const DecodedFrame& frame, AVPixelFormat dstFormat,
+// A swscale context and what it was made for.
+struct CachedSws {
+  detail::SwsContextPtr context;
+  std::array<int, 7> made{};  // source size and format, target size and format, flags
+};
+
+// Converts with a cached swscale context into any destination format and size. The context is
+// remade whenever anything differs: sws_getCachedContext stores yuvj420p as yuv420p plus a
+// range flag, so alternating yuv420p and yuvj420p frames would reuse the wrong range.
+void scaleInto(CachedSws& cached, const DecodedFrame& frame, AVPixelFormat dstFormat,
                std::uint8_t* dst, int stride, int width, int height, int flags) {
   if (!dst || frame.bytes() == 0)
     throw Error(ErrorCategory::decode, "cannot convert an empty frame");
-  // sws_getCachedContext frees the old context itself when it has to make a new one.
-  cached.reset(sws_getCachedContext(cached.release(), frame.width(), frame.height(),
-                                    static_cast<AVPixelFormat>(frame.pixelFormat()), width, height,
-                                    dstFormat, flags, nullptr, nullptr, nullptr));
-  if (!cached)
+  const std::array<int, 7> wanted = {frame.width(), frame.height(), frame.pixelFormat(),
+                                     width,         height,         static_cast<int>(dstFormat),
+                                     flags};
+  if (!cached.context || cached.made != wanted) {
+    cached.context.reset(sws_getContext(frame.width(), frame.height(),
+                                        static_cast<AVPixelFormat>(frame.pixelFormat()), width,
+                                        height, dstFormat, flags, nullptr, nullptr, nullptr));
+    cached.made = wanted;
+  }
+  if (!cached.context)
     throw Error(ErrorCategory::decode,
                 std::string("cannot convert pixel format ") +
                     av_get_pix_fmt_name(static_cast<AVPixelFormat>(frame.pixelFormat())));
@@ -54,7 +68,7 @@ void scaleInto(detail::SwsContextPtr& cached, const DecodedFrame& frame, AVPixel
                             frame.linesizes()[3]};
   std::uint8_t* dstPlanes[4] = {dst, nullptr, nullptr, nullptr};
   const int dstStride[4] = {stride, 0, 0, 0};
-  sws_scale(cached.get(), src, srcStride, 0, frame.height(), dstPlanes, dstStride);
+  sws_scale(cached.context.get(), src, srcStride, 0, frame.height(), dstPlanes, dstStride);
 }
 
 }  // namespace
@@ -65,8 +79,8 @@ int bytesPerPixel(PackedFormat format) {
 
 struct FrameConverter::State {
   ConversionQuality quality = ConversionQuality::exact;
-  detail::SwsContextPtr sws;
-  detail::SwsContextPtr swsScaled;
+  CachedSws sws;
+  CachedSws swsScaled;
   cv::Mat planes[3];  // halved planes (reused between calls)
   cv::Mat i420;       // planes at the target size, one buffer in I420 order
 };
@@ -170,7 +184,7 @@ void writePng(const DecodedFrame& frame, const std::string& path) {
   rgb->format = rgbFormat;
   if (av_frame_get_buffer(rgb.get(), 0) < 0)
     throw Error(ErrorCategory::export_, "out of memory converting the frame for PNG");
-  detail::SwsContextPtr sws;
+  CachedSws sws;
   scaleInto(sws, frame, rgbFormat, rgb->data[0], rgb->linesize[0], frame.width(), frame.height(),
             swsFlags(ConversionQuality::exact, SWS_POINT));
 

@@ -11,6 +11,7 @@
 
 #include "common/error.h"
 #include "video/convert.h"
+#include "video/frame_reader.h"
 #include "video/frame_server.h"
 #include "video_test_support.h"
 
@@ -228,6 +229,32 @@ TEST_F(FrameServerTest, ScaledDisplayConversionLooksLikeFfmpegsScaler) {
     const double other = psnr(neighbour, theirs);
     EXPECT_GT(same, 24.0) << c.width << "x" << c.height << " other " << other;
     EXPECT_GT(same, other + 3.0) << c.width << "x" << c.height;
+  }
+}
+
+TEST_F(FrameServerTest, OneConverterServesFullRangeAndLimitedRangeFramesAlike) {
+  // Common practice, no source: a converter's cached state must not leak between frames of
+  // different pixel formats (yuv420p from H.264, yuvj420p/422p from MJPEG): each picture must
+  // equal what a fresh converter makes of it.
+  const std::string mjpeg = testing::makeClip(testing::clipNamed("mjpeg.avi"));
+  FrameReader limited(path_, index_);
+  FrameReader full(mjpeg, std::make_shared<const FrameIndex>(FrameIndex::build(mjpeg)));
+  const DecodedFrame a = limited.frameAt(5);
+  const DecodedFrame b = full.frameAt(5);
+  ASSERT_NE(a.pixelFormat(), b.pixelFormat());
+  const auto picture = [](FrameConverter& converter, const DecodedFrame& f) {
+    std::vector<std::uint8_t> out(static_cast<std::size_t>(f.width() * f.height() * 4));
+    converter.convert(f, PackedFormat::bgra, out.data(), f.width() * 4);
+    return out;
+  };
+  for (const auto quality : {ConversionQuality::exact, ConversionQuality::fast}) {
+    FrameConverter shared(quality), freshA(quality), freshB(quality);
+    const auto firstA = picture(shared, a);
+    const auto thenB = picture(shared, b);
+    const auto againA = picture(shared, a);
+    EXPECT_EQ(thenB, picture(freshB, b));
+    EXPECT_EQ(firstA, picture(freshA, a));
+    EXPECT_EQ(againA, firstA);
   }
 }
 
