@@ -147,62 +147,156 @@ std::string DecodedFrame::md5() const {
   return hex;
 }
 
-void FramePool::FreeBlock::operator()(std::uint8_t* p) const {
+void FramePool::FreeSlab::operator()(std::uint8_t* p) const {
   std::free(p);
 }
 
+namespace {
+
+constexpr std::size_t kHugePage = std::size_t{2} << 20;
+constexpr std::size_t kAlign = 64;  // row alignment of PlaneLayout and SIMD loads
+
+std::size_t roundUp(std::size_t n, std::size_t to) {
+  return (n + to - 1) / to * to;
+}
+
+struct FreeBytes {
+  void operator()(std::uint8_t* p) const { std::free(p); }
+};
+
+// Slabs of pools that closed, already faulted in, for the next pool of this process.
+class SpareSlabs {
+ public:
+  static constexpr std::size_t kCap = std::size_t{1} << 30;
+  std::unique_ptr<std::uint8_t, FreeBytes> take(std::size_t bytes) {
+    std::lock_guard lock(mutex_);
+    for (auto& slab : slabs_) {
+      if (slab.bytes != bytes) continue;
+      auto memory = std::move(slab.memory);
+      slab = std::move(slabs_.back());
+      slabs_.pop_back();
+      total_ -= bytes;
+      return memory;
+    }
+    return nullptr;
+  }
+  void give(std::unique_ptr<std::uint8_t, FreeBytes> memory, std::size_t bytes) {
+    std::lock_guard lock(mutex_);
+    if (total_ + bytes > kCap) return;  // freed here
+    total_ += bytes;
+    slabs_.push_back({std::move(memory), bytes});
+  }
+
+ private:
+  struct Spare {
+    std::unique_ptr<std::uint8_t, FreeBytes> memory;
+    std::size_t bytes = 0;
+  };
+  std::mutex mutex_;
+  std::vector<Spare> slabs_;
+  std::size_t total_ = 0;
+};
+
+SpareSlabs& spareSlabs() {
+  static SpareSlabs spare;
+  return spare;
+}
+
+}  // namespace
+
+FramePool::~FramePool() {
+  for (auto& slab : slabs_)
+    spareSlabs().give(std::unique_ptr<std::uint8_t, FreeBytes>(slab->memory.release()),
+                      slab->bytes);
+}
+
+FramePool::Buffer FramePool::reserveLocked(std::size_t bytes) {
+  const std::size_t size = roundUp(bytes, kAlign);
+  Slab* slab = slabs_.empty() ? nullptr : slabs_.back().get();
+  if (!slab || slab->used + size > slab->bytes) {
+    // About 16 MiB per slab: few frames pinned per slab when the cache shrinks, little
+    // per-slab overhead. The last 2 MiB keep 4 KiB pages, so the partly used end of a slab is
+    // only resident as far as frames reach and resident memory matches the bytes handed out.
+    const std::size_t perSlab = std::max<std::size_t>(1, (std::size_t{16} << 20) / size);
+    const std::size_t slabBytes = roundUp(perSlab * size, kHugePage);
+    auto fresh = std::make_unique<Slab>();
+    if (auto spare = spareSlabs().take(slabBytes)) {
+      fresh->memory.reset(spare.release());
+    } else {
+      void* raw = std::aligned_alloc(kHugePage, slabBytes);
+      if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
+      if (slabBytes > kHugePage)
+        madvise(raw, slabBytes - kHugePage, MADV_HUGEPAGE);  // advice only; may be declined
+      fresh->memory.reset(static_cast<std::uint8_t*>(raw));
+    }
+    fresh->bytes = slabBytes;
+    slabs_.push_back(std::move(fresh));
+    slab = slabs_.back().get();
+  }
+  Buffer buffer{slab->memory.get() + slab->used, bytes, slab};
+  slab->used += size;
+  return buffer;
+}
+
 std::uint8_t* FramePool::acquire(std::size_t bytes) {
-  std::lock_guard lock(mutex_);
+  std::unique_lock lock(mutex_);
   auto it = std::find_if(idle_.begin(), idle_.end(),
-                         [bytes](const Block& b) { return b.bytes == bytes; });
-  Block block;
-  if (it != idle_.end()) {
-    block = std::move(*it);
-    *it = std::move(idle_.back());
+                         [bytes](const Buffer& b) { return b.bytes == bytes; });
+  Buffer buffer;
+  const bool fresh = it == idle_.end();
+  if (!fresh) {
+    buffer = *it;
+    *it = idle_.back();
     idle_.pop_back();
   } else {
-    // 2 MiB aligned and marked for transparent huge pages: filling a fresh 1080p frame then
-    // costs two page faults instead of ~760 (VIDEO-NOTES §0.4: faults dominated refills).
-    // Zero-filled once here, so every page is touched before the frame is used.
-    constexpr std::size_t kHuge = std::size_t{2} << 20;
-    const std::size_t rounded = (bytes + kHuge - 1) / kHuge * kHuge;
-    void* raw = std::aligned_alloc(kHuge, rounded);
-    if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
-    // Only whole huge pages inside the frame get the advice, so the tail stays 4 KiB pages and
-    // resident memory matches the budget's byte count.
-    if (const std::size_t whole = bytes / kHuge * kHuge; whole > 0)
-      madvise(raw, whole, MADV_HUGEPAGE);  // advice only; fine if the kernel declines
-    block.data.reset(static_cast<std::uint8_t*>(raw));
-    std::memset(raw, 0, bytes);
-    block.bytes = bytes;
+    buffer = reserveLocked(bytes);
   }
-  std::uint8_t* data = block.data.get();
-  lent_.push_back(std::move(block));
-  return data;
+  ++buffer.slab->lent;  // counted before unlocking, so trimIdle() keeps the slab
+  lent_.emplace(buffer.data, buffer);
+  lock.unlock();
+  if (fresh) std::memset(buffer.data, 0, bytes);  // fault the pages in before the copy
+  return buffer.data;
+}
+
+void FramePool::warmOne(std::size_t bytes) {
+  std::unique_lock lock(mutex_);
+  Buffer buffer = reserveLocked(bytes);
+  ++buffer.slab->lent;  // lent to this call while it touches the pages
+  lock.unlock();
+  std::memset(buffer.data, 0, bytes);
+  lock.lock();
+  --buffer.slab->lent;
+  idle_.push_back(buffer);
+}
+
+std::size_t FramePool::carvedBytes() const {
+  std::lock_guard lock(mutex_);
+  std::size_t total = 0;
+  for (const auto& slab : slabs_) total += slab->used;
+  return total;
 }
 
 void FramePool::giveBack(std::uint8_t* data, std::size_t bytes) {
   std::lock_guard lock(mutex_);
-  auto it = std::find_if(lent_.begin(), lent_.end(),
-                         [data](const Block& b) { return b.data.get() == data; });
+  const auto it = lent_.find(data);
   if (it == lent_.end()) return;  // not ours; cannot happen through DecodedFrame
-  Block block = std::move(*it);
-  *it = std::move(lent_.back());
-  lent_.pop_back();
   (void)bytes;
-  idle_.push_back(std::move(block));
+  --it->second.slab->lent;
+  idle_.push_back(it->second);
+  lent_.erase(it);
 }
 
 std::size_t FramePool::idleBytes() const {
   std::lock_guard lock(mutex_);
   std::size_t total = 0;
-  for (const auto& block : idle_) total += block.bytes;
+  for (const auto& buffer : idle_) total += buffer.bytes;
   return total;
 }
 
 void FramePool::trimIdle() {
   std::lock_guard lock(mutex_);
-  idle_.clear();
+  std::erase_if(idle_, [](const Buffer& b) { return b.slab->lent == 0; });
+  std::erase_if(slabs_, [](const std::unique_ptr<Slab>& slab) { return slab->lent == 0; });
 }
 
 }  // namespace stridemark::video

@@ -9,6 +9,7 @@
 #include <memory>
 #include <mutex>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 namespace stridemark::video {
@@ -69,27 +70,50 @@ class DecodedFrame {
   std::shared_ptr<FramePool> pool_;
 };
 
-// Recycles frame buffers of one size so a window refill does not fault in fresh pages for every
-// frame. Buffers are zero-filled once when first allocated (touches every page) and reused.
+// Recycles frame buffers so a refill does not fault in fresh pages for every frame. Fresh
+// buffers are carved one after another out of 2 MiB-aligned slabs advised for transparent huge
+// pages: nearly every byte then sits on huge pages, where first touch costs about a twentieth
+// of 4 KiB pages (a lone 3 MB frame would leave a 4 KiB-page tail that costs more than the
+// rest of it). Buffers are zero-filled once when carved (touching every page) and reused.
+// When a pool closes, its slabs stay in the process for the next pool (reopening a clip, the
+// next clip of a batch) instead of being faulted in again; trimIdle() really frees.
 class FramePool : public std::enable_shared_from_this<FramePool> {
  public:
   static std::shared_ptr<FramePool> create() { return std::make_shared<FramePool>(); }
+  FramePool() = default;
+  ~FramePool();  // hands its slabs to the next pool of the process (up to 1 GiB is kept)
+  FramePool(const FramePool&) = delete;
+  FramePool& operator=(const FramePool&) = delete;
   std::uint8_t* acquire(std::size_t bytes);
   void giveBack(std::uint8_t* data, std::size_t bytes);
   std::size_t idleBytes() const;
-  void trimIdle();  // frees every idle buffer
+  void trimIdle();  // frees every slab none of whose buffers is lent out
+  // Carves and faults in one more idle buffer of `bytes` (a background warm-up, so the first
+  // refills after opening a clip do not pay for fresh memory). Thread-safe.
+  void warmOne(std::size_t bytes);
+  std::size_t carvedBytes() const;  // buffers carved so far, idle or lent
 
  private:
-  struct FreeBlock {
+  struct FreeSlab {
     void operator()(std::uint8_t* p) const;
   };
-  struct Block {
-    std::unique_ptr<std::uint8_t, FreeBlock> data;
+  struct Slab {
+    std::unique_ptr<std::uint8_t, FreeSlab> memory;
     std::size_t bytes = 0;
+    std::size_t used = 0;  // carved so far
+    int lent = 0;          // buffers out on loan
   };
+  struct Buffer {
+    std::uint8_t* data = nullptr;
+    std::size_t bytes = 0;
+    Slab* slab = nullptr;
+  };
+  Buffer reserveLocked(std::size_t bytes);  // address space only; the caller touches it
+
   mutable std::mutex mutex_;
-  std::vector<Block> idle_;
-  std::vector<Block> lent_;
+  std::vector<std::unique_ptr<Slab>> slabs_;
+  std::vector<Buffer> idle_;
+  std::unordered_map<std::uint8_t*, Buffer> lent_;
 };
 
 }  // namespace stridemark::video

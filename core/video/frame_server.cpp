@@ -4,6 +4,8 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <chrono>
+#include <cmath>
 
 #include "common/error.h"
 
@@ -19,6 +21,11 @@ namespace {
 // key, which gives the first refill time to finish (VIDEO-NOTES §4.2.4), while the jump costs
 // only a few frames more than an exact seek.
 constexpr std::int64_t kKeepBeforeJump = 30;
+
+// The shortest backward refill worth its pre-roll, and the span used while the user steps
+// faster than frames decode (each such span ends in a wait, so its length bounds the wait).
+constexpr std::int64_t kShortestSpan = 32;
+constexpr std::int64_t kOutrunSpan = 48;
 
 // Frames behind the direction of travel that stay cached when space is short.
 std::int64_t behindReserve(std::int64_t budgetFrames) {
@@ -64,6 +71,7 @@ FrameServer::FrameServer(const std::string& path, std::shared_ptr<const FrameInd
     worker_.join();
     std::rethrow_exception(startError_);
   }
+  warmer_ = std::thread([this] { warmPool(); });
 }
 
 FrameServer::~FrameServer() {
@@ -78,8 +86,28 @@ FrameServer::~FrameServer() {
   }
   wake_.notify_all();
   arrived_.notify_all();
+  idle_.notify_all();
   worker_.join();
+  warmer_.join();
   deliver(cancelled);
+}
+
+// Faults in pool memory while the worker is idle (never while it decodes or someone waits):
+// a warmed buffer then makes a later refill quicker instead of slowing down the current one.
+void FrameServer::warmPool() {
+  lowerThisThreadsPriority(options_.workerNice);
+  for (;;) {
+    std::size_t target = 0;
+    {
+      std::unique_lock lock(mutex_);
+      idle_.wait(lock, [this] { return stopping_ || (!jobActive_ && pending_.empty()); });
+      if (stopping_) return;
+      target = std::min(options_.budgetBytes,
+                        frameBytes_ * static_cast<std::size_t>(index_->frameCount()));
+    }
+    if (pool_->carvedBytes() + frameBytes_ > target) return;
+    pool_->warmOne(frameBytes_);
+  }
 }
 
 // Opens the file on the worker thread (so its decoder threads inherit the lower priority) and
@@ -166,6 +194,18 @@ std::shared_ptr<const DecodedFrame> FrameServer::lookupOrDemand(std::int64_t n, 
 }
 
 void FrameServer::moveToLocked(std::int64_t n) {
+  // How fast the user steps: an average over single-frame moves (jumps say nothing).
+  const auto now = std::chrono::steady_clock::now();
+  if (n != playhead_ && std::abs(n - playhead_) <= 2) {
+    const double ms = std::chrono::duration<double, std::milli>(now - lastMove_).count();
+    if (ms < 1000) {  // a longer gap is a pause, not a pace
+      stepMs_ = stepSamples_ == 0 ? ms : 0.7 * stepMs_ + 0.3 * ms;
+      ++stepSamples_;
+    }
+  } else if (n != playhead_) {
+    stepSamples_ = 0;  // a jump: the pace is unknown again
+  }
+  lastMove_ = now;
   if (n < playhead_) direction_ = Direction::backward;
   if (n > playhead_) direction_ = Direction::forward;
   playhead_ = n;
@@ -371,11 +411,19 @@ bool FrameServer::planBackwardLocked(Span& span) const {
   const std::int64_t last = start - 1;
   if (unreadable_.count(last)) return false;  // damaged frame: only on explicit request
   const std::int64_t capacity = aheadCapacityLocked();
-  const std::int64_t room = capacity - (playhead_ - start + 1);
+  const std::int64_t ahead = playhead_ - start + 1;
+  const std::int64_t room = capacity - ahead;
   const std::int64_t restOfGop = last - keyFrameNumber(last) + 1;
-  const std::int64_t size = std::min({room, restOfGop, windowFramesLocked()});
+  // The span's newest frame, which the playhead needs first, comes out last. When the user
+  // steps faster than frames decode, every span ends in a wait: keep spans short so each wait
+  // stays under one plain back-step. Otherwise grow them (about twice what is cached ahead).
+  // Until a few steps tell the pace, assume the worst (short spans cost little then).
+  const bool outrun = stepSamples_ < 3 || decodeMs_ <= 0 || stepMs_ < decodeMs_;
+  const std::int64_t pace = outrun ? kOutrunSpan : std::max(kShortestSpan, 2 * ahead);
+  const std::int64_t size = std::min({room, restOfGop, windowFramesLocked(), pace});
   // Wait for room for a worthwhile span: a short one pays the GOP's pre-roll for few frames.
-  const std::int64_t worthwhile = std::min(restOfGop, std::max<std::int64_t>(1, capacity / 4));
+  const std::int64_t worthwhile =
+      std::min({restOfGop, pace, std::max<std::int64_t>(1, capacity / 4)});
   if (size < worthwhile) return false;
   span = {last - size + 1, last};
   return true;
@@ -389,8 +437,11 @@ void FrameServer::decodeSpan(std::int64_t first, std::int64_t last,
   jobLast_ = last;
   lock.unlock();
   std::exception_ptr error;
+  const auto began = std::chrono::steady_clock::now();
+  std::int64_t delivered = 0;
   try {
     reader_->decodeSpan(first, last, [&](DecodedFrame&& frame) {
+      ++delivered;
       auto shared = std::make_shared<const DecodedFrame>(std::move(frame));
       std::vector<Ready> ready;
       {
@@ -408,6 +459,14 @@ void FrameServer::decodeSpan(std::int64_t first, std::int64_t last,
   }
   lock.lock();
   jobActive_ = false;
+  idle_.notify_all();
+  if (delivered >= 8) {  // decode cost per kept frame, pre-roll included
+    const double ms =
+        std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - began)
+            .count() /
+        static_cast<double>(delivered);
+    decodeMs_ = decodeMs_ <= 0 ? ms : 0.5 * decodeMs_ + 0.5 * ms;
+  }
   if (error) {
     unreadable_.insert(jobNext_);
     // Fail the demands this job was meant to answer (and any frame it could not reach).

@@ -10,11 +10,15 @@
 // ahead part has room for a worthwhile span below the cached run; it takes at most half of the
 // ahead part, so one span is stepped through while the next one decodes. Frames before the span
 // are pre-rolled with non-reference frames skipped. The worker and its decoder threads run at
-// a lower priority, so the thread that steps and converts is not slowed down by refills.
+// a lower priority, so the thread that steps and converts is not slowed down by refills. A
+// second low-priority thread faults in the cache's memory (up to the budget, or the clip if it
+// is smaller) right after opening: fresh pages cost more than decoding on some machines, and
+// the first refills would otherwise pay for them.
 //
 // Threading: every public method is thread-safe. Callbacks given to request() run on the
 // worker thread; they must be quick and must not call back into the server synchronously
 // (post to your own thread instead).
+#include <chrono>
 #include <condition_variable>
 #include <cstddef>
 #include <cstdint>
@@ -38,7 +42,7 @@ struct FrameServerOptions {
   std::size_t budgetBytes = std::size_t{1} << 30;  // 1 GiB default (setting)
   int decodeThreads = 2;                           // frame threads for refill / decode-ahead
   std::int64_t aheadFrames = 32;                   // decode-ahead depth when moving forward
-  int workerNice = 5;  // niceness added to the worker and its decoder threads (0 = unchanged)
+  int workerNice = 10;  // niceness added to the worker and its decoder threads (0 = unchanged)
 };
 
 struct FrameServerStats {
@@ -107,6 +111,7 @@ class FrameServer {
                     std::vector<Ready>& cancelled);
   bool jobWillProduceLocked(std::int64_t n) const;
   void workerMain(const std::string& path);
+  void warmPool();
   void workerLoop();
   void runDemand(std::unique_lock<std::mutex>& lock);
   bool runBackground(std::unique_lock<std::mutex>& lock);
@@ -138,6 +143,7 @@ class FrameServer {
   mutable std::mutex mutex_;
   std::condition_variable wake_;     // the worker waits on it
   std::condition_variable arrived_;  // get() waits on it
+  std::condition_variable idle_;     // the pool warmer waits on it
   std::map<std::int64_t, std::shared_ptr<const DecodedFrame>> cache_;
   std::size_t cachedBytes_ = 0;
   std::int64_t playhead_ = 0;
@@ -149,10 +155,15 @@ class FrameServer {
   std::int64_t jobNext_ = 0;  // next frame the running job will deliver
   std::int64_t jobLast_ = -1;
   FrameServerStats stats_;
+  std::chrono::steady_clock::time_point lastMove_{};
+  double stepMs_ = 0;     // average time between single-frame moves of the playhead
+  int stepSamples_ = 0;   // moves averaged since the last jump
+  double decodeMs_ = 0;   // average decode time per kept frame of recent jobs
   bool started_ = false;  // the worker has opened the file and decoded frame 0
   std::exception_ptr startError_;
   bool stopping_ = false;
-  std::thread worker_;  // last member: starts after everything above exists
+  std::thread worker_;  // after everything above: starts once it exists
+  std::thread warmer_;  // faults the cache's memory in while the clip is being looked at
 };
 
 }  // namespace stridemark::video

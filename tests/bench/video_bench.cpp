@@ -205,8 +205,12 @@ int main(int argc, char** argv) {
   {
     FrameServer server(clip, index, FrameServerOptions{std::size_t{1} << 30, threads, 32});
     std::vector<double> held;
-    auto tick = Clock::now();
-    for (std::int64_t n = count - 1; n >= std::max<std::int64_t>(0, count - 300); --n) {
+    // The cold jump to the last frame comes first; the key is held from when it is shown.
+    const auto jump = Clock::now();
+    server.get(count - 1);
+    held.push_back(msSince(jump));
+    auto tick = Clock::now() + std::chrono::microseconds(33333);
+    for (std::int64_t n = count - 2; n >= std::max<std::int64_t>(0, count - 300); --n) {
       std::this_thread::sleep_until(tick);
       tick += std::chrono::microseconds(33333);
       const auto start = Clock::now();
