@@ -2,6 +2,7 @@
 
 #include <QMouseEvent>
 #include <QPainter>
+#include <QRegion>
 #include <QResizeEvent>
 #include <QWheelEvent>
 #include <algorithm>
@@ -112,7 +113,14 @@ QString Viewer::statusText() const {
 
 void Viewer::paintEvent(QPaintEvent*) {
   QPainter p(this);
-  p.fillRect(rect(), QColor(0x10, 0x10, 0x10));
+  const QColor backdrop(0x10, 0x10, 0x10);
+  if (image_.isNull() || zoom_ != 1.0) {
+    p.fillRect(rect(), backdrop);
+  } else {
+    // Only the margins around the fitted frame: the frame covers the rest.
+    const QRegion margins = QRegion(rect()) - imageRect().toAlignedRect().adjusted(1, 1, -1, -1);
+    for (const QRect& r : margins) p.fillRect(r, backdrop);
+  }
   if (image_.isNull()) {
     p.setPen(QColor(0xcc, 0xcc, 0xcc));
     p.drawText(rect().adjusted(20, 20, -20, -40), Qt::AlignCenter | Qt::TextWordWrap, placeholder_);
