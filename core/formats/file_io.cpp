@@ -46,13 +46,20 @@ std::string readWholeFile(const std::filesystem::path& path) {
     throw Error(ErrorCategory::io, path.string() + ": cannot open (" + systemReason(errno) +
                                        ") — check the path and the file's permissions");
   }
+  // One allocation of the file's size (growing a string by appends copies and faults in
+  // about three times the file); keep reading past it in case the file grew meanwhile.
   std::string content;
-  std::vector<char> chunk(1 << 20);
+  const auto size = std::filesystem::file_size(path, ec);
+  std::size_t filled = 0;
+  content.resize(ec ? std::size_t{1} << 20 : static_cast<std::size_t>(size) + 1);
   while (true) {
-    const std::size_t got = std::fread(chunk.data(), 1, chunk.size(), file.get());
-    content.append(chunk.data(), got);
-    if (got < chunk.size()) break;
+    const std::size_t got =
+        std::fread(content.data() + filled, 1, content.size() - filled, file.get());
+    filled += got;
+    if (filled < content.size()) break;
+    content.resize(content.size() * 2);
   }
+  content.resize(filled);
   if (std::ferror(file.get())) {
     throw Error(ErrorCategory::io, path.string() + ": read failed (" + systemReason(errno) +
                                        ") — check the disk or copy the file elsewhere");
