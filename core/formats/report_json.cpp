@@ -121,19 +121,18 @@ class StrideText {
       field(quotedKey);
       p = number(p, numbers, *v);
     };
-    if (s.quadrant) {
-      field("\"quadrant\":");
-      p = writeJsonString(p, *s.quadrant);
-    }
+    const auto optionalText = [&](std::string_view quotedKey, const std::optional<std::string>& v) {
+      if (!v) return;
+      field(quotedKey);
+      p = writeJsonString(p, *v);
+    };
+    optionalText("\"quadrant\":", s.quadrant);
     optionalNumber("\"hind_duty_factor\":", s.hindDutyFactor);
     optionalNumber("\"limb_phase\":", s.limbPhase);
     optionalNumber("\"dap_ms\":", s.dapMs);
     optionalNumber("\"dap_percent\":", s.dapPercent);
     optionalNumber("\"ipsilateral_lag\":", s.ipsilateralLag);
-    if (s.waveDirection) {
-      field("\"wave_direction\":");
-      p = writeJsonString(p, *s.waveDirection);
-    }
+    optionalText("\"wave_direction\":", s.waveDirection);
     optionalNumber("\"fore_lag\":", s.foreLag);
     optionalNumber("\"hind_lag\":", s.hindLag);
     optionalNumber("\"pair_lag\":", s.pairLag);
