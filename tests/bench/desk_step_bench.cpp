@@ -191,6 +191,17 @@ int main(int argc, char** argv) {
   std::printf("  \"held_key_period_ms\": %.3f,\n", kHeld.count() / 1000.0);
   const QSize shown = w.viewer()->displayPixels();
   std::printf("  \"viewer_pixels\": \"%dx%d\",\n", shown.width(), shown.height());
+  {
+    // What the simulated key press itself costs: an unbound key through the same path.
+    std::vector<double> idle;
+    for (int i = 0; i < 200; ++i) {
+      const auto t = Clock::now();
+      QTest::keyClick(w.windowHandle(), Qt::Key_F20);
+      idle.push_back(msSince(t));
+    }
+    std::sort(idle.begin(), idle.end());
+    std::printf("  \"unbound_key_press_ms\": %.4f,\n", idle[idle.size() / 2]);
+  }
   // Held key (the acceptance lines), then unpaced for information. Each desk run is followed
   // by the engine on the same frames, so both see the same machine load.
   for (const Period period : {kHeld, kUnpaced}) {

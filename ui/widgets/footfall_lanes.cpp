@@ -46,9 +46,21 @@ FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(pa
 }
 
 void FootfallLanes::setPlayhead(std::int64_t frame) {
+  const std::int64_t before = playhead_;
+  const std::int64_t firstBefore = first_;
   playhead_ = frame;
   keepPlayheadVisible();
-  update();
+  if (first_ != firstBefore) {
+    update();  // the view scrolled: everything moved
+    return;
+  }
+  // Only the playhead line moved: repaint the two columns it crosses (a step is a key press;
+  // repainting every lane each time would cost more than showing the frame).
+  const auto ax = axis();
+  for (const std::int64_t f : {before, frame}) {
+    const auto x = static_cast<int>(std::lround(ax.x(static_cast<double>(f) + 0.5)));
+    update(QRect(x - 4, 0, 9, height()));
+  }
 }
 
 void FootfallLanes::setFrameCount(std::int64_t count) {
