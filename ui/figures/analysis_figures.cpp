@@ -2,6 +2,7 @@
 
 #include <QFontMetricsF>
 #include <QPainterPath>
+#include <algorithm>
 #include <array>
 #include <cmath>
 #include <numbers>
@@ -187,7 +188,10 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
         {keepOut, QRectF(px(0, 0.5) - QPointF(0, fp * 0.45), px(1, 0.5) + QPointF(0, fp * 0.45))});
   }
   if (plotted == 0) {
-    drawEmpty(p, plot, style,
+    // Above the walking label, so the message never runs over the 50 % line's labels.
+    const QRectF upper(plot.left(), plot.top(), plot.width(),
+                       std::max(fp * 1.2, px(0, 0.5).y() - fp * 1.3 - plot.top()));
+    drawEmpty(p, upper, style,
               report.limbs.kind() == model::LimbSetKind::quadruped
                   ? QStringLiteral("No complete quadruped strides yet")
                   : QStringLiteral("The Gait map needs a quadruped limb set"));
