@@ -141,7 +141,7 @@ model::VideoLink VideoSource::link() const {
   return link;
 }
 
-QImage VideoSource::recycledImage(QSize size) {
+QImage& VideoSource::recycledImage(QSize size) {
   for (QImage& image : recycled_)
     if (image.size() == size && image.isDetached()) return image;
   // None free at this size: replace one the Viewer does not hold (or the first).
@@ -160,7 +160,9 @@ QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame,
   const QSize full(frame.width(), frame.height());
   const bool smaller = displayPixels_.isValid() && displayPixels_.width() < full.width() &&
                        displayPixels_.height() < full.height();
-  QImage image = recycledImage(smaller ? displayPixels_ : full);
+  // Written in place: the slot is the only holder, so bits() and setDevicePixelRatio() do not
+  // copy (a local copy of the slot would make bits() detach and copy the whole picture).
+  QImage& image = recycledImage(smaller ? displayPixels_ : full);
   const auto stride = static_cast<int>(image.bytesPerLine());
   if (smaller) {
     converter.convertScaled(frame, video::PackedFormat::bgra, image.bits(), stride, image.width(),
@@ -168,8 +170,8 @@ QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame,
   } else {
     converter.convert(frame, video::PackedFormat::bgra, image.bits(), stride);
   }
-  image.setDevicePixelRatio(smaller ? displayRatio_ : 1.0);  // detached: no copy
-  return image;
+  image.setDevicePixelRatio(smaller ? displayRatio_ : 1.0);
+  return image;  // shared with the slot from here on
 }
 
 void VideoSource::setDisplaySize(QSize pixels, qreal devicePixelRatio) {

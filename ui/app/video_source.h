@@ -81,7 +81,7 @@ class VideoSource : public QObject {
   void useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex);
   void switchDisplay(bool proxy);
   QImage toDisplayImage(const video::DecodedFrame& frame, video::FrameConverter& converter);
-  QImage recycledImage(QSize size);
+  QImage& recycledImage(QSize size);  // a slot nobody else holds, of this size
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
                std::exception_ptr error);
 
