@@ -10,6 +10,7 @@
 #include <memory>
 #include <vector>
 
+#include "analysis/huge_pages.h"
 #include "common/error.h"
 
 namespace stridemark::formats {
@@ -51,7 +52,9 @@ std::string readWholeFile(const std::filesystem::path& path) {
   std::string content;
   const auto size = std::filesystem::file_size(path, ec);
   std::size_t filled = 0;
-  content.resize(ec ? std::size_t{1} << 20 : static_cast<std::size_t>(size) + 1);
+  content.reserve(ec ? std::size_t{1} << 20 : static_cast<std::size_t>(size) + 1);
+  analysis::adviseHugePages(content.data(), content.capacity());  // before the first touch
+  content.resize(content.capacity());
   while (true) {
     const std::size_t got =
         std::fread(content.data() + filled, 1, content.size() - filled, file.get());
@@ -67,7 +70,8 @@ std::string readWholeFile(const std::filesystem::path& path) {
   return content;
 }
 
-AtomicFile::AtomicFile(std::filesystem::path target) : target_(std::move(target)) {
+AtomicFile::AtomicFile(std::filesystem::path target, Durability durability)
+    : target_(std::move(target)), durability_(durability) {
   std::filesystem::path folder = target_.parent_path();
   if (folder.empty()) folder = ".";
   std::string pattern = (folder / target_.filename()).string() + ".tmp-XXXXXX";
@@ -106,17 +110,20 @@ void AtomicFile::write(std::string_view bytes) {
 }
 
 void AtomicFile::commit() {
-  if (::fsync(fd_) != 0) fail("could not flush to disk", errno);
+  const bool durable = durability_ == Durability::survivePowerLoss;
+  if (durable && ::fsync(fd_) != 0) fail("could not flush to disk", errno);
   const int closed = ::close(fd_);
   fd_ = -1;
   if (closed != 0) fail("could not close the temporary file", errno);
   if (::rename(temp_.c_str(), target_.c_str()) != 0) fail("could not replace the file", errno);
   committed_ = true;
-  syncFolder(target_.parent_path().empty() ? std::filesystem::path(".") : target_.parent_path());
+  if (durable)
+    syncFolder(target_.parent_path().empty() ? std::filesystem::path(".") : target_.parent_path());
 }
 
-void writeFileAtomically(const std::filesystem::path& path, std::string_view content) {
-  AtomicFile file(path);
+void writeFileAtomically(const std::filesystem::path& path, std::string_view content,
+                         Durability durability) {
+  AtomicFile file(path, durability);
   file.write(content);
   file.commit();
 }

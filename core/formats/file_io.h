@@ -10,27 +10,38 @@ namespace stridemark::formats {
 // Reads a whole file into memory. Throws Error(io) naming the file and the system's reason.
 std::string readWholeFile(const std::filesystem::path& path);
 
+// What a committed file survives. Every write is atomic for readers (they see the old file or the
+// whole new one). The user's work (projects, events CSVs, the journal) must also survive a power
+// cut, which costs an fsync: waiting for the disk. Derived outputs (reports, tables) can be made
+// again from the project in a second, so they skip it: for a 56 MB report the fsync took as
+// long as writing the file (tests/bench/score_bench). The kernel still writes them out soon.
+enum class Durability { survivePowerLoss, regenerable };
+
 // Streams content into a temporary file in the target's folder; commit() makes it the target.
 // Destroying an uncommitted AtomicFile removes the temporary file and leaves the target as it was.
 class AtomicFile {
  public:
-  explicit AtomicFile(std::filesystem::path target);
+  explicit AtomicFile(std::filesystem::path target,
+                      Durability durability = Durability::survivePowerLoss);
   ~AtomicFile();
   AtomicFile(const AtomicFile&) = delete;
   AtomicFile& operator=(const AtomicFile&) = delete;
 
   void write(std::string_view bytes);
-  void commit();  // fsync, close, rename over the target, fsync the folder
+  // fsync (survivePowerLoss), close, rename over the target, fsync the folder (survivePowerLoss)
+  void commit();
 
  private:
   [[noreturn]] void fail(std::string_view what, int errorNumber);
   std::filesystem::path target_;
   std::filesystem::path temp_;
+  Durability durability_;
   int fd_ = -1;
   bool committed_ = false;
 };
 
 // One-shot form of AtomicFile for content already in memory.
-void writeFileAtomically(const std::filesystem::path& path, std::string_view content);
+void writeFileAtomically(const std::filesystem::path& path, std::string_view content,
+                         Durability durability = Durability::survivePowerLoss);
 
 }  // namespace stridemark::formats

@@ -417,7 +417,7 @@ std::string reportJsonText(const Report& report) {
 }
 
 void writeReportJsonFile(const std::filesystem::path& path, const Report& report) {
-  AtomicFile file(path);
+  AtomicFile file(path, Durability::regenerable);  // a report is made again from its input
   JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
   writeReportJson(report, out);
   file.commit();

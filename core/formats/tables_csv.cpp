@@ -295,7 +295,7 @@ std::vector<std::filesystem::path> writeTables(const std::filesystem::path& fold
   std::vector<std::filesystem::path> written;
   for (const auto& [name, text] : tables) {
     written.push_back(folder / name);
-    writeFileAtomically(written.back(), text);
+    writeFileAtomically(written.back(), text, Durability::regenerable);
   }
   return written;
 }

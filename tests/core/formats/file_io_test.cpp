@@ -39,5 +39,36 @@ TEST(FileIo, AtomicSaveKeepsTheOldFilesMode) {
   EXPECT_EQ(testing::readText(path), "new");
 }
 
+// Common practice, no source: a regenerable output skips fsync but is still replaced whole,
+// with no temporary file left beside it.
+TEST(FileIo, RegenerableOutputIsReplacedWholeWithoutLeftovers) {
+  testing::TempFolder folder;
+  const auto path = folder / "report.json";
+  testing::writeText(path, "old report");
+  {
+    AtomicFile file(path, Durability::regenerable);
+    file.write("{\"new\": ");
+    EXPECT_EQ(testing::readText(path), "old report");  // readers see the old file until commit
+    file.write("true}");
+    file.commit();
+  }
+  EXPECT_EQ(testing::readText(path), "{\"new\": true}");
+  std::size_t entries = 0;
+  for ([[maybe_unused]] const auto& entry : std::filesystem::directory_iterator(folder.path()))
+    ++entries;
+  EXPECT_EQ(entries, 1u);
+}
+
+TEST(FileIo, UncommittedRegenerableOutputLeavesTheOldFile) {
+  testing::TempFolder folder;
+  const auto path = folder / "strides.csv";
+  testing::writeText(path, "old");
+  {
+    AtomicFile file(path, Durability::regenerable);
+    file.write("half a tab");
+  }  // e.g. an exception while formatting
+  EXPECT_EQ(testing::readText(path), "old");
+}
+
 }  // namespace
 }  // namespace stridemark::formats
