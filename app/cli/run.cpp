@@ -4,12 +4,14 @@
 #include <iostream>
 
 #include "cli/verbs.h"
+#include "common/batch_memory.h"
 #include "common/error.h"
 #include "stridemark/version.h"
 
 namespace stridemark::cli {
 
 int runCommandLine(int argc, char** argv) {
+  keepFreedMemoryForReuse();  // one short-lived command per process
   CLI::App app{
       "stridemark - score animal locomotion from video tags (headless part of Stridemark).\n"
       "Measurements support, and never replace, examination by a licensed veterinarian."};

@@ -11,6 +11,7 @@
 #include "analysis/analyse.h"
 #include "cli/run.h"
 #include "cli/verbs.h"
+#include "common/batch_memory.h"
 #include "common/error.h"
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
@@ -161,13 +162,20 @@ void writeJsonToStdout(const analysis::Report& report) {
   std::fflush(stdout);
 }
 
+model::Project loadInput(const ScoreOptions& options) {
+  const std::filesystem::path inputPath(options.input);
+  const std::string content = formats::readWholeFile(inputPath);
+  return isProjectText(inputPath, content) ? loadProject(options, content)
+                                           : loadEventsCsv(options, content);
+}  // the file's text is freed here, before analysis needs the memory
+
 int runScore(const ScoreOptions& options) {
   try {
-    const std::filesystem::path inputPath(options.input);
-    const std::string content = formats::readWholeFile(inputPath);
-    const model::Project project = isProjectText(inputPath, content)
-                                       ? loadProject(options, content)
-                                       : loadEventsCsv(options, content);
+    std::error_code unknownSize;
+    const auto inputBytes = std::filesystem::file_size(options.input, unknownSize);
+    HeapWarmup warmup(unknownSize ? 0 : kScoreHeapPerInputByte * inputBytes);
+    const model::Project project = loadInput(options);
+    warmup.finish();  // analysis takes over the (warmed) memory
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
     if (!options.json.empty()) {
