@@ -10,6 +10,7 @@
 #include "analysis/gait.h"
 #include "analysis/hildebrand.h"
 #include "analysis/huge_pages.h"
+#include "analysis/parallel.h"
 #include "analysis/phase.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
@@ -157,31 +158,19 @@ class TrackCursor {
 class StrideBuilder {
  public:
   StrideBuilder(const model::Annotation& annotation, const AnalysisOptions& options,
-                const CycleScan& scan, SupportTimeline& timeline)
-      : limbs_(annotation.limbs),
-        fps_(annotation.captureRate),
-        options_(options),
-        timeline_(timeline) {
+                const CycleScan& scan)
+      : limbs_(annotation.limbs), fps_(annotation.captureRate), options_(options) {
     cursors_.reserve(scan.tracks.size());
     for (const LimbTrack& track : scan.tracks) cursors_.emplace_back(track);
   }
 
-  // Fills `s` in place (the report's vector owns it: no per-stride temporaries).
+  // Fills `s` in place (the report's vector owns it: no per-stride temporaries). Support and
+  // suspension come from the support sweep (strideSupport()), which runs beside this.
   void build(const LimbCycle& reference, StrideRecord& s) {
     s.startFrame = reference.touchdown;
     s.endFrame = reference.nextTouchdown;
     s.durationS = framesToSeconds(reference.strideFrames(), fps_);
     fillLimbs(s);
-    if (options_.strideSupport) {
-      SupportShares support = timeline_.window(s.startFrame, s.endFrame);
-      s.aerial = support.aerial;
-      if (support.complete) {
-        s.supportByCount = std::move(support.byCount);
-        s.supportByCombination = std::move(support.byCombination);
-      }
-    } else {
-      s.aerial = timeline_.flags(s.startFrame, s.endFrame).aerial;
-    }
     const double tau =
         std::max(options_.asymmetricTau,
                  options_.minTauFrames / static_cast<double>(reference.strideFrames()));
@@ -337,28 +326,76 @@ class StrideBuilder {
   const model::LimbSet& limbs_;
   Rational fps_;
   const AnalysisOptions& options_;
-  SupportTimeline& timeline_;
   std::vector<TrackCursor> cursors_;  // per limb
   // Per limb, for the stride being built: first touchdown in the window and the cycle it starts.
   std::vector<std::optional<std::int64_t>> firsts_;
   std::vector<const LimbCycle*> firstCycles_;
 };
 
+// Each stride's support shares (or only its suspension flag) and the shares over the whole
+// trial: one sweep of every limb's states, in stride order.
+struct SupportResults {
+  std::vector<SupportShares> perStride;  // when options.strideSupport
+  std::vector<char> aerial;              // otherwise
+  SupportShares overall;
+};
+
+SupportResults sweepSupport(const model::Annotation& annotation, const AnalysisOptions& options,
+                            const CycleScan& scan, std::span<const LimbCycle* const> strides) {
+  SupportTimeline timeline(annotation.limbs, scan.tracks);
+  SupportResults out;
+  if (options.strideSupport) {
+    out.perStride.reserve(strides.size());
+    for (const LimbCycle* c : strides)
+      out.perStride.push_back(timeline.window(c->touchdown, c->nextTouchdown));
+  } else {
+    out.aerial.reserve(strides.size());
+    for (const LimbCycle* c : strides)
+      out.aerial.push_back(timeline.flags(c->touchdown, c->nextTouchdown).aerial);
+  }
+  out.overall = timeline.overall();
+  return out;
+}
+
 // Reference strides (those touching an annotation problem are left out) and support shares.
+// The support sweep and the per-stride measures read the same tracks and run side by side.
 void buildStrides(const model::Annotation& annotation, const AnalysisOptions& options,
                   const CycleScan& scan, Report& report) {
-  SupportTimeline timeline(annotation.limbs, scan.tracks);
   const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
-  StrideBuilder builder(annotation, options, scan, timeline);
-  const auto& referenceCycles = scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles;
-  reserveHuge(report.strides, referenceCycles.size());
-  for (const LimbCycle& cycle : referenceCycles) {
-    if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
-    builder.build(cycle, report.strides.emplace_back());
+  std::vector<const LimbCycle*> kept;
+  for (const LimbCycle& cycle : scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles)
+    if (!touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) kept.push_back(&cycle);
+  if (report.strides.capacity() < kept.size()) reserveHuge(report.strides, kept.size());
+  SupportResults support;
+  runBoth([&] { support = sweepSupport(annotation, options, scan, kept); },
+          [&] {
+            StrideBuilder builder(annotation, options, scan);
+            for (const LimbCycle* cycle : kept)
+              builder.build(*cycle, report.strides.emplace_back());
+          });
+  for (std::size_t i = 0; i < kept.size(); ++i) {
+    StrideRecord& s = report.strides[i];
+    if (!options.strideSupport) {
+      s.aerial = support.aerial[i] != 0;
+      continue;
+    }
+    SupportShares& shares = support.perStride[i];
+    s.aerial = shares.aerial;
+    if (shares.complete) {
+      s.supportByCount = std::move(shares.byCount);
+      s.supportByCombination = std::move(shares.byCombination);
+    }
   }
-  SupportShares overall = timeline.overall();
-  report.support = std::move(overall.byCount);
-  report.supportByCombination = std::move(overall.byCombination);
+  report.support = std::move(support.overall.byCount);
+  report.supportByCombination = std::move(support.overall.byCombination);
+}
+
+// At most one stride per touchdown of the reference limb.
+std::size_t strideBound(const model::Annotation& annotation, int reference) {
+  return static_cast<std::size_t>(std::count_if(
+      annotation.events.begin(), annotation.events.end(), [reference](const model::Event& e) {
+        return e.limb == reference && e.kind == model::EventKind::touchdown;
+      }));
 }
 
 }  // namespace
@@ -371,6 +408,9 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.fps = annotation.captureRate;
   report.referenceLimb = reference;
 
+  // Room for every stride, faulted in on another thread while the cycles are scanned.
+  reserveHuge(report.strides, strideBound(annotation, reference));
+  const BackgroundPrefault strideMemory = prefaultCapacity(report.strides);
   CycleScan scan = scanCycles(annotation);
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   buildStrides(annotation, options, scan, report);

@@ -4,16 +4,21 @@
 #include <string>
 
 #include "analysis/huge_pages.h"
+#include "analysis/parallel.h"
 
 namespace stridemark::analysis {
 namespace {
 
 using model::EventKind;
 
+// 8 bytes instead of 16: a long annotation holds one per event.
 struct Tag {
-  std::int64_t frame = 0;
-  EventKind kind = EventKind::touchdown;
+  Tag() = default;
+  Tag(std::int64_t f, EventKind k) : frame(f), kind(k) {}
+  std::int64_t frame : 62 = 0;
+  EventKind kind : 2 = EventKind::touchdown;  // 2 bits: the enum's type is signed
 };
+static_assert(sizeof(Tag) == 8);
 
 enum class PairStatus : std::uint8_t { ok, occluded, bad };
 
@@ -71,10 +76,19 @@ void appendVisible(const std::vector<StateInterval>& hidden, StateInterval inter
   if (cursor < interval.end) out.push_back({cursor, interval.end, interval.stance});
 }
 
+// One limb's slice of the shared cycle vector: limbs are scanned in parallel, each writing
+// into room sized for its tags, and the slices are closed up afterwards.
+struct CycleSlice {
+  LimbCycle* data = nullptr;
+  std::size_t room = 0;
+  std::size_t count = 0;
+  void push(const LimbCycle& cycle) { data[count++] = cycle; }  // room >= tags / 2 + 1 >= count
+};
+
 class LimbScanner {
  public:
   LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems,
-              std::vector<LimbCycle>& cycles)
+              CycleSlice& cycles)
       : annotation_(annotation), limb_(limb), problems_(problems), cycles_(cycles) {
     hidden_ = hiddenIntervals(annotation, limb, problems);
   }
@@ -215,14 +229,14 @@ class LimbScanner {
       LimbCycle cycle{limb_, tags[i].frame, std::nullopt, tags[next].frame};
       if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
         cycle.liftoff = tags[i + 1].frame;
-      cycles_.push_back(cycle);
+      cycles_.push(cycle);
     }
   }
 
   const model::Annotation& annotation_;
   int limb_;
   std::vector<Problem>& problems_;
-  std::vector<LimbCycle>& cycles_;  // shared by all limbs; this limb's are appended
+  CycleSlice& cycles_;
   std::vector<StateInterval> hidden_;
   LimbTrack track_;
 };
@@ -258,20 +272,32 @@ CycleScan scanCycles(const model::Annotation& annotation) {
                                  " limb set does not have; it was "
                                  "ignored"});
   }
-  scan.tracks.reserve(tags.size());
+  // Each limb gets room for tags / 2 + 1 cycles at its own offset (a cycle starts at a
+  // touchdown); limbs are scanned in parallel, then their cycles are closed up in limb order.
+  std::vector<CycleSlice> slices(tags.size());
   std::size_t cycleRoom = 0;
-  for (const std::size_t n : perLimb) cycleRoom += n / 2 + 1;
+  for (std::size_t i = 0; i < tags.size(); ++i) cycleRoom += slices[i].room = perLimb[i] / 2 + 1;
   reserveHuge(scan.cycles, cycleRoom);
-  std::vector<std::size_t> firstCycle;
-  for (int limb = 0; limb < limbCount; ++limb) {
-    firstCycle.push_back(scan.cycles.size());
-    LimbScanner scanner(annotation, limb, scan.problems, scan.cycles);
-    scan.tracks.push_back(scanner.scan(std::move(tags[static_cast<std::size_t>(limb)])));
+  scan.cycles.resize(cycleRoom);
+  for (std::size_t i = 0, offset = 0; i < slices.size(); offset += slices[i++].room)
+    slices[i].data = scan.cycles.data() + offset;
+  scan.tracks.resize(tags.size());
+  std::vector<std::vector<Problem>> limbProblems(tags.size());
+  forEachParallel(tags.size(), [&](std::size_t i) {
+    LimbScanner scanner(annotation, static_cast<int>(i), limbProblems[i], slices[i]);
+    scan.tracks[i] = scanner.scan(std::move(tags[i]));
+  });
+  std::size_t kept = 0;
+  for (std::size_t i = 0; i < slices.size(); ++i) {
+    if (slices[i].data != scan.cycles.data() + kept)  // slices only move towards the front
+      std::copy_n(slices[i].data, slices[i].count, scan.cycles.data() + kept);
+    scan.tracks[i].cycles = std::span<const LimbCycle>(scan.cycles.data() + kept, slices[i].count);
+    kept += slices[i].count;
   }
-  firstCycle.push_back(scan.cycles.size());
-  for (std::size_t i = 0; i < scan.tracks.size(); ++i)  // now that scan.cycles stays put
-    scan.tracks[i].cycles = std::span<const LimbCycle>(scan.cycles.data() + firstCycle[i],
-                                                       firstCycle[i + 1] - firstCycle[i]);
+  scan.cycles.resize(kept);
+  for (auto& problems : limbProblems)
+    scan.problems.insert(scan.problems.end(), std::make_move_iterator(problems.begin()),
+                         std::make_move_iterator(problems.end()));
   std::stable_sort(scan.problems.begin(), scan.problems.end(),
                    [](const Problem& a, const Problem& b) {
                      if (a.frame != b.frame) return a.frame < b.frame;
