@@ -14,6 +14,7 @@
 #include <filesystem>
 
 #include "tests/support/process.h"
+#include "tests/ui/frame_reference.h"
 #include "tests/ui/test_support.h"
 #include "ui/app/video_source.h"
 #include "ui/main_window.h"
@@ -44,42 +45,11 @@ fs::path makeLongGopClip(const fs::path& dir) {
   return clip;
 }
 
-// Frame n of the source as the ffmpeg CLI decodes it, as BGRA (Source: ffmpeg's own decoder
-// and swscale, outside the project).
 QImage ffmpegFrame(const fs::path& clip, int n, const fs::path& dir) {
-  const fs::path raw = dir / ("ref" + std::to_string(n) + ".bgra");
-  const auto r = runShell("ffmpeg -v error -y -i " + shellQuote(clip.string()) + " -vf " +
-                          shellQuote("select=eq(n\\," + std::to_string(n) + ")") +
-                          " -fps_mode passthrough -frames:v 1 -f rawvideo -pix_fmt bgra " +
-                          shellQuote(raw.string()));
-  EXPECT_EQ(r.exitCode, 0) << r.err;
-  const std::string bytes = testsupport::readText(raw);
-  EXPECT_EQ(bytes.size(), static_cast<std::size_t>(kWidth * kHeight * 4));
-  if (bytes.size() != static_cast<std::size_t>(kWidth * kHeight * 4)) return {};
-  QImage image(kWidth, kHeight, QImage::Format_RGB32);
-  for (int y = 0; y < kHeight; ++y)
-    std::memcpy(image.scanLine(y), bytes.data() + static_cast<std::ptrdiff_t>(y) * kWidth * 4,
-                static_cast<std::size_t>(kWidth) * 4);
-  return image;
+  return test::ffmpegFrameBgra(clip, n, kWidth, kHeight, dir);
 }
 
-// PSNR over the R, G and B channels. Source: the usual definition, 10·log10(255² / MSE).
-double psnr(const QImage& a, const QImage& b) {
-  if (a.size() != b.size() || a.isNull()) return 0;
-  double sum = 0;
-  for (int y = 0; y < a.height(); ++y) {
-    const auto* pa = reinterpret_cast<const QRgb*>(a.constScanLine(y));
-    const auto* pb = reinterpret_cast<const QRgb*>(b.constScanLine(y));
-    for (int x = 0; x < a.width(); ++x) {
-      const double dr = qRed(pa[x]) - qRed(pb[x]);
-      const double dg = qGreen(pa[x]) - qGreen(pb[x]);
-      const double db = qBlue(pa[x]) - qBlue(pb[x]);
-      sum += dr * dr + dg * dg + db * db;
-    }
-  }
-  const double mse = sum / (3.0 * a.width() * a.height());
-  return mse <= 0 ? 99.0 : 10.0 * std::log10(255.0 * 255.0 / mse);
-}
+using test::psnr;
 
 std::vector<fs::path> filesIn(const fs::path& dir) {
   std::vector<fs::path> files;

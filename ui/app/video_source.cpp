@@ -1,12 +1,15 @@
 #include "ui/app/video_source.h"
 
+#include <QCoreApplication>
 #include <QCryptographicHash>
 #include <QDir>
+#include <QEvent>
 #include <QMetaObject>
 #include <QPointer>
 #include <QStandardPaths>
 #include <algorithm>
 #include <cstdio>
+#include <cstdlib>
 
 #include "common/error.h"
 #include "ui/app/proxy_builder.h"
@@ -114,6 +117,7 @@ void VideoSource::setStepOnProxy(bool on) {
 }
 
 void VideoSource::switchDisplay(bool proxy) {
+  dropPrepared();
   server_->setBudget(proxy ? std::min(options_.budgetBytes, kIdleSourceBudget)
                            : options_.budgetBytes);
   // Same frame numbers on both: ask the new display server for the frame the user waits for.
@@ -177,6 +181,7 @@ QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame,
 void VideoSource::setDisplaySize(QSize pixels, qreal devicePixelRatio) {
   if (pixels == displayPixels_ && devicePixelRatio == displayRatio_) return;
   displayPixels_ = pixels;
+  dropPrepared();
   displayRatio_ = devicePixelRatio;
   if (wanted_ >= 0) request(wanted_);
 }
@@ -189,6 +194,7 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
     // converter by origin, told apart by pixel format.
     const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
     emit frameReady(n, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_));
+    noteShown(n);
   } else if (error) {
     try {
       std::rethrow_exception(error);
@@ -200,6 +206,7 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
 
 void VideoSource::request(std::int64_t frame) {
   wanted_ = frame;
+  if (takePrepared(frame)) return;
   auto& server = display();
   if (auto cached = server.tryGet(frame)) {
     deliver(frame, std::move(cached), nullptr);
@@ -217,6 +224,57 @@ void VideoSource::request(std::int64_t frame) {
         },
         Qt::QueuedConnection);
   });
+}
+
+namespace {
+
+// Posted below the priority of widget repaints (Qt::LowEventPriority), so the picture of the
+// next frame is made after the current one is on screen, never before.
+const QEvent::Type kPrepareAhead = static_cast<QEvent::Type>(QEvent::registerEventType());
+constexpr int kAfterRepaint = Qt::LowEventPriority - 1;
+
+}  // namespace
+
+void VideoSource::noteShown(std::int64_t frame) {
+  previous_ = shown_;
+  shown_ = frame;
+  if (prepareQueued_) return;
+  prepareQueued_ = true;
+  QCoreApplication::postEvent(this, new QEvent(kPrepareAhead), kAfterRepaint);
+}
+
+bool VideoSource::event(QEvent* event) {
+  if (event->type() != kPrepareAhead) return QObject::event(event);
+  prepareQueued_ = false;
+  prepareAhead();
+  return true;
+}
+
+void VideoSource::prepareAhead() {
+  // Steps and playback move by a few frames; a jump says nothing about the next frame.
+  constexpr std::int64_t kLongestStride = 16;  // Shift+arrow steps, 1x playback ticks
+  const std::int64_t stride = shown_ - previous_;
+  if (previous_ < 0 || stride == 0 || std::abs(stride) > kLongestStride) return;
+  const std::int64_t next = shown_ + stride;
+  if (next < 0 || next >= info_.frameCount || next == prepared_.frame) return;
+  // Only a frame the decoder has ready: asking for one would replace the user's request.
+  const auto frame = display().tryGet(next);
+  if (!frame) return;
+  const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
+  prepared_ = {next, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_)};
+}
+
+bool VideoSource::takePrepared(std::int64_t frame) {
+  if (frame != prepared_.frame) {
+    dropPrepared();  // only ever useful for the very next request
+    return false;
+  }
+  const QImage image = std::move(prepared_.image);
+  dropPrepared();
+  ++preparedShown_;
+  emit frameReady(frame, image);
+  noteShown(frame);
+  return true;
 }
 
 QImage VideoSource::frameNow(std::int64_t frame) {

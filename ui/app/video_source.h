@@ -51,6 +51,10 @@ class VideoSource : public QObject {
   void setDisplaySize(QSize pixels, qreal devicePixelRatio);
   // The display server's statistics (the proxy's once it is in use).
   video::FrameServerStats stats() const { return display().stats(); }
+  // Requests answered with a picture made ahead (see prepareAhead), and the frame whose picture
+  // is ready now (-1: none). For tests and the stepping benchmark.
+  std::int64_t preparedShown() const { return preparedShown_; }
+  std::int64_t preparedFrame() const { return prepared_.frame; }
 
   // --- stepping proxy ---
   // True when backward steps would stall at this cache budget (long keyframe intervals).
@@ -84,6 +88,15 @@ class VideoSource : public QObject {
   QImage& recycledImage(QSize size);  // a slot nobody else holds, of this size
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
                std::exception_ptr error);
+  // Display pictures are made ahead in the direction of travel: after frame n is shown, the
+  // picture of n + (n - previous) is converted while the user looks at n, if that frame is
+  // decoded already, so the next step only paints. Holding a step key shows frames at the
+  // speed of painting instead of painting plus converting.
+  void prepareAhead();
+  bool takePrepared(std::int64_t frame);  // shows the prepared picture if it is `frame`'s
+  void dropPrepared() { prepared_ = {}; }
+  void noteShown(std::int64_t frame);  // queues prepareAhead() behind the paint
+  bool event(QEvent* event) override;
 
   QString path_;
   std::shared_ptr<const video::FrameIndex> index_;
@@ -102,8 +115,18 @@ class VideoSource : public QObject {
   qreal displayRatio_ = 1.0;
   // Pictures handed out before: one the Viewer no longer holds is refilled instead of
   // allocating (and page-faulting) 8 MB per 1080p step.
-  std::array<QImage, 3> recycled_;
+  // (One more than the Viewer's picture, the prepared one and the one being made.)
+  std::array<QImage, 4> recycled_;
   std::int64_t wanted_ = -1;  // newest request; older answers are dropped
+  struct Prepared {
+    std::int64_t frame = -1;
+    QImage image;
+  };
+  Prepared prepared_;        // the picture made ahead, for the current server and size
+  std::int64_t shown_ = -1;  // the last frame handed out, and the one before it
+  std::int64_t previous_ = -1;
+  bool prepareQueued_ = false;
+  std::int64_t preparedShown_ = 0;
 };
 
 }  // namespace stridemark::ui
