@@ -11,7 +11,6 @@
 #include "analysis/analyse.h"
 #include "cli/run.h"
 #include "cli/verbs.h"
-#include "common/batch_memory.h"
 #include "common/error.h"
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
@@ -171,11 +170,7 @@ model::Project loadInput(const ScoreOptions& options) {
 
 int runScore(const ScoreOptions& options) {
   try {
-    std::error_code unknownSize;
-    const auto inputBytes = std::filesystem::file_size(options.input, unknownSize);
-    HeapWarmup warmup(unknownSize ? 0 : kScoreHeapPerInputByte * inputBytes);
     const model::Project project = loadInput(options);
-    warmup.finish();  // analysis takes over the (warmed) memory
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
     if (!options.json.empty()) {

@@ -390,14 +390,6 @@ void buildStrides(const model::Annotation& annotation, const AnalysisOptions& op
   report.supportByCombination = std::move(support.overall.byCombination);
 }
 
-// At most one stride per touchdown of the reference limb.
-std::size_t strideBound(const model::Annotation& annotation, int reference) {
-  return static_cast<std::size_t>(std::count_if(
-      annotation.events.begin(), annotation.events.end(), [reference](const model::Event& e) {
-        return e.limb == reference && e.kind == model::EventKind::touchdown;
-      }));
-}
-
 }  // namespace
 
 Report analyse(const model::Annotation& annotation, const AnalysisOptions& options) {
@@ -408,9 +400,6 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.fps = annotation.captureRate;
   report.referenceLimb = reference;
 
-  // Room for every stride, faulted in on another thread while the cycles are scanned.
-  reserveHuge(report.strides, strideBound(annotation, reference));
-  const BackgroundPrefault strideMemory = prefaultCapacity(report.strides);
   CycleScan scan = scanCycles(annotation);
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   buildStrides(annotation, options, scan, report);

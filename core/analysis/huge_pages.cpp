@@ -6,8 +6,6 @@
 #include <sys/mman.h>
 #endif
 
-#include "common/batch_memory.h"
-
 namespace stridemark::analysis {
 
 void adviseHugePages(void* data, std::size_t bytes) {
@@ -24,11 +22,6 @@ void adviseHugePages(void* data, std::size_t bytes) {
   static_cast<void>(data);
   static_cast<void>(bytes);
 #endif
-}
-
-BackgroundPrefault::BackgroundPrefault(void* data, std::size_t bytes) {
-  if (data == nullptr || bytes < kHugePage || std::thread::hardware_concurrency() < 2) return;
-  worker_ = std::jthread([data, bytes] { populatePages(data, bytes); });
 }
 
 }  // namespace stridemark::analysis

@@ -8,7 +8,6 @@
 #include <cstdlib>
 #include <memory>
 #include <new>
-#include <thread>
 #include <vector>
 
 namespace stridemark::analysis {
@@ -68,26 +67,5 @@ struct HugePageAllocator {
 
 template <typename T>
 using HugeVector = std::vector<T, HugePageAllocator<T>>;
-
-// Faults in [data, data + bytes) on a second thread while the caller computes, so a buffer that
-// will be filled later costs no page faults on the critical path (the faults, not the filling,
-// were the larger part of building 10^5 stride records). Joins on destruction. Only a hint: a
-// kernel without MADV_POPULATE_WRITE or a small buffer gets nothing.
-class BackgroundPrefault {
- public:
-  BackgroundPrefault() = default;
-  BackgroundPrefault(void* data, std::size_t bytes);
-  BackgroundPrefault(BackgroundPrefault&&) = default;
-  BackgroundPrefault& operator=(BackgroundPrefault&&) = default;
-
- private:
-  std::jthread worker_;
-};
-
-// The reserved capacity of `values` (call right after reserve, before filling).
-template <typename T, typename A>
-BackgroundPrefault prefaultCapacity(std::vector<T, A>& values) {
-  return BackgroundPrefault(static_cast<void*>(values.data()), values.capacity() * sizeof(T));
-}
 
 }  // namespace stridemark::analysis

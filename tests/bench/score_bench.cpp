@@ -1,19 +1,22 @@
 // Benchmark (not a ctest): `stridemark score --json OUT` on a 1,000,000-event quadruped events
-// CSV versus merely parsing the same CSV with our reader (readEventsCsv alone, one thread). Each
-// measured run is a fresh process (this program re-executed with --child), as a real `stridemark
-// score` is: measured in one long-lived process, whichever step ran first left the allocator's free
-// memory to the other, and the ratio swung by 2x with no change in the code. Parse and score runs
-// are interleaved. Both children set up memory as the `stridemark` command does
-// (keepFreedMemoryForReuse), and the score child warms the heap on the second core while it parses,
-// as the verb does. Each score run writes a new report file, as a first scoring does: the previous
-// run's report is deleted before the child starts (on a disk mounted with `discard`, replacing a 56
-// MB file costs another ~20 ms in rename(); that is a cost of overwriting, not of scoring). Every
-// child starts after sync() and a pause: the report is not fsynced (a regenerable output, see
-// formats/file_io.h), so its write-back would otherwise land in whichever child runs next; and in
-// a virtual machine, memory a process frees returns to the host with a delay, so a child started
-// at once would fault in pages at a different cost depending on which child ran before it.
-// Prints {"parse_s", "score_s", "ratio", "peak_rss_mb", ...}; medians of the runs. CPU times
-// are the child's process CPU time (every thread, user + system) over the measured work only.
+// CSV versus merely parsing the same CSV with our reader (readEventsCsv alone, one thread).
+// - Each measured run is a fresh process (this program re-executed with --child), as a real
+//   `stridemark score` is: in one long-lived process, whichever step ran first left the
+//   allocator's free memory to the other, and the ratio swung by 2x with no change in the code.
+// - Parse and score runs are interleaved. Both children set up memory as the `stridemark`
+//   command does (keepFreedMemoryForReuse).
+// - Each score run writes a new report file, as a first scoring does: the previous run's report
+//   is deleted before the child starts (on a disk mounted with `discard`, replacing a 56 MB file
+//   costs another ~20 ms in rename(); a cost of overwriting, not of scoring).
+// - Every child starts after sync() and a 3 s pause: the report is not fsynced (a regenerable
+//   output, see formats/file_io.h), so its write-back would otherwise land in whichever child
+//   runs next; and in a virtual machine with free page reporting, memory a process frees goes
+//   back to the host 2 s later. With a shorter pause the parse child (run after a score child)
+//   got warm pages and the score child cold ones: the first score run after a parse took twice
+//   as long as an identical one run next. Both now start cold, as a single command does.
+// Prints {"parse_s", "score_s", "ratio", "peak_rss_mb", ...}: medians of the runs. CPU times
+// are the child's process CPU time (every thread, user + system) over the measured work only;
+// *_s stage times are wall time.
 // Targets (issue 2): ratio <= 2.0, peak RSS < 300 MB.
 // Usage: score_bench [runs=7] [strides-per-limb=125000]
 #include <sys/resource.h>
@@ -97,7 +100,6 @@ Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
   Sample out;
   const auto start = Clock::now();
   const double cpu0 = cpuSeconds();
-  HeapWarmup warmup(kScoreHeapPerInputByte * fs::file_size(csvPath));  // as the verb does
   formats::EventsCsvOptions options;
   options.captureRate = Rational{250, 1};
   options.limbs = model::LimbSet::quadruped();
@@ -107,7 +109,6 @@ Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
     formats::EventsCsv csv = formats::parseEventsCsv(content, csvPath.string(), options);
     project.annotation = formats::toAnnotation(std::move(csv));
   }  // the text is freed before analysis, as in the verb
-  warmup.finish();
   const double cpu1 = cpuSeconds();
   const auto read = Clock::now();
   analysis::AnalysisOptions analysisOptions;
@@ -150,10 +151,11 @@ double peakRssMb() {
 // Runs `self --child MODE CSV JSON` and reads back its Sample.
 Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
                 const fs::path& jsonPath) {
-  // The same start for every run (see the top of this file): a quiet disk, and a pause so the
-  // memory the previous child freed has gone back to the host before this one runs.
+  // The same start for every run (see the top of this file): a quiet disk, and a pause longer
+  // than the kernel's free page reporting delay (2 s), so the memory the previous child freed
+  // has gone back to the host and every child starts equally cold.
   ::sync();
-  ::usleep(700'000);
+  ::sleep(3);
   int pipeFds[2];
   if (::pipe(pipeFds) != 0) std::abort();
   const pid_t pid = ::fork();
