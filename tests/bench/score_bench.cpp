@@ -18,7 +18,7 @@
 // are the child's process CPU time (every thread, user + system) over the measured work only;
 // *_s stage times are wall time.
 // Targets (issue 2): ratio <= 2.0, peak RSS < 300 MB.
-// Usage: score_bench [runs=7] [strides-per-limb=125000]
+// Usage: score_bench [runs=7] [strides-per-limb=125000] [pause-seconds=3]   (0: smoke test)
 #include <sys/resource.h>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -150,12 +150,12 @@ double peakRssMb() {
 
 // Runs `self --child MODE CSV JSON` and reads back its Sample.
 Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
-                const fs::path& jsonPath) {
+                const fs::path& jsonPath, unsigned pauseSeconds) {
   // The same start for every run (see the top of this file): a quiet disk, and a pause longer
   // than the kernel's free page reporting delay (2 s), so the memory the previous child freed
   // has gone back to the host and every child starts equally cold.
   ::sync();
-  ::sleep(3);
+  ::sleep(pauseSeconds);
   int pipeFds[2];
   if (::pipe(pipeFds) != 0) std::abort();
   const pid_t pid = ::fork();
@@ -200,6 +200,7 @@ int main(int argc, char** argv) {
   if (argc == 5 && std::string(argv[1]) == "--child") return childMain(argv[2], argv[3], argv[4]);
   const int runs = std::max(5, argc > 1 ? std::atoi(argv[1]) : 7);
   const int stridesPerLimb = argc > 2 ? std::atoi(argv[2]) : 125000;
+  const auto pause = static_cast<unsigned>(argc > 3 ? std::max(0, std::atoi(argv[3])) : 3);
   const fs::path folder = fs::temp_directory_path() / ("score_bench-" + std::to_string(::getpid()));
   fs::create_directories(folder);
   const fs::path csvPath = folder / "trot.csv";
@@ -215,9 +216,9 @@ int main(int argc, char** argv) {
   std::vector<double> readWall, analyseWall, writeWall;
   std::size_t strides = 0, parsed = 0;
   for (int run = 0; run < runs; ++run) {
-    const Sample p = runChild(self.c_str(), "parse", csvPath, jsonPath);
+    const Sample p = runChild(self.c_str(), "parse", csvPath, jsonPath, pause);
     fs::remove(jsonPath);
-    const Sample s = runChild(self.c_str(), "score", csvPath, jsonPath);
+    const Sample s = runChild(self.c_str(), "score", csvPath, jsonPath, pause);
     parsed = p.count;
     strides = s.count;
     parse.push_back(p.wall);
