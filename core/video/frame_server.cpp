@@ -167,6 +167,12 @@ std::shared_ptr<const DecodedFrame> FrameServer::tryGet(std::int64_t n) {
   return lookupOrDemand(n, none);
 }
 
+std::shared_ptr<const DecodedFrame> FrameServer::peek(std::int64_t n) const {
+  std::lock_guard lock(mutex_);
+  const auto it = cache_.find(n);
+  return it == cache_.end() ? nullptr : it->second;
+}
+
 void FrameServer::request(std::int64_t n, Callback done) {
   auto found = lookupOrDemand(n, done);
   if (found && done) done(n, std::move(found), nullptr);

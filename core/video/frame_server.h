@@ -74,6 +74,10 @@ class FrameServer {
   std::shared_ptr<const DecodedFrame> get(std::int64_t n);
   // Non-blocking: the cached frame or null. Moves the playhead (so decode-ahead follows).
   std::shared_ptr<const DecodedFrame> tryGet(std::int64_t n);
+  // The cached frame or null, changing nothing: no playhead move (the step pace and the
+  // decode-ahead follow the user's steps only), no decoding asked for, no hit or miss counted.
+  // For work done ahead of the user, such as preparing the next frame's picture.
+  std::shared_ptr<const DecodedFrame> peek(std::int64_t n) const;
   // Non-blocking: moves the playhead to n; `done` runs on the worker when the frame is ready
   // (immediately on the caller's thread if it is cached). A later request to another frame
   // cancels this one: `done` then receives a null frame and a null exception.

@@ -76,8 +76,12 @@ TEST(PrepareAhead, ContinuedStepsGetTheRightPictureAtOnce) {
   rec.show(11);  // a step of +1: the picture of 12 is made behind the paint
   EXPECT_EQ(source.preparedFrame(), 12);
   const auto madeAhead = source.preparedShown();
+  const auto lookups = source.stats().hits + source.stats().misses;
   EXPECT_TRUE(rec.show(12));
   EXPECT_EQ(source.preparedShown(), madeAhead + 1);
+  // The server still followed the step (its decode-ahead and refills plan from the user's
+  // frame): one look-up for frame 12, and none for making the picture ahead.
+  EXPECT_EQ(source.stats().hits + source.stats().misses, lookups + 1);
   expectFrame(rec.picture, clip, 12, tmp.path());
 
   // Backwards: 12 -> 11 is a step of -1, so 10 is made ahead.

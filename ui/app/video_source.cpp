@@ -206,8 +206,15 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
 
 void VideoSource::request(std::int64_t frame) {
   wanted_ = frame;
-  if (takePrepared(frame)) return;
   auto& server = display();
+  if (frame == prepared_.frame) {
+    // The picture is ready; the server must still follow the user's step (decode-ahead and
+    // backward refills are planned from its playhead, the step pace from its moves).
+    server.tryGet(frame);
+    showPrepared();
+    return;
+  }
+  dropPrepared();  // a picture made ahead is only ever useful for the very next request
   if (auto cached = server.tryGet(frame)) {
     deliver(frame, std::move(cached), nullptr);
     return;
@@ -257,24 +264,21 @@ void VideoSource::prepareAhead() {
   if (previous_ < 0 || stride == 0 || std::abs(stride) > kLongestStride) return;
   const std::int64_t next = shown_ + stride;
   if (next < 0 || next >= info_.frameCount || next == prepared_.frame) return;
-  // Only a frame the decoder has ready: asking for one would replace the user's request.
-  const auto frame = display().tryGet(next);
+  // Only a frame the decoder has ready, looked up without moving the server's playhead: asking
+  // would replace the user's request, and a move would count as a (very fast) user step.
+  const auto frame = display().peek(next);
   if (!frame) return;
   const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
   prepared_ = {next, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_)};
 }
 
-bool VideoSource::takePrepared(std::int64_t frame) {
-  if (frame != prepared_.frame) {
-    dropPrepared();  // only ever useful for the very next request
-    return false;
-  }
+void VideoSource::showPrepared() {
+  const std::int64_t frame = prepared_.frame;
   const QImage image = std::move(prepared_.image);
   dropPrepared();
   ++preparedShown_;
   emit frameReady(frame, image);
   noteShown(frame);
-  return true;
 }
 
 QImage VideoSource::frameNow(std::int64_t frame) {

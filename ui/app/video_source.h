@@ -93,7 +93,7 @@ class VideoSource : public QObject {
   // decoded already, so the next step only paints. Holding a step key shows frames at the
   // speed of painting instead of painting plus converting.
   void prepareAhead();
-  bool takePrepared(std::int64_t frame);  // shows the prepared picture if it is `frame`'s
+  void showPrepared();
   void dropPrepared() { prepared_ = {}; }
   void noteShown(std::int64_t frame);  // queues prepareAhead() behind the paint
   bool event(QEvent* event) override;

@@ -128,6 +128,29 @@ TEST_F(FrameServerTest, TryGetNeverBlocksAndEventuallyHasTheFrame) {
   EXPECT_EQ(frame->md5(), md5At(180));
 }
 
+// Common practice, no source: a look-up made ahead of the user changes nothing the user's own
+// steps drive (playhead, hit/miss counts, decode demands).
+TEST_F(FrameServerTest, PeekChangesNothing) {
+  FrameServerOptions options;  // 40 frames: decode-ahead never reaches the clip's end from 30
+  options.budgetBytes = 40 * FrameServer(path_, index_).get(0)->bytes();
+  FrameServer server(path_, index_, options);
+  const auto shown = server.get(30);
+  ASSERT_TRUE(shown);
+  const auto deadline = std::chrono::steady_clock::now() + std::chrono::seconds(30);
+  while (!server.peek(31) && std::chrono::steady_clock::now() < deadline)  // decode-ahead
+    std::this_thread::sleep_for(std::chrono::milliseconds(5));
+  const FrameServerStats before = server.stats();
+  const auto next = server.peek(31);
+  ASSERT_TRUE(next);
+  EXPECT_EQ(next->md5(), md5At(31));
+  EXPECT_EQ(server.peek(server.frameCount() - 1), nullptr);  // far away: not decoded, not asked for
+  const FrameServerStats after = server.stats();
+  EXPECT_EQ(after.hits, before.hits);
+  EXPECT_EQ(after.misses, before.misses);
+  std::this_thread::sleep_for(std::chrono::milliseconds(300));
+  EXPECT_EQ(server.peek(server.frameCount() - 1), nullptr);  // still not decoded: no demand
+}
+
 TEST_F(FrameServerTest, OutOfRangeIsASeekError) {
   FrameServer server(path_, index_);
   EXPECT_THROW(server.get(-1), Error);
