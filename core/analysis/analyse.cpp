@@ -9,7 +9,6 @@
 #include "analysis/cycles.h"
 #include "analysis/gait.h"
 #include "analysis/hildebrand.h"
-#include "analysis/huge_pages.h"
 #include "analysis/parallel.h"
 #include "analysis/phase.h"
 #include "analysis/speed.h"
@@ -17,6 +16,7 @@
 #include "analysis/summary.h"
 #include "analysis/support.h"
 #include "common/error.h"
+#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 namespace {

@@ -3,8 +3,8 @@
 #include <algorithm>
 #include <string>
 
-#include "analysis/huge_pages.h"
 #include "analysis/parallel.h"
+#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 namespace {

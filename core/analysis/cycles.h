@@ -6,8 +6,8 @@
 #include <span>
 #include <vector>
 
-#include "analysis/huge_pages.h"
 #include "analysis/report.h"
+#include "common/huge_pages.h"
 #include "model/annotation.h"
 
 namespace stridemark::analysis {

@@ -5,10 +5,10 @@
 
 #include "analysis/circular.h"
 #include "analysis/hildebrand.h"
-#include "analysis/huge_pages.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
 #include "analysis/symmetry.h"
+#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 

@@ -1,6 +1,6 @@
 #include "formats/events_csv.h"
 
-#include "analysis/huge_pages.h"
+#include "common/huge_pages.h"
 
 #include <algorithm>
 #include <array>
@@ -263,7 +263,7 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   const auto eventColumn = static_cast<std::size_t>(columns->event);
   const auto whenColumn =
       static_cast<std::size_t>(result.timeColumn ? columns->time : columns->frame);
-  analysis::reserveHuge(result.events, text.size() / 16);  // shortest rows are ~16 bytes
+  reserveHuge(result.events, text.size() / 16);  // shortest rows are ~16 bytes
   std::array<std::string_view, 3> fields;
   while (cursor.next(line)) {
     const long number = cursor.number();
@@ -297,7 +297,7 @@ model::Annotation toAnnotation(EventsCsv&& csv) {
   std::vector<std::size_t> start(static_cast<std::size_t>(csv.limbs.size()) + 1, 0);
   for (const auto& event : csv.events) ++start[static_cast<std::size_t>(event.limb) + 1];
   for (std::size_t i = 1; i < start.size(); ++i) start[i] += start[i - 1];
-  analysis::reserveHuge(annotation.events, csv.events.size());  // 16 MB per 10^6 events
+  reserveHuge(annotation.events, csv.events.size());  // 16 MB per 10^6 events
   annotation.events.resize(csv.events.size());
   for (const auto& event : csv.events) {
     annotation.events[start[static_cast<std::size_t>(event.limb)]++] = event;

@@ -10,8 +10,8 @@
 #include <memory>
 #include <vector>
 
-#include "analysis/huge_pages.h"
 #include "common/error.h"
+#include "common/huge_pages.h"
 
 namespace stridemark::formats {
 namespace {
@@ -53,7 +53,7 @@ std::string readWholeFile(const std::filesystem::path& path) {
   const auto size = std::filesystem::file_size(path, ec);
   std::size_t filled = 0;
   content.reserve(ec ? std::size_t{1} << 20 : static_cast<std::size_t>(size) + 1);
-  analysis::adviseHugePages(content.data(), content.capacity());  // before the first touch
+  adviseHugePages(content.data(), content.capacity());  // before the first touch
   content.resize(content.capacity());
   while (true) {
     const std::size_t got =

@@ -10,7 +10,7 @@
 #include <new>
 #include <vector>
 
-namespace stridemark::analysis {
+namespace stridemark {
 
 inline constexpr std::size_t kHugePage = std::size_t{2} << 20;
 
@@ -68,4 +68,4 @@ struct HugePageAllocator {
 template <typename T>
 using HugeVector = std::vector<T, HugePageAllocator<T>>;
 
-}  // namespace stridemark::analysis
+}  // namespace stridemark

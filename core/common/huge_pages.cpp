@@ -1,4 +1,4 @@
-#include "analysis/huge_pages.h"
+#include "common/huge_pages.h"
 
 #include <cstdint>
 
@@ -6,7 +6,7 @@
 #include <sys/mman.h>
 #endif
 
-namespace stridemark::analysis {
+namespace stridemark {
 
 void adviseHugePages(void* data, std::size_t bytes) {
 #if defined(MADV_HUGEPAGE)
@@ -24,4 +24,4 @@ void adviseHugePages(void* data, std::size_t bytes) {
 #endif
 }
 
-}  // namespace stridemark::analysis
+}  // namespace stridemark
