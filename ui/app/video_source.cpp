@@ -159,8 +159,11 @@ QImage& VideoSource::recycledImage(QSize size) {
   return *slot;
 }
 
-QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame,
-                                   video::FrameConverter& converter) {
+QImage VideoSource::toDisplayImage(const video::DecodedFrame& frame) {
+  // Frames of either server may arrive (a request made just before a switch): pick the
+  // converter by origin, told apart by pixel format.
+  video::FrameConverter& converter =
+      frame.pixelFormat() == info_.pixelFormatId ? converter_ : proxyConverter_;
   const QSize full(frame.width(), frame.height());
   const bool smaller = displayPixels_.isValid() && displayPixels_.width() < full.width() &&
                        displayPixels_.height() < full.height();
@@ -190,10 +193,7 @@ void VideoSource::deliver(std::int64_t n, std::shared_ptr<const video::DecodedFr
                           std::exception_ptr error) {
   if (n != wanted_) return;  // superseded by a newer request
   if (frame) {
-    // Frames of either server may arrive (a request made just before a switch): pick the
-    // converter by origin, told apart by pixel format.
-    const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
-    emit frameReady(n, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_));
+    emit frameReady(n, toDisplayImage(*frame));
     noteShown(n);
   } else if (error) {
     try {
@@ -268,8 +268,7 @@ void VideoSource::prepareAhead() {
   // would replace the user's request, and a move would count as a (very fast) user step.
   const auto frame = display().peek(next);
   if (!frame) return;
-  const bool fromSource = frame->pixelFormat() == info_.pixelFormatId;
-  prepared_ = {next, toDisplayImage(*frame, fromSource ? converter_ : proxyConverter_)};
+  prepared_ = {next, toDisplayImage(*frame)};
 }
 
 void VideoSource::showPrepared() {

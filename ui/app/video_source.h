@@ -84,7 +84,7 @@ class VideoSource : public QObject {
   video::FrameServer& display() const;
   void useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex);
   void switchDisplay(bool proxy);
-  QImage toDisplayImage(const video::DecodedFrame& frame, video::FrameConverter& converter);
+  QImage toDisplayImage(const video::DecodedFrame& frame);  // with the converter of its server
   QImage& recycledImage(QSize size);  // a slot nobody else holds, of this size
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
                std::exception_ptr error);
