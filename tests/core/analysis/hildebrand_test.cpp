@@ -2,6 +2,8 @@
 
 #include <gtest/gtest.h>
 
+#include <string>
+
 #include "analysis/analyse.h"
 #include "event_train.h"
 
@@ -10,16 +12,23 @@ namespace {
 
 using testing::symmetricalQuadruped;
 
+// A symmetrical stride with its gait and both classification schemes (METHODS §2.2).
+void expectSymmetricalStride(const StrideRecord& s, const std::string& gait,
+                             const std::string& quadrant, const std::string& band,
+                             const std::string& sequence) {
+  EXPECT_TRUE(s.symmetrical);
+  EXPECT_EQ(s.gait, gait);
+  EXPECT_EQ(*s.quadrant, quadrant);
+  EXPECT_EQ(*s.band, band);
+  EXPECT_EQ(*s.sequence, sequence);
+}
+
 TEST(Hildebrand, LateralSequenceWalk) {
   // Source: METHODS check 17, Cartmill et al. 2002 quadrants [src]: hind DF 0.62, phase 0.20 ->
   // scheme A "LSLC" walk, scheme B "LS single-foot" walk [choice on src definitions].
   const Report r = analyse(symmetricalQuadruped(0.62, 0.20));
   const StrideRecord& s = r.strides.at(2);
-  EXPECT_TRUE(s.symmetrical);
-  EXPECT_EQ(s.gait, "walk");
-  EXPECT_EQ(*s.quadrant, "LSLC");
-  EXPECT_EQ(*s.band, "lateral-sequence single-foot");
-  EXPECT_EQ(*s.sequence, "lateral");
+  expectSymmetricalStride(s, "walk", "LSLC", "lateral-sequence single-foot", "lateral");
   EXPECT_NEAR(*s.hindDutyFactor, 0.62, 1e-12);
   EXPECT_NEAR(*s.limbPhase, 0.20, 1e-12);
   ASSERT_TRUE(r.hildebrand);
@@ -34,21 +43,14 @@ TEST(Hildebrand, LateralSequenceDiagonalCoupletsWalk) {
   // band [31.25, 43.75) -> "LS diagonal couplets" [mem + choice]; METHODS §2.4 [src]: fore DF
   // 60 % puts the LSDC optimum at D = 40. Hind DF 0.60 >= 0.5 -> a walk (DESIGN §5 vocabulary).
   const StrideRecord s = analyse(symmetricalQuadruped(0.60, 0.40)).strides.at(2);
-  EXPECT_TRUE(s.symmetrical);
-  EXPECT_EQ(s.gait, "walk");
-  EXPECT_EQ(*s.quadrant, "LSDC");
-  EXPECT_EQ(*s.band, "lateral-sequence diagonal couplets");
-  EXPECT_EQ(*s.sequence, "lateral");
+  expectSymmetricalStride(s, "walk", "LSDC", "lateral-sequence diagonal couplets", "lateral");
   EXPECT_NEAR(*s.limbPhase, 0.40, 1e-12);
 }
 
 TEST(Hildebrand, DiagonalSequenceWalk) {
   // Source: METHODS check 17: hind DF 0.62, phase 0.60 -> "DSDC" walk, "DS diagonal couplets".
   const StrideRecord s = analyse(symmetricalQuadruped(0.62, 0.60)).strides.at(2);
-  EXPECT_EQ(s.gait, "walk");
-  EXPECT_EQ(*s.quadrant, "DSDC");
-  EXPECT_EQ(*s.band, "diagonal-sequence diagonal couplets");
-  EXPECT_EQ(*s.sequence, "diagonal");
+  expectSymmetricalStride(s, "walk", "DSDC", "diagonal-sequence diagonal couplets", "diagonal");
 }
 
 TEST(Hildebrand, RunningTrot) {
