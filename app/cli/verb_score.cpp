@@ -49,7 +49,7 @@ bool isProjectText(const std::filesystem::path& path, std::string_view content) 
   return false;
 }
 
-model::Project loadEventsCsv(const ScoreOptions& options, std::string_view content) {
+formats::EventsCsv parseEventsText(const ScoreOptions& options, std::string_view content) {
   formats::EventsCsvOptions csvOptions;
   if (!options.limbs.empty()) csvOptions.limbs = model::LimbSet::fromName(options.limbs);
   if (!options.fps.empty()) csvOptions.captureRate = parseRate(options.fps, "--fps");
@@ -59,9 +59,7 @@ model::Project loadEventsCsv(const ScoreOptions& options, std::string_view conte
                        ": no capture rate — pass --fps F (frames per second the camera "
                        "recorded) or add a '# fps: F' line above the CSV header"};
   }
-  model::Project project;
-  project.annotation = formats::toAnnotation(std::move(csv));
-  return project;
+  return csv;
 }
 
 model::Project loadProject(const ScoreOptions& options, std::string_view content) {
@@ -151,31 +149,52 @@ void printSummary(const ScoreOptions& options, const analysis::Report& report) {
   out << "\n\n" << formats::kCaution << '\n';
 }
 
-void writeJsonToStdout(const analysis::Report& report) {
-  formats::JsonOut out([](std::string_view chunk) {
+formats::JsonOut::Sink stdoutSink() {
+  return [](std::string_view chunk) {
     if (std::fwrite(chunk.data(), 1, chunk.size(), stdout) != chunk.size()) {
       throw Error(ErrorCategory::io, "could not write the report to standard output");
     }
-  });
-  formats::writeReportJson(report, out);
-  std::fflush(stdout);
+  };
 }
 
 model::Project loadInput(const ScoreOptions& options) {
   const std::filesystem::path inputPath(options.input);
-  const std::string content = formats::readWholeFile(inputPath);
-  return isProjectText(inputPath, content) ? loadProject(options, content)
-                                           : loadEventsCsv(options, content);
-}  // the file's text is freed here, before analysis needs the memory
+  std::string content = formats::readWholeFile(inputPath);
+  if (isProjectText(inputPath, content)) return loadProject(options, content);
+  formats::EventsCsv csv = parseEventsText(options, content);
+  // The text goes before the annotation is made, so the annotation, then the analysis, reuse
+  // its memory instead of touching fresh pages (see common/batch_memory.h).
+  std::string().swap(content);
+  model::Project project;
+  project.annotation = formats::toAnnotation(std::move(csv));
+  return project;
+}
+
+// The report JSON alone: written while it is scored, without keeping the strides.
+int scoreToJsonOnly(const ScoreOptions& options, const model::Project& project) {
+  const analysis::AnalysisOptions settings = analysisOptions(options, project.annotation);
+  if (options.json == "-") {
+    formats::JsonOut out(stdoutSink());
+    formats::scoreToReportJson(out, project, settings);
+    std::fflush(stdout);
+  } else {
+    formats::scoreToReportJsonFile(options.json, project, settings);
+    std::cerr << "wrote " << options.json << '\n';
+  }
+  return kExitOk;
+}
 
 int runScore(const ScoreOptions& options) {
   try {
     const model::Project project = loadInput(options);
+    if (!options.json.empty() && options.csv.empty()) return scoreToJsonOnly(options, project);
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
     if (!options.json.empty()) {
       if (options.json == "-") {
-        writeJsonToStdout(report);
+        formats::JsonOut out(stdoutSink());
+        formats::writeReportJson(report, out);
+        std::fflush(stdout);
       } else {
         formats::writeReportJsonFile(options.json, report);
         std::cerr << "wrote " << options.json << '\n';

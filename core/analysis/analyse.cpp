@@ -332,98 +332,204 @@ class StrideBuilder {
   std::vector<const LimbCycle*> firstCycles_;
 };
 
-// Each stride's support shares (or only its suspension flag) and the shares over the whole
-// trial: one sweep of every limb's states, in stride order.
-struct SupportResults {
-  std::vector<SupportShares> perStride;  // when options.strideSupport
-  std::vector<char> aerial;              // otherwise
-  SupportShares overall;
+// Where the pipeline below builds strides: in the report itself, or in two reused chunks.
+class StrideSlots {
+ public:
+  virtual ~StrideSlots() = default;
+  // Room for the next `count` strides, as default records.
+  virtual std::span<StrideRecord> next(std::size_t count) = 0;
 };
 
-SupportResults sweepSupport(const model::Annotation& annotation, const AnalysisOptions& options,
-                            const CycleScan& scan, std::span<const LimbCycle* const> strides) {
-  SupportTimeline timeline(annotation.limbs, scan.tracks);
-  SupportResults out;
-  if (options.strideSupport) {
-    out.perStride.reserve(strides.size());
-    for (const LimbCycle* c : strides)
-      out.perStride.push_back(timeline.window(c->touchdown, c->nextTouchdown));
-  } else {
-    out.aerial.reserve(strides.size());
-    for (const LimbCycle* c : strides)
-      out.aerial.push_back(timeline.flags(c->touchdown, c->nextTouchdown).aerial);
+// The strides stay in the report. Its vector is reserved whole, so the records the other
+// thread is still reading never move while the next ones are appended.
+class KeptStrides final : public StrideSlots {
+ public:
+  KeptStrides(std::vector<StrideRecord>& strides, std::size_t total) : strides_(strides) {
+    if (strides_.capacity() < total) reserveHuge(strides_, total);
   }
-  out.overall = timeline.overall();
-  return out;
-}
+  std::span<StrideRecord> next(std::size_t count) override {
+    const std::size_t first = strides_.size();
+    for (std::size_t i = 0; i < count; ++i) strides_.emplace_back();
+    return {strides_.data() + first, count};
+  }
 
-// Reference strides (those touching an annotation problem are left out) and support shares.
-// The support sweep and the per-stride measures read the same tracks and run side by side.
-void buildStrides(const model::Annotation& annotation, const AnalysisOptions& options,
-                  const CycleScan& scan, Report& report) {
-  const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
-  std::vector<const LimbCycle*> kept;
-  for (const LimbCycle& cycle : scan.tracks[static_cast<std::size_t>(report.referenceLimb)].cycles)
-    if (!touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) kept.push_back(&cycle);
-  if (report.strides.capacity() < kept.size()) reserveHuge(report.strides, kept.size());
-  SupportResults support;
-  runBoth([&] { support = sweepSupport(annotation, options, scan, kept); },
-          [&] {
-            StrideBuilder builder(annotation, options, scan);
-            for (const LimbCycle* cycle : kept)
-              builder.build(*cycle, report.strides.emplace_back());
-          });
-  for (std::size_t i = 0; i < kept.size(); ++i) {
-    StrideRecord& s = report.strides[i];
+ private:
+  std::vector<StrideRecord>& strides_;
+};
+
+// The strides are handed on and dropped: one chunk is built while the other is handed on.
+class RotatingStrides final : public StrideSlots {
+ public:
+  std::span<StrideRecord> next(std::size_t count) override {
+    std::vector<StrideRecord>& chunk = chunks_[turn_];
+    turn_ ^= 1U;
+    chunk.clear();
+    chunk.resize(count);
+    return chunk;
+  }
+
+ private:
+  std::vector<StrideRecord> chunks_[2];
+  unsigned turn_ = 0;
+};
+
+// The summaries over strides, fed in stride order as each stride is built.
+struct StrideSummaries {
+  StrideSummaries(int limbCount, std::size_t strides) : phases(limbCount, strides) {}
+  void add(const StrideRecord& s, std::size_t index) {
+    phases.add(s);
+    hildebrand.add(s);
+    bouts.add(s, static_cast<int>(index));
+  }
+  PhaseSummariser phases;
+  HildebrandSummariser hildebrand;
+  BoutFinder bouts;
+};
+
+// Each stride's support shares (or only its suspension flag), from one forward sweep.
+void addSupport(SupportTimeline& timeline, const AnalysisOptions& options,
+                std::span<const LimbCycle* const> cycles, std::span<StrideRecord> strides) {
+  for (std::size_t i = 0; i < strides.size(); ++i) {
+    const LimbCycle& c = *cycles[i];
+    StrideRecord& s = strides[i];
     if (!options.strideSupport) {
-      s.aerial = support.aerial[i] != 0;
+      s.aerial = timeline.flags(c.touchdown, c.nextTouchdown).aerial;
       continue;
     }
-    SupportShares& shares = support.perStride[i];
+    SupportShares shares = timeline.window(c.touchdown, c.nextTouchdown);
     s.aerial = shares.aerial;
     if (shares.complete) {
       s.supportByCount = std::move(shares.byCount);
       s.supportByCombination = std::move(shares.byCombination);
     }
   }
-  report.support = std::move(support.overall.byCount);
-  report.supportByCombination = std::move(support.overall.byCombination);
 }
 
-}  // namespace
+// Reference cycles that make strides: those touching an annotation problem are left out.
+std::vector<const LimbCycle*> keptStrides(const CycleScan& scan, int reference) {
+  const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
+  std::vector<const LimbCycle*> kept;
+  for (const LimbCycle& cycle : scan.tracks[static_cast<std::size_t>(reference)].cycles)
+    if (!touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) kept.push_back(&cycle);
+  return kept;
+}
 
-Report analyse(const model::Annotation& annotation, const AnalysisOptions& options) {
+// Strides a chunk at a time, on two threads: while one builds chunk k and adds it to the
+// summaries, the other sweeps support over chunk k - 1 and hands it to the consumer.
+constexpr std::size_t kChunkStrides = 4096;
+
+struct PipeInput {
+  const model::Annotation& annotation;
+  const AnalysisOptions& options;
+  const CycleScan& scan;
+  std::span<const LimbCycle* const> kept;
+};
+
+SupportShares pipeStrides(const PipeInput& in, StrideSlots& slots, StrideSummaries& summaries,
+                          StrideConsumer* consumer) {
+  SupportTimeline timeline(in.annotation.limbs, in.scan.tracks);
+  StrideBuilder builder(in.annotation, in.options, in.scan);
+  const std::size_t total = in.kept.size();
+  std::span<StrideRecord> waiting;  // built, not yet given support and handed on
+  std::size_t waitingFirst = 0;     // index of its first stride
+  for (std::size_t first = 0; first < total || !waiting.empty(); first += kChunkStrides) {
+    const std::size_t count = first < total ? std::min(kChunkStrides, total - first) : 0;
+    std::span<StrideRecord> building;
+    const auto build = [&] {
+      if (count == 0) return;
+      building = slots.next(count);
+      for (std::size_t i = 0; i < count; ++i) {
+        builder.build(*in.kept[first + i], building[i]);
+        summaries.add(building[i], first + i);
+      }
+    };
+    const auto handOn = [&] {
+      if (waiting.empty()) return;
+      addSupport(timeline, in.options, in.kept.subspan(waitingFirst, waiting.size()), waiting);
+      if (consumer) consumer->consume(waiting);
+    };
+    if (waiting.empty() || count == 0) {
+      build();
+      handOn();
+    } else {
+      runBoth(build, handOn);
+    }
+    waiting = building;
+    waitingFirst = first;
+  }
+  return timeline.overall();
+}
+
+// Everything analyse() and analyseStreaming() share. Without a consumer the strides stay in
+// the report; with one they go to it and are dropped.
+void analyseInto(const model::Annotation& annotation, const AnalysisOptions& options,
+                 Report& report, StrideConsumer* consumer) {
   const int reference = options.referenceLimb.value_or(annotation.referenceLimb);
   checkOptions(annotation, options, reference);
-  Report report;
   report.limbs = annotation.limbs;
   report.fps = annotation.captureRate;
   report.referenceLimb = reference;
 
   CycleScan scan = scanCycles(annotation);
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
-  buildStrides(annotation, options, scan, report);
+  if (consumer) consumer->begin(report);
+  const std::vector<const LimbCycle*> kept = keptStrides(scan, reference);
+  StrideSummaries summaries(annotation.limbs.size(), kept.size());
+  const PipeInput input{annotation, options, scan, kept};
+  SupportShares overall;
+  if (consumer) {
+    RotatingStrides slots;
+    overall = pipeStrides(input, slots, summaries, consumer);
+  } else {
+    KeptStrides slots(report.strides, kept.size());
+    overall = pipeStrides(input, slots, summaries, nullptr);
+  }
+  report.support = std::move(overall.byCount);
+  report.supportByCombination = std::move(overall.byCombination);
   // Cycles move into the report once strides and support no longer need the tracks.
   scan.tracks.clear();
   report.cycles = std::move(scan.cycles);
 
-  report.phase = summarisePhases(report.strides, annotation.limbs.size());
+  report.phase = summaries.phases.finish();
   if (annotation.limbs.kind() == model::LimbSetKind::quadruped)
-    report.hildebrand = summariseHildebrand(report.strides);
-  report.bouts = findBouts(report.strides);
+    report.hildebrand = summaries.hildebrand.finish();
+  report.bouts = summaries.bouts.take();
   report.transitions = findTransitions(report.bouts);
   report.symmetry = summariseSymmetry(annotation.limbs, report.limbSummary);
   report.speed = summariseSpeed(options.speedMs, options.legLengthM,
                                 report.limbSummary[static_cast<std::size_t>(reference)]);
   report.problems = std::move(scan.problems);
+}
+
+AnalysisOptions withTrialCard(const model::Project& project, const AnalysisOptions& options) {
+  AnalysisOptions merged = options;
+  if (!merged.speedMs) merged.speedMs = project.trial.speedMs;
+  if (!merged.legLengthM) merged.legLengthM = project.trial.legLengthM;
+  return merged;
+}
+
+}  // namespace
+
+Report analyse(const model::Annotation& annotation, const AnalysisOptions& options) {
+  Report report;
+  analyseInto(annotation, options, report, nullptr);
+  return report;
+}
+
+Report analyseStreaming(const model::Annotation& annotation, const AnalysisOptions& options,
+                        StrideConsumer& consumer) {
+  Report report;
+  analyseInto(annotation, options, report, &consumer);
   return report;
 }
 
 Report analyse(const model::Project& project, const AnalysisOptions& options) {
-  AnalysisOptions merged = options;
-  if (!merged.speedMs) merged.speedMs = project.trial.speedMs;
-  if (!merged.legLengthM) merged.legLengthM = project.trial.legLengthM;
-  return analyse(project.annotation, merged);
+  return analyse(project.annotation, withTrialCard(project, options));
+}
+
+Report analyseStreaming(const model::Project& project, const AnalysisOptions& options,
+                        StrideConsumer& consumer) {
+  return analyseStreaming(project.annotation, withTrialCard(project, options), consumer);
 }
 
 }  // namespace stridemark::analysis

@@ -4,6 +4,7 @@
 // problems (they go to Report::problems); throws stridemark::Error(analysis) only for
 // unusable options (e.g. a reference limb outside the limb set).
 #include <optional>
+#include <span>
 
 #include "analysis/report.h"
 #include "model/annotation.h"
@@ -24,6 +25,27 @@ struct AnalysisOptions {
 };
 
 Report analyse(const model::Annotation& annotation, const AnalysisOptions& options = {});
+
+// Takes the reference strides of a streamed analysis (analyseStreaming), in order, a chunk at a
+// time: a report of 10^6 events need never hold its ~80 MB of stride records at once.
+class StrideConsumer {
+ public:
+  virtual ~StrideConsumer() = default;
+  // Once, before any stride: the report so far. Filled are the limb set, capture rate,
+  // reference limb and limb summaries; not yet the cycles, summaries over strides or problems.
+  virtual void begin(const Report& head) = 0;
+  // The next strides, complete. Runs on a worker thread while later strides are being built
+  // (calls never overlap); the records are reused once it returns. May throw stridemark::Error,
+  // which ends the analysis.
+  virtual void consume(std::span<const StrideRecord> strides) = 0;
+};
+
+// The report analyse() gives, except that `strides` stays empty: each stride goes to `consumer`
+// instead. Every other member, including bouts and phase statistics, is the same to the bit.
+Report analyseStreaming(const model::Annotation& annotation, const AnalysisOptions& options,
+                        StrideConsumer& consumer);
+Report analyseStreaming(const model::Project& project, const AnalysisOptions& options,
+                        StrideConsumer& consumer);
 
 // Same, taking speed and leg length from the trial card unless the options override them.
 Report analyse(const model::Project& project, const AnalysisOptions& options = {});

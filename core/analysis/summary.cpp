@@ -39,17 +39,20 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
   return out;
 }
 
-std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strides, int limbCount) {
+PhaseSummariser::PhaseSummariser(int limbCount, std::size_t expectedStrides)
+    : phases_(static_cast<std::size_t>(std::max(limbCount, 0))) {
+  for (auto& limbPhases : phases_) limbPhases.reserve(expectedStrides);
+}
+
+void PhaseSummariser::add(const StrideRecord& stride) {
+  const std::size_t n = std::min(phases_.size(), stride.phase.size());
+  for (std::size_t i = 0; i < n; ++i)
+    if (stride.phase[i]) phases_[i].push_back(*stride.phase[i]);
+}
+
+std::vector<PhaseSummary> PhaseSummariser::finish() const {
   std::vector<PhaseSummary> out;
-  // One pass over the (large) stride records gathers every limb's phases.
-  std::vector<HugeVector<double>> phases(static_cast<std::size_t>(std::max(limbCount, 0)));
-  for (auto& limbPhases : phases) limbPhases.reserve(strides.size());
-  for (const StrideRecord& s : strides) {
-    const std::size_t n = std::min(phases.size(), s.phase.size());
-    for (std::size_t i = 0; i < n; ++i)
-      if (s.phase[i]) phases[i].push_back(*s.phase[i]);
-  }
-  for (const HugeVector<double>& limbPhases : phases) {
+  for (const HugeVector<double>& limbPhases : phases_) {
     const CircularStats c = circularStats(limbPhases);
     PhaseSummary p;
     p.n = c.n;
@@ -68,18 +71,17 @@ std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strid
   return out;
 }
 
-std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides) {
-  std::vector<double> phases;
-  double dutySum = 0;
-  for (const StrideRecord& s : strides) {
-    if (!s.symmetrical || !s.limbPhase || !s.hindDutyFactor) continue;
-    phases.push_back(*s.limbPhase);
-    dutySum += *s.hindDutyFactor;
-  }
-  if (phases.empty()) return std::nullopt;
+void HildebrandSummariser::add(const StrideRecord& stride) {
+  if (!stride.symmetrical || !stride.limbPhase || !stride.hindDutyFactor) return;
+  phases_.push_back(*stride.limbPhase);
+  dutySum_ += *stride.hindDutyFactor;
+}
+
+std::optional<HildebrandSummary> HildebrandSummariser::finish() const {
+  if (phases_.empty()) return std::nullopt;
   HildebrandSummary out;
-  out.dutyFactor = dutySum / static_cast<double>(phases.size());
-  out.limbPhase = circularMean(phases, 1.0);
+  out.dutyFactor = dutySum_ / static_cast<double>(phases_.size());
+  out.limbPhase = circularMean(phases_, 1.0);
   if (std::isnan(out.limbPhase)) return out;
   out.band = hildebrandBand(out.limbPhase);
   out.quadrant = cartmillQuadrant(out.limbPhase).value_or("");

@@ -1,22 +1,41 @@
 #pragma once
 // Report-level summaries built from cycles and strides: per-limb statistics, per-limb phase
 // statistics, the Hildebrand point, left/right symmetry and speed measures.
+#include <cstddef>
 #include <optional>
 #include <vector>
 
 #include "analysis/cycles.h"
 #include "analysis/report.h"
+#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 
 // Stride, stance, swing (seconds) and duty factor per limb over its valid cycles.
 std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps);
 
-// Circular statistics of each limb's phase over the strides where it is defined.
-std::vector<PhaseSummary> summarisePhases(const std::vector<StrideRecord>& strides, int limbCount);
+// Circular statistics of each limb's phase over the strides where it is defined. Fed stride by
+// stride, in stride order, so a streamed analysis gets the same numbers as a stored one.
+class PhaseSummariser {
+ public:
+  PhaseSummariser(int limbCount, std::size_t expectedStrides);
+  void add(const StrideRecord& stride);
+  std::vector<PhaseSummary> finish() const;
+
+ private:
+  std::vector<HugeVector<double>> phases_;  // per limb
+};
 
 // Mean hind duty factor and circular-mean limb phase of the symmetrical strides; null if none.
-std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides);
+class HildebrandSummariser {
+ public:
+  void add(const StrideRecord& stride);
+  std::optional<HildebrandSummary> finish() const;
+
+ private:
+  std::vector<double> phases_;
+  double dutySum_ = 0;
+};
 
 // Robinson SI and R/L ratio per left/right pair from the limbs' mean values.
 Symmetry summariseSymmetry(const model::LimbSet& limbs,

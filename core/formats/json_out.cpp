@@ -222,6 +222,21 @@ void JsonOut::endRaw(char* end) {
   flushIfLarge();
 }
 
+void JsonOut::beginRawText() {
+  beforeValue();
+}
+
+void JsonOut::rawText(std::string_view text) {
+  if (size_ + text.size() <= capacity_) {
+    put(text);
+    flushIfLarge();
+    return;
+  }
+  sink_(std::string_view(buffer_.get(), size_));
+  size_ = 0;
+  sink_(text);
+}
+
 void JsonOut::finish() {
   put('\n');
   sink_(std::string_view(buffer_.get(), size_));

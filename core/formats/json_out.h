@@ -41,6 +41,11 @@ class JsonOut {
   // The writer's memoised number texts, for use inside beginRaw/endRaw.
   text::NumberText& numbers() { return numbers_; }
 
+  // For elements the caller formatted earlier, separators included: beginRawText once, then
+  // rawText for each piece of the text, which goes to the sink as it is (no copy when large).
+  void beginRawText();
+  void rawText(std::string_view text);
+
   void finish();  // newline and final flush; call once at the end
 
  private:

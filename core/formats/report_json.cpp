@@ -1,8 +1,10 @@
 #include "formats/report_json.h"
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <cstring>
+#include <functional>
 
 #include "formats/file_io.h"
 
@@ -106,10 +108,17 @@ class StrideText {
 
   // extra.strides[i]: only the values that are defined.
   static void writeExtra(JsonOut& out, const analysis::StrideRecord& s) {
-    const std::size_t room =
-        256 + 10 * kNumber + stringRoom(s.quadrant) + stringRoom(s.waveDirection);
-    char* p = out.beginRaw(room);
-    text::NumberText& numbers = out.numbers();
+    char* p = out.beginRaw(extraRoom(s));
+    out.endRaw(extraText(p, out.numbers(), s));
+  }
+
+  // Room extraText needs for `s`.
+  static std::size_t extraRoom(const analysis::StrideRecord& s) {
+    return 256 + 10 * kNumber + stringRoom(s.quadrant) + stringRoom(s.waveDirection);
+  }
+
+  // Writes the extra.strides element of `s` at `p` and returns its end.
+  static char* extraText(char* p, text::NumberText& numbers, const analysis::StrideRecord& s) {
     char separator = '{';
     const auto field = [&](std::string_view quotedKey) {
       *p++ = separator;
@@ -139,7 +148,7 @@ class StrideText {
     optionalNumber("\"template_distance\":", s.templateDistance);
     if (separator == '{') *p++ = '{';
     *p++ = '}';
-    out.endRaw(p);
+    return p;
   }
 
  private:
@@ -275,7 +284,10 @@ void writeProblems(JsonOut& out, const Report& report) {
   out.endArray();
 }
 
-void writeExtra(JsonOut& out, const Report& report) {
+// Writes the elements of extra.strides (the array is open).
+using ExtraStrides = std::function<void(JsonOut&)>;
+
+void writeExtra(JsonOut& out, const Report& report, const ExtraStrides& extraStrides) {
   out.beginObject();
   out.key("caution");
   out.string(kCaution);
@@ -345,14 +357,13 @@ void writeExtra(JsonOut& out, const Report& report) {
   out.endArray();
   out.key("strides");
   out.beginArray();
-  for (const auto& stride : report.strides) StrideText::writeExtra(out, stride);
+  extraStrides(out);
   out.endArray();
   out.endObject();
 }
 
-}  // namespace
-
-void writeReportJson(const Report& report, JsonOut& out) {
+// Everything up to and including the opening of the strides array.
+void writeHead(JsonOut& out, const Report& report) {
   out.beginObject();
   out.key("schema");
   out.string(kReportSchema);
@@ -366,8 +377,10 @@ void writeReportJson(const Report& report, JsonOut& out) {
   writeLimbs(out, report);
   out.key("strides");
   out.beginArray();
-  const StrideText strideText(report);
-  for (const auto& stride : report.strides) strideText.write(out, stride);
+}
+
+// Everything after the last stride.
+void writeTail(JsonOut& out, const Report& report, const ExtraStrides& extraStrides) {
   out.endArray();
   out.key("phase");
   writePhase(out, report);
@@ -404,9 +417,20 @@ void writeReportJson(const Report& report, JsonOut& out) {
   out.key("problems");
   writeProblems(out, report);
   out.key("extra");
-  writeExtra(out, report);
+  writeExtra(out, report, extraStrides);
   out.endObject();
   out.finish();
+}
+
+}  // namespace
+
+void writeReportJson(const Report& report, JsonOut& out) {
+  writeHead(out, report);
+  const StrideText strideText(report);
+  for (const auto& stride : report.strides) strideText.write(out, stride);
+  writeTail(out, report, [&report](JsonOut& extra) {
+    for (const auto& stride : report.strides) StrideText::writeExtra(extra, stride);
+  });
 }
 
 std::string reportJsonText(const Report& report) {
@@ -421,6 +445,76 @@ void writeReportJsonFile(const std::filesystem::path& path, const Report& report
   JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
   writeReportJson(report, out);
   file.commit();
+}
+
+// The extra.strides elements, comma-separated, in pieces that are never copied or moved.
+struct ReportJsonStream::Pending {
+  explicit Pending(const Report& head) : strides(head) {}
+
+  void addExtra(const analysis::StrideRecord& s) {
+    const std::size_t room = StrideText::extraRoom(s) + 1;
+    if (pieces.empty() || kPiece - pieces.back().size < room) {
+      pieces.push_back({std::make_unique_for_overwrite<char[]>(std::max(kPiece, room)), 0});
+    }
+    Piece& piece = pieces.back();
+    char* p = piece.text.get() + piece.size;
+    if (any) *p++ = ',';
+    any = true;
+    p = StrideText::extraText(p, numbers, s);
+    piece.size = static_cast<std::size_t>(p - piece.text.get());
+  }
+
+  static constexpr std::size_t kPiece = std::size_t{1} << 20;
+  struct Piece {
+    std::unique_ptr<char[]> text;
+    std::size_t size = 0;
+  };
+  StrideText strides;
+  std::vector<Piece> pieces;
+  text::NumberText numbers;
+  bool any = false;
+};
+
+ReportJsonStream::ReportJsonStream(JsonOut& out) : out_(out) {}
+ReportJsonStream::~ReportJsonStream() = default;
+
+void ReportJsonStream::begin(const Report& head) {
+  writeHead(out_, head);
+  pending_ = std::make_unique<Pending>(head);
+}
+
+void ReportJsonStream::consume(std::span<const analysis::StrideRecord> strides) {
+  for (const analysis::StrideRecord& s : strides) {
+    pending_->strides.write(out_, s);
+    pending_->addExtra(s);
+  }
+}
+
+void ReportJsonStream::finish(const Report& report) {
+  writeTail(out_, report, [this](JsonOut& extra) {
+    if (!pending_ || !pending_->any) return;
+    extra.beginRawText();
+    for (const Pending::Piece& piece : pending_->pieces)
+      extra.rawText(std::string_view(piece.text.get(), piece.size));
+  });
+  pending_.reset();
+}
+
+Report scoreToReportJson(JsonOut& out, const model::Project& project,
+                         const analysis::AnalysisOptions& options) {
+  ReportJsonStream stream(out);
+  Report report = analysis::analyseStreaming(project, options, stream);
+  stream.finish(report);
+  return report;
+}
+
+Report scoreToReportJsonFile(const std::filesystem::path& path, const model::Project& project,
+                             const analysis::AnalysisOptions& options) {
+  AtomicFile file(path, Durability::regenerable);  // a report is made again from its input
+  JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
+  Report report = scoreToReportJson(out, project, options);
+  file.commit();
+  return report;
 }
 
 }  // namespace stridemark::formats

@@ -90,12 +90,13 @@ model::Annotation jitteredTrot(int stridesPerLimb, std::uint32_t seed) {
 
 // One measured step's figures, as a child prints them on stdout.
 struct Sample {
-  double wall = 0, cpu = 0, read = 0, analyse = 0, write = 0, rssMb = 0;
-  double readWall = 0, analyseWall = 0, writeWall = 0;  // the same stages in wall time
+  double wall = 0, cpu = 0, read = 0, analyse = 0, rssMb = 0;  // analyse: scoring and writing
+  double readWall = 0, analyseWall = 0;                        // the same stages in wall time
   std::size_t count = 0;
 };
 
-// What `stridemark score INPUT --fps 250 --json OUT` does (app/cli/verb_score.cpp).
+// What `stridemark score INPUT --fps 250 --json OUT` does (app/cli/verb_score.cpp): read and
+// parse, free the text, make the annotation, then score and write the report in one pass.
 Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
   Sample out;
   const auto start = Clock::now();
@@ -105,28 +106,27 @@ Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
   options.limbs = model::LimbSet::quadruped();
   model::Project project;
   {
-    const std::string content = formats::readWholeFile(csvPath);
+    std::string content = formats::readWholeFile(csvPath);
     formats::EventsCsv csv = formats::parseEventsCsv(content, csvPath.string(), options);
+    std::string().swap(content);
     project.annotation = formats::toAnnotation(std::move(csv));
-  }  // the text is freed before analysis, as in the verb
+  }
   const double cpu1 = cpuSeconds();
   const auto read = Clock::now();
   analysis::AnalysisOptions analysisOptions;
   analysisOptions.strideSupport = false;  // as the verb does
-  const analysis::Report report = analysis::analyse(project, analysisOptions);
+  const analysis::Report report =
+      formats::scoreToReportJsonFile(jsonPath, project, analysisOptions);
   const double cpu2 = cpuSeconds();
-  const auto analysed = Clock::now();
-  formats::writeReportJsonFile(jsonPath, report);
-  const double cpu3 = cpuSeconds();
   out.wall = secondsSince(start);
   out.readWall = std::chrono::duration<double>(read - start).count();
-  out.analyseWall = std::chrono::duration<double>(analysed - read).count();
-  out.writeWall = out.wall - out.readWall - out.analyseWall;
-  out.cpu = cpu3 - cpu0;
+  out.analyseWall = out.wall - out.readWall;  // scoring and writing now run together
+  out.cpu = cpu2 - cpu0;
   out.read = cpu1 - cpu0;
   out.analyse = cpu2 - cpu1;
-  out.write = cpu3 - cpu2;
-  out.count = report.strides.size();
+  // Every stride is in exactly one bout; the strides themselves were not kept.
+  out.count =
+      report.bouts.empty() ? 0 : static_cast<std::size_t>(report.bouts.back().lastStride) + 1;
   return out;
 }
 
@@ -177,9 +177,8 @@ Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
   ::waitpid(pid, &status, 0);
   Sample s;
   if (!WIFEXITED(status) || WEXITSTATUS(status) != 0 ||
-      std::sscanf(text.c_str(), "%lf %lf %lf %lf %lf %lf %zu %lf %lf %lf", &s.wall, &s.cpu, &s.read,
-                  &s.analyse, &s.write, &s.rssMb, &s.count, &s.readWall, &s.analyseWall,
-                  &s.writeWall) != 10) {
+      std::sscanf(text.c_str(), "%lf %lf %lf %lf %lf %zu %lf %lf", &s.wall, &s.cpu, &s.read,
+                  &s.analyse, &s.rssMb, &s.count, &s.readWall, &s.analyseWall) != 8) {
     std::fprintf(stderr, "score_bench: child '%s' failed\n", mode);
     std::exit(1);
   }
@@ -189,8 +188,8 @@ Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
 int childMain(const std::string& mode, const fs::path& csvPath, const fs::path& jsonPath) {
   keepFreedMemoryForReuse();  // as app/cli/run.cpp does before any verb
   const Sample s = mode == "parse" ? parseOnly(csvPath) : scoreToJson(csvPath, jsonPath);
-  std::printf("%.6f %.6f %.6f %.6f %.6f %.3f %zu %.6f %.6f %.6f\n", s.wall, s.cpu, s.read,
-              s.analyse, s.write, peakRssMb(), s.count, s.readWall, s.analyseWall, s.writeWall);
+  std::printf("%.6f %.6f %.6f %.6f %.3f %zu %.6f %.6f\n", s.wall, s.cpu, s.read, s.analyse,
+              peakRssMb(), s.count, s.readWall, s.analyseWall);
   return 0;
 }
 
@@ -212,8 +211,8 @@ int main(int argc, char** argv) {
     formats::writeEventsCsv(csvPath, trot, "score_bench seeded trot (seed 42)");
   }
   const std::string self = fs::read_symlink("/proc/self/exe").string();
-  std::vector<double> parse, score, parseCpu, scoreCpu, read, analyse, write, rss;
-  std::vector<double> readWall, analyseWall, writeWall;
+  std::vector<double> parse, score, parseCpu, scoreCpu, read, analyse, rss;
+  std::vector<double> readWall, analyseWall;
   std::size_t strides = 0, parsed = 0;
   for (int run = 0; run < runs; ++run) {
     const Sample p = runChild(self.c_str(), "parse", csvPath, jsonPath, pause);
@@ -227,11 +226,9 @@ int main(int argc, char** argv) {
     scoreCpu.push_back(s.cpu);
     read.push_back(s.read);
     analyse.push_back(s.analyse);
-    write.push_back(s.write);
     rss.push_back(s.rssMb);
     readWall.push_back(s.readWall);
     analyseWall.push_back(s.analyseWall);
-    writeWall.push_back(s.writeWall);
   }
   const double parseS = median(parse), scoreS = median(score);
   std::printf(
@@ -239,14 +236,14 @@ int main(int argc, char** argv) {
       "\"parsed\": %zu, \"strides\": %zu, \"csv_mb\": %.1f, \"json_mb\": %.1f, \"runs\": %d, "
       "\"parse_s\": %.4f, \"score_s\": %.4f, \"ratio\": %.3f, \"peak_rss_mb\": %.1f, "
       "\"parse_cpu_s\": %.4f, \"score_cpu_s\": %.4f, \"ratio_cpu\": %.3f, "
-      "\"score_read_cpu_s\": %.4f, \"score_analyse_cpu_s\": %.4f, "
-      "\"score_write_json_cpu_s\": %.4f, \"score_read_s\": %.4f, \"score_analyse_s\": %.4f, "
-      "\"score_write_json_s\": %.4f, \"target_ratio\": 2.0, \"target_peak_rss_mb\": 300}\n",
+      "\"score_read_cpu_s\": %.4f, \"score_analyse_and_write_cpu_s\": %.4f, "
+      "\"score_read_s\": %.4f, \"score_analyse_and_write_s\": %.4f, "
+      "\"target_ratio\": 2.0, \"target_peak_rss_mb\": 300}\n",
       events, parsed, strides, static_cast<double>(fs::file_size(csvPath)) / 1e6,
       static_cast<double>(fs::file_size(jsonPath)) / 1e6, runs, parseS, scoreS, scoreS / parseS,
       *std::max_element(rss.begin(), rss.end()), median(parseCpu), median(scoreCpu),
-      median(scoreCpu) / median(parseCpu), median(read), median(analyse), median(write),
-      median(readWall), median(analyseWall), median(writeWall));
+      median(scoreCpu) / median(parseCpu), median(read), median(analyse), median(readWall),
+      median(analyseWall));
   std::error_code ec;
   fs::remove_all(folder, ec);
   return 0;

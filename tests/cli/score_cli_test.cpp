@@ -271,6 +271,36 @@ TEST(ScoreCli, CsvTablesAndSummary) {
   EXPECT_NE(summary.out.find("licensed veterinarian"), std::string::npos);
 }
 
+TEST(ScoreCli, JsonAloneIsStreamedWithTheSameBytes) {
+  // Common practice, no source: `--json` alone scores and writes in one pass (strides are not
+  // kept); with `--csv` the report is kept whole. Both, and stdout, give the same bytes. 6,000
+  // strides with a stumble span several of the analysis's chunks.
+  TempFolder folder;
+  std::string csv =
+      steadyGaitCsv({{"LH", 0.0}, {"RF", 0.02}, {"RH", 0.5}, {"LF", 0.52}}, 100, 0.45, 6000);
+  csv += "LH,touchdown,3030\n";  // a second touchdown inside a stance: a problem
+  writeText(folder / "long.csv", csv);
+  const std::vector<std::string> input{"score", folder / "long.csv", "--fps", "250"};
+  const auto with = [&](std::vector<std::string> extra) {
+    std::vector<std::string> args = input;
+    args.insert(args.end(), extra.begin(), extra.end());
+    return runStridemark(args);
+  };
+  const CliRun streamed = with({"--json", folder / "streamed.json"});
+  const CliRun kept = with({"--json", folder / "kept.json", "--csv", folder / "tables"});
+  const CliRun toStdout = with({"--json", "-"});
+  ASSERT_EQ(streamed.exitCode, 0) << streamed.err;
+  ASSERT_EQ(kept.exitCode, 0) << kept.err;
+  ASSERT_EQ(toStdout.exitCode, 0) << toStdout.err;
+  const std::string text = readText(folder / "streamed.json");
+  EXPECT_TRUE(text == readText(folder / "kept.json"));
+  EXPECT_TRUE(text == toStdout.out);
+  const Json report = Json::parse(text);
+  EXPECT_GT(report["strides"].size(), 5900u);
+  EXPECT_EQ(report["strides"].size(), report["extra"]["strides"].size());
+  EXPECT_FALSE(report["problems"].empty());
+}
+
 struct Malformed {
   const char* name;
   std::string text;

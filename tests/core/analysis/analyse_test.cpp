@@ -3,6 +3,9 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstring>
+#include <span>
+#include <vector>
 
 #include "common/error.h"
 #include "event_train.h"
@@ -135,6 +138,141 @@ TEST(Analyse, LargeAnnotationIsLinearish) {
   EXPECT_EQ(r.strides.size(), 100000u);
   EXPECT_EQ(r.bouts.size(), 1u);
   EXPECT_TRUE(r.problems.empty());
+}
+
+// Collects what a streamed analysis hands on.
+class CollectStrides final : public StrideConsumer {
+ public:
+  void begin(const Report& head) override {
+    ++begins;
+    headLimbSummaries = head.limbSummary.size();
+  }
+  void consume(std::span<const StrideRecord> chunk) override {
+    strides.insert(strides.end(), chunk.begin(), chunk.end());
+    ++chunks;
+  }
+  int begins = 0, chunks = 0;
+  std::size_t headLimbSummaries = 0;
+  std::vector<StrideRecord> strides;
+};
+
+// Same double to the bit (NaN equal to NaN).
+bool sameBits(double a, double b) {
+  return std::memcmp(&a, &b, sizeof a) == 0;
+}
+
+void expectSameStride(const StrideRecord& a, const StrideRecord& b, std::size_t i) {
+  EXPECT_EQ(a.startFrame, b.startFrame) << i;
+  EXPECT_EQ(a.endFrame, b.endFrame) << i;
+  EXPECT_TRUE(sameBits(a.durationS, b.durationS)) << i;
+  EXPECT_EQ(a.dutyFactor, b.dutyFactor) << i;
+  EXPECT_EQ(a.phase, b.phase) << i;
+  EXPECT_EQ(a.touchdownCount, b.touchdownCount) << i;
+  EXPECT_EQ(a.gait, b.gait) << i;
+  EXPECT_EQ(a.band, b.band) << i;
+  EXPECT_EQ(a.quadrant, b.quadrant) << i;
+  EXPECT_EQ(a.sequence, b.sequence) << i;
+  EXPECT_EQ(a.lead, b.lead) << i;
+  EXPECT_EQ(a.symmetrical, b.symmetrical) << i;
+  EXPECT_EQ(a.aerial, b.aerial) << i;
+  EXPECT_EQ(a.hindDutyFactor, b.hindDutyFactor) << i;
+  EXPECT_EQ(a.limbPhase, b.limbPhase) << i;
+  EXPECT_EQ(a.dapMs, b.dapMs) << i;
+  EXPECT_EQ(a.dapPercent, b.dapPercent) << i;
+  EXPECT_EQ(a.supportByCount, b.supportByCount) << i;
+  EXPECT_EQ(a.supportByCombination, b.supportByCombination) << i;
+  EXPECT_EQ(a.ipsilateralLag, b.ipsilateralLag) << i;
+  EXPECT_EQ(a.waveDirection, b.waveDirection) << i;
+  EXPECT_EQ(a.templateDistance, b.templateDistance) << i;
+  EXPECT_EQ(a.foreLag, b.foreLag) << i;
+  EXPECT_EQ(a.hindLag, b.hindLag) << i;
+  EXPECT_EQ(a.pairLag, b.pairLag) << i;
+}
+
+void expectSameSummaries(const Report& a, const Report& b) {
+  ASSERT_EQ(a.phase.size(), b.phase.size());
+  for (std::size_t i = 0; i < a.phase.size(); ++i) {
+    EXPECT_EQ(a.phase[i].n, b.phase[i].n);
+    EXPECT_TRUE(sameBits(a.phase[i].mean, b.phase[i].mean)) << i;
+    EXPECT_TRUE(sameBits(a.phase[i].r, b.phase[i].r)) << i;
+    EXPECT_TRUE(sameBits(a.phase[i].rayleighP, b.phase[i].rayleighP)) << i;
+  }
+  ASSERT_EQ(a.hildebrand.has_value(), b.hildebrand.has_value());
+  if (a.hildebrand) {
+    EXPECT_TRUE(sameBits(a.hildebrand->dutyFactor, b.hildebrand->dutyFactor));
+    EXPECT_TRUE(sameBits(a.hildebrand->limbPhase, b.hildebrand->limbPhase));
+    EXPECT_EQ(a.hildebrand->band, b.hildebrand->band);
+  }
+  ASSERT_EQ(a.bouts.size(), b.bouts.size());
+  for (std::size_t i = 0; i < a.bouts.size(); ++i) {
+    EXPECT_EQ(a.bouts[i].gait, b.bouts[i].gait);
+    EXPECT_EQ(a.bouts[i].firstStride, b.bouts[i].firstStride);
+    EXPECT_EQ(a.bouts[i].lastStride, b.bouts[i].lastStride);
+  }
+  EXPECT_EQ(a.transitions.size(), b.transitions.size());
+  EXPECT_EQ(a.support, b.support);
+  EXPECT_EQ(a.supportByCombination, b.supportByCombination);
+  EXPECT_EQ(a.cycles.size(), b.cycles.size());
+  EXPECT_EQ(a.problems.size(), b.problems.size());
+}
+
+TEST(Analyse, StreamedStridesAndSummariesMatchStoredOnes) {
+  // Common practice, no source: streaming changes where strides go, never a number. 10,000
+  // strides are several of the pipeline's chunks; the trial has problems and gait changes.
+  for (const LimbSet& set :
+       {LimbSet::quadruped(), LimbSet::biped(), LimbSet::hexapod(), LimbSet::multiPair(4)}) {
+    const model::Annotation a = testing::variedTrain(set, 10000, 7);
+    for (const bool strideSupport : {false, true}) {
+      AnalysisOptions options;
+      options.strideSupport = strideSupport;
+      const Report stored = analyse(a, options);
+      CollectStrides collected;
+      const Report streamed = analyseStreaming(a, options, collected);
+      SCOPED_TRACE(set.name() + (strideSupport ? " with stride support" : ""));
+      EXPECT_TRUE(streamed.strides.empty());
+      EXPECT_EQ(collected.begins, 1);
+      EXPECT_EQ(collected.headLimbSummaries, static_cast<std::size_t>(set.size()));
+      EXPECT_GT(collected.chunks, 2);
+      EXPECT_GT(stored.strides.size(), 9000u);
+      EXPECT_FALSE(stored.problems.empty());
+      ASSERT_EQ(collected.strides.size(), stored.strides.size());
+      for (std::size_t i = 0; i < stored.strides.size(); ++i)
+        expectSameStride(collected.strides[i], stored.strides[i], i);
+      expectSameSummaries(streamed, stored);
+    }
+  }
+}
+
+TEST(Analyse, StreamingWithoutStridesStillBegins) {
+  // Common practice, no source: an empty trial still gives the consumer its head.
+  model::Annotation empty;
+  empty.captureRate = Rational{250, 1};
+  CollectStrides collected;
+  const Report r = analyseStreaming(empty, {}, collected);
+  EXPECT_EQ(collected.begins, 1);
+  EXPECT_EQ(collected.chunks, 0);
+  EXPECT_TRUE(r.bouts.empty());
+}
+
+TEST(Analyse, ConsumerErrorEndsTheAnalysis) {
+  // Common practice, no source: a consumer that cannot go on (a full disk) stops scoring with
+  // its own error, not a crash or a half-finished report.
+  class FailingConsumer final : public StrideConsumer {
+   public:
+    void begin(const Report&) override {}
+    void consume(std::span<const StrideRecord>) override {
+      if (++calls == 2) throw Error(ErrorCategory::io, "disk full");
+    }
+    int calls = 0;
+  } failing;
+  const model::Annotation a = testing::variedTrain(LimbSet::quadruped(), 20000, 3);
+  try {
+    analyseStreaming(a, {}, failing);
+    FAIL() << "expected the consumer's error";
+  } catch (const Error& e) {
+    EXPECT_STREQ(e.what(), "disk full");
+  }
+  EXPECT_EQ(failing.calls, 2);
 }
 
 }  // namespace

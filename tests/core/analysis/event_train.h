@@ -2,6 +2,7 @@
 // Test helper: ideal event trains realising given duty factors and touchdown offsets exactly.
 #include <cmath>
 #include <cstdint>
+#include <random>
 #include <vector>
 
 #include "model/annotation.h"
@@ -47,6 +48,39 @@ inline model::Annotation symmetricalQuadruped(double dutyFactor, double limbPhas
                      {0.0, dutyFactor},
                      {0.5, dutyFactor}},
                     strideFrames, strides);
+}
+
+// A long, untidy trial for checks that must hold on any annotation: seeded jitter on every
+// stride and tag, the limbs' offsets drifting so the gait changes now and then (several bouts),
+// some lift-offs missing, and now and then a second touchdown inside a stance (a problem that
+// takes strides out). Limbs alternate offsets 0 and 0.5 (plus drift) along the set.
+inline model::Annotation variedTrain(const model::LimbSet& limbs, int strides, std::uint32_t seed) {
+  std::mt19937 random(seed);
+  std::uniform_int_distribution<int> strideJitter(-4, 4), tagJitter(-2, 2), chance(0, 999);
+  model::Annotation a;
+  a.limbs = limbs;
+  a.captureRate = Rational{250, 1};
+  a.referenceLimb = limbs.defaultReference();
+  std::int64_t start = 50;
+  double drift = 0;
+  for (int k = 0; k < strides; ++k) {
+    const int length = 100 + strideJitter(random);
+    if (k % 700 == 0) drift = 0.05 * (chance(random) % 5);  // a new gait every few hundred
+    for (int limb = 0; limb < limbs.size(); ++limb) {
+      const double offset = (limb % 2) * 0.5 + (limb >= 2 ? drift : 0.0);
+      const std::int64_t touchdown =
+          start + static_cast<std::int64_t>(offset * length) + tagJitter(random);
+      a.events.push_back({touchdown, limb, model::EventKind::touchdown});
+      if (chance(random) < 3) continue;  // lift-off not tagged
+      const std::int64_t liftoff = touchdown + 45 + tagJitter(random);
+      a.events.push_back({liftoff, limb, model::EventKind::liftoff});
+      if (chance(random) < 2)  // a second touchdown inside the stance
+        a.events.push_back({touchdown + 20, limb, model::EventKind::touchdown});
+    }
+    start += length;
+  }
+  a.normalize();
+  return a;
 }
 
 inline int limbIndex(const model::LimbSet& limbs, const char* label) {

@@ -3,11 +3,16 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <filesystem>
+#include <string>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
+#include "../analysis/event_train.h"
 #include "analysis/analyse.h"
 #include "common/error.h"
+#include "formats/file_io.h"
 #include "test_support.h"
 #include "trial_fixture.h"
 
@@ -104,6 +109,54 @@ TEST(ReportJson, ReaderNamesPathOfABadValue) {
   }
   j["schema"] = "stridemark.report.v0";
   EXPECT_THROW(parseReportJson(j.dump(), "r.json"), Error);
+}
+
+// The text a streamed scoring writes for `annotation`.
+std::string streamedText(const model::Annotation& annotation, const analysis::AnalysisOptions& o) {
+  std::string text;
+  JsonOut out([&text](std::string_view chunk) { text.append(chunk); });
+  model::Project project;
+  project.annotation = annotation;
+  scoreToReportJson(out, project, o);
+  return text;
+}
+
+TEST(ReportJson, StreamedReportIsByteForByteTheStoredOne) {
+  // Common practice, no source: `score --json` writes while it scores; the bytes must be the
+  // ones the stored report gives. Long trials span many chunks and several 1 MiB flushes; the
+  // empty one has no strides and no extra.strides elements.
+  model::Annotation empty;
+  empty.captureRate = Rational{250, 1};
+  const std::vector<model::Annotation> trials = {
+      testing::checkOneTrial(), empty, testing::variedTrain(model::LimbSet::quadruped(), 12000, 11),
+      testing::variedTrain(model::LimbSet::hexapod(), 9000, 12),
+      testing::variedTrain(model::LimbSet::biped(), 9000, 13)};
+  analysis::AnalysisOptions options;
+  options.strideSupport = false;  // as the verb does; the bytes do not depend on it
+  for (const model::Annotation& trial : trials) {
+    const std::string stored = reportJsonText(analysis::analyse(trial, options));
+    const std::string streamed = streamedText(trial, options);
+    EXPECT_EQ(streamed.size(), stored.size()) << trial.limbs.name();
+    EXPECT_TRUE(streamed == stored) << trial.limbs.name();
+    EXPECT_TRUE(nlohmann::json::accept(streamed));
+  }
+}
+
+TEST(ReportJson, StreamedFileIsWholeOrUntouched) {
+  // Common practice, no source: the streamed file is replaced atomically, like a stored one.
+  const auto folder = std::filesystem::temp_directory_path() / "stridemark_stream_test";
+  std::filesystem::create_directories(folder);
+  const auto path = folder / "report.json";
+  model::Project project;
+  project.annotation = testing::variedTrain(model::LimbSet::quadruped(), 5000, 5);
+  const analysis::Report rest = scoreToReportJsonFile(path, project, {});
+  EXPECT_TRUE(rest.strides.empty());
+  EXPECT_EQ(readWholeFile(path), reportJsonText(analysis::analyse(project.annotation)));
+  project.annotation.captureRate = Rational{0, 1};  // unusable: scoring refuses
+  EXPECT_THROW(scoreToReportJsonFile(path, project, {}), Error);
+  EXPECT_EQ(readWholeFile(path), reportJsonText(analysis::analyse(
+                                     testing::variedTrain(model::LimbSet::quadruped(), 5000, 5))));
+  std::filesystem::remove_all(folder);
 }
 
 }  // namespace
