@@ -375,7 +375,7 @@ class RotatingStrides final : public StrideSlots {
 
 // The summaries over strides, fed in stride order as each stride is built.
 struct StrideSummaries {
-  StrideSummaries(int limbCount, std::size_t strides) : phases(limbCount, strides) {}
+  explicit StrideSummaries(int limbCount) : phases(limbCount) {}
   void add(const StrideRecord& s, std::size_t index) {
     phases.add(s);
     hildebrand.add(s);
@@ -474,7 +474,7 @@ void analyseInto(const model::Annotation& annotation, const AnalysisOptions& opt
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   if (consumer) consumer->begin(report);
   const std::vector<const LimbCycle*> kept = keptStrides(scan, reference);
-  StrideSummaries summaries(annotation.limbs.size(), kept.size());
+  StrideSummaries summaries(annotation.limbs.size());
   const PipeInput input{annotation, options, scan, kept};
   SupportShares overall;
   if (consumer) {

@@ -74,16 +74,29 @@ double rayleighP(int n, double rBar) {
 }
 
 CircularStats circularStats(std::span<const double> phases) {
+  CircularSums sums;
+  for (const double phase : phases) sums.add(phase);
+  return sums.stats();
+}
+
+void CircularSums::add(double phase) {
+  const double angle = phase * kTwoPi;  // as resultant() on the period [0, 1)
+  cos_ += std::cos(angle);
+  sin_ += std::sin(angle);
+  ++n_;
+}
+
+CircularStats CircularSums::stats() const {
   CircularStats out;
-  out.n = static_cast<int>(phases.size());
-  if (phases.empty()) {
+  out.n = n_;
+  if (n_ == 0) {
     out.mean = std::numeric_limits<double>::quiet_NaN();
     out.r = std::numeric_limits<double>::quiet_NaN();
     out.circVar = out.circSd = out.angularDev = out.rayleighZ = out.r;
     out.rayleighP = out.r;
     return out;
   }
-  const Resultant res = resultant(phases, 1.0, 0.0);
+  const Resultant res{cos_ / static_cast<double>(n_), sin_ / static_cast<double>(n_)};
   out.r = std::min(1.0, res.r());
   out.defined = out.r >= kZeroR;
   if (!out.defined) out.r = 0.0;

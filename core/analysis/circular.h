@@ -21,6 +21,19 @@ struct CircularStats {
 // Statistics of phases given in cycles (any real value; wrapped implicitly).
 CircularStats circularStats(std::span<const double> phases);
 
+// The same statistics, fed one phase at a time (in order: the sums, so the results, are then
+// the bits circularStats gives), for long trials whose phases are not kept.
+class CircularSums {
+ public:
+  void add(double phase);
+  CircularStats stats() const;
+
+ private:
+  double cos_ = 0;
+  double sin_ = 0;
+  int n_ = 0;
+};
+
 // Circular mean of samples on a period [low, high) like scipy.stats.circmean; NaN when R == 0.
 double circularMean(std::span<const double> samples, double high, double low = 0.0);
 // Circular SD sqrt(-2 ln R) scaled to the period, like scipy.stats.circstd.

@@ -8,52 +8,49 @@
 #include "analysis/speed.h"
 #include "analysis/stats.h"
 #include "analysis/symmetry.h"
-#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 
 std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
   std::vector<LimbSummary> out;
-  HugeVector<double> stride, stance, swing, duty;
   for (const LimbTrack& track : tracks) {
-    for (HugeVector<double>* values : {&stride, &stance, &swing, &duty}) {
-      values->clear();
-      values->reserve(track.cycles.size());
-    }
-    for (const LimbCycle& c : track.cycles) {
-      stride.push_back(framesToSeconds(c.strideFrames(), fps));
-      if (!c.liftoff) continue;
-      stance.push_back(framesToSeconds(*c.stanceFrames(), fps));
-      swing.push_back(framesToSeconds(c.nextTouchdown - *c.liftoff, fps));
-      duty.push_back(static_cast<double>(*c.stanceFrames()) /
-                     static_cast<double>(c.strideFrames()));
-    }
+    const auto eachCycle = [&track](auto measure) {
+      return describeEach([&](auto&& take) {
+        for (const LimbCycle& c : track.cycles) measure(c, take);
+      });
+    };
     LimbSummary s;
     s.strides = static_cast<int>(track.cycles.size());
-    s.strideS = describe(stride);
-    s.stanceS = describe(stance);
-    s.swingS = describe(swing);
-    s.dutyFactor = describe(duty);
+    s.strideS = eachCycle(
+        [fps](const LimbCycle& c, auto&& take) { take(framesToSeconds(c.strideFrames(), fps)); });
+    s.stanceS = eachCycle([fps](const LimbCycle& c, auto&& take) {
+      if (c.liftoff) take(framesToSeconds(*c.stanceFrames(), fps));
+    });
+    s.swingS = eachCycle([fps](const LimbCycle& c, auto&& take) {
+      if (c.liftoff) take(framesToSeconds(c.nextTouchdown - *c.liftoff, fps));
+    });
+    s.dutyFactor = eachCycle([](const LimbCycle& c, auto&& take) {
+      if (c.liftoff)
+        take(static_cast<double>(*c.stanceFrames()) / static_cast<double>(c.strideFrames()));
+    });
     out.push_back(s);
   }
   return out;
 }
 
-PhaseSummariser::PhaseSummariser(int limbCount, std::size_t expectedStrides)
-    : phases_(static_cast<std::size_t>(std::max(limbCount, 0))) {
-  for (auto& limbPhases : phases_) limbPhases.reserve(expectedStrides);
-}
+PhaseSummariser::PhaseSummariser(int limbCount)
+    : phases_(static_cast<std::size_t>(std::max(limbCount, 0))) {}
 
 void PhaseSummariser::add(const StrideRecord& stride) {
   const std::size_t n = std::min(phases_.size(), stride.phase.size());
   for (std::size_t i = 0; i < n; ++i)
-    if (stride.phase[i]) phases_[i].push_back(*stride.phase[i]);
+    if (stride.phase[i]) phases_[i].add(*stride.phase[i]);
 }
 
 std::vector<PhaseSummary> PhaseSummariser::finish() const {
   std::vector<PhaseSummary> out;
-  for (const HugeVector<double>& limbPhases : phases_) {
-    const CircularStats c = circularStats(limbPhases);
+  for (const CircularSums& limbPhases : phases_) {
+    const CircularStats c = limbPhases.stats();
     PhaseSummary p;
     p.n = c.n;
     if (c.n > 0) {

@@ -1,13 +1,12 @@
 #pragma once
 // Report-level summaries built from cycles and strides: per-limb statistics, per-limb phase
 // statistics, the Hildebrand point, left/right symmetry and speed measures.
-#include <cstddef>
 #include <optional>
 #include <vector>
 
+#include "analysis/circular.h"
 #include "analysis/cycles.h"
 #include "analysis/report.h"
-#include "common/huge_pages.h"
 
 namespace stridemark::analysis {
 
@@ -18,12 +17,12 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
 // stride, in stride order, so a streamed analysis gets the same numbers as a stored one.
 class PhaseSummariser {
  public:
-  PhaseSummariser(int limbCount, std::size_t expectedStrides);
+  explicit PhaseSummariser(int limbCount);
   void add(const StrideRecord& stride);
   std::vector<PhaseSummary> finish() const;
 
  private:
-  std::vector<HugeVector<double>> phases_;  // per limb
+  std::vector<CircularSums> phases_;  // per limb
 };
 
 // Mean hind duty factor and circular-mean limb phase of the symmetrical strides; null if none.
