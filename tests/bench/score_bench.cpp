@@ -17,6 +17,9 @@
 // Prints {"parse_s", "score_s", "ratio", "peak_rss_mb", ...}: medians of the runs. CPU times
 // are the child's process CPU time (every thread, user + system) over the measured work only;
 // *_s stage times are wall time.
+// write_only_s: a third child writes as many bytes as the report to a new file and computes
+// nothing; parse_plus_write_ratio = (parse_s + write_only_s) / parse_s is the least ratio any
+// score run that writes this report could reach on this machine.
 // Targets (issue 2): ratio <= 2.0, peak RSS < 300 MB.
 // Usage: score_bench [runs=7] [strides-per-limb=125000] [pause-seconds=3]   (0: smoke test)
 #include <sys/resource.h>
@@ -142,6 +145,26 @@ Sample parseOnly(const fs::path& csvPath) {
   return out;
 }
 
+// A floor for any run that writes the report: the same number of bytes written to a new file
+// as `score` writes it (AtomicFile, regenerable, 1 MiB chunks), nothing computed.
+Sample writeOnly(const fs::path& path, std::size_t bytes) {
+  Sample out;
+  const auto start = Clock::now();
+  const double cpu0 = cpuSeconds();
+  const std::string chunk(std::size_t{1} << 20, ' ');
+  formats::AtomicFile file(path, formats::Durability::regenerable);
+  for (std::size_t left = bytes; left > 0;) {
+    const std::size_t n = std::min(left, chunk.size());
+    file.write(std::string_view(chunk.data(), n));
+    left -= n;
+  }
+  file.commit();
+  out.cpu = cpuSeconds() - cpu0;
+  out.wall = secondsSince(start);
+  out.count = bytes;
+  return out;
+}
+
 double peakRssMb() {
   rusage usage{};
   getrusage(RUSAGE_SELF, &usage);
@@ -187,7 +210,9 @@ Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
 
 int childMain(const std::string& mode, const fs::path& csvPath, const fs::path& jsonPath) {
   keepFreedMemoryForReuse();  // as app/cli/run.cpp does before any verb
-  const Sample s = mode == "parse" ? parseOnly(csvPath) : scoreToJson(csvPath, jsonPath);
+  const Sample s = mode == "parse"              ? parseOnly(csvPath)
+                   : mode.starts_with("write:") ? writeOnly(jsonPath, std::stoull(mode.substr(6)))
+                                                : scoreToJson(csvPath, jsonPath);
   std::printf("%.6f %.6f %.6f %.6f %.3f %zu %.6f %.6f\n", s.wall, s.cpu, s.read, s.analyse,
               peakRssMb(), s.count, s.readWall, s.analyseWall);
   return 0;
@@ -211,13 +236,17 @@ int main(int argc, char** argv) {
     formats::writeEventsCsv(csvPath, trot, "score_bench seeded trot (seed 42)");
   }
   const std::string self = fs::read_symlink("/proc/self/exe").string();
-  std::vector<double> parse, score, parseCpu, scoreCpu, read, analyse, rss;
+  const fs::path bytesPath = folder / "bytes.json";
+  std::vector<double> parse, score, parseCpu, scoreCpu, read, analyse, rss, writeFloor;
   std::vector<double> readWall, analyseWall;
   std::size_t strides = 0, parsed = 0;
   for (int run = 0; run < runs; ++run) {
     const Sample p = runChild(self.c_str(), "parse", csvPath, jsonPath, pause);
     fs::remove(jsonPath);
     const Sample s = runChild(self.c_str(), "score", csvPath, jsonPath, pause);
+    fs::remove(bytesPath);
+    const std::string write = "write:" + std::to_string(fs::file_size(jsonPath));
+    writeFloor.push_back(runChild(self.c_str(), write.c_str(), csvPath, bytesPath, pause).wall);
     parsed = p.count;
     strides = s.count;
     parse.push_back(p.wall);
@@ -238,12 +267,13 @@ int main(int argc, char** argv) {
       "\"parse_cpu_s\": %.4f, \"score_cpu_s\": %.4f, \"ratio_cpu\": %.3f, "
       "\"score_read_cpu_s\": %.4f, \"score_analyse_and_write_cpu_s\": %.4f, "
       "\"score_read_s\": %.4f, \"score_analyse_and_write_s\": %.4f, "
+      "\"write_only_s\": %.4f, \"parse_plus_write_ratio\": %.3f, "
       "\"target_ratio\": 2.0, \"target_peak_rss_mb\": 300}\n",
       events, parsed, strides, static_cast<double>(fs::file_size(csvPath)) / 1e6,
       static_cast<double>(fs::file_size(jsonPath)) / 1e6, runs, parseS, scoreS, scoreS / parseS,
       *std::max_element(rss.begin(), rss.end()), median(parseCpu), median(scoreCpu),
       median(scoreCpu) / median(parseCpu), median(read), median(analyse), median(readWall),
-      median(analyseWall));
+      median(analyseWall), median(writeFloor), (parseS + median(writeFloor)) / parseS);
   std::error_code ec;
   fs::remove_all(folder, ec);
   return 0;
