@@ -184,22 +184,25 @@ int scoreToJsonOnly(const ScoreOptions& options, const model::Project& project) 
   return kExitOk;
 }
 
+// The report JSON of a report kept whole (when tables are written too).
+void writeStoredJson(const ScoreOptions& options, const analysis::Report& report) {
+  if (options.json == "-") {
+    formats::JsonOut out(stdoutSink());
+    formats::writeReportJson(report, out);
+    std::fflush(stdout);
+  } else {
+    formats::writeReportJsonFile(options.json, report);
+    std::cerr << "wrote " << options.json << '\n';
+  }
+}
+
 int runScore(const ScoreOptions& options) {
   try {
     const model::Project project = loadInput(options);
     if (!options.json.empty() && options.csv.empty()) return scoreToJsonOnly(options, project);
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
-    if (!options.json.empty()) {
-      if (options.json == "-") {
-        formats::JsonOut out(stdoutSink());
-        formats::writeReportJson(report, out);
-        std::fflush(stdout);
-      } else {
-        formats::writeReportJsonFile(options.json, report);
-        std::cerr << "wrote " << options.json << '\n';
-      }
-    }
+    if (!options.json.empty()) writeStoredJson(options, report);
     if (!options.csv.empty()) {
       const auto files =
           formats::writeTables(options.csv, project.annotation, report, {options.input});
