@@ -453,8 +453,9 @@ struct ReportJsonStream::Pending {
 
   void addExtra(const analysis::StrideRecord& s) {
     const std::size_t room = StrideText::extraRoom(s) + 1;
-    if (pieces.empty() || kPiece - pieces.back().size < room) {
-      pieces.push_back({std::make_unique_for_overwrite<char[]>(std::max(kPiece, room)), 0});
+    if (pieces.empty() || pieces.back().capacity - pieces.back().size < room) {
+      const std::size_t capacity = std::max(kPiece, room);
+      pieces.push_back({std::make_unique_for_overwrite<char[]>(capacity), 0, capacity});
     }
     Piece& piece = pieces.back();
     char* p = piece.text.get() + piece.size;
@@ -468,6 +469,7 @@ struct ReportJsonStream::Pending {
   struct Piece {
     std::unique_ptr<char[]> text;
     std::size_t size = 0;
+    std::size_t capacity = 0;
   };
   StrideText strides;
   std::vector<Piece> pieces;
