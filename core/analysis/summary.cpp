@@ -70,15 +70,16 @@ std::vector<PhaseSummary> PhaseSummariser::finish() const {
 
 void HildebrandSummariser::add(const StrideRecord& stride) {
   if (!stride.symmetrical || !stride.limbPhase || !stride.hindDutyFactor) return;
-  phases_.push_back(*stride.limbPhase);
+  limbPhases_.add(*stride.limbPhase);
   dutySum_ += *stride.hindDutyFactor;
 }
 
 std::optional<HildebrandSummary> HildebrandSummariser::finish() const {
-  if (phases_.empty()) return std::nullopt;
+  const CircularStats phases = limbPhases_.stats();
+  if (phases.n == 0) return std::nullopt;
   HildebrandSummary out;
-  out.dutyFactor = dutySum_ / static_cast<double>(phases_.size());
-  out.limbPhase = circularMean(phases_, 1.0);
+  out.dutyFactor = dutySum_ / static_cast<double>(phases.n);
+  out.limbPhase = phases.mean;  // NaN when the mean direction does not exist
   if (std::isnan(out.limbPhase)) return out;
   out.band = hildebrandBand(out.limbPhase);
   out.quadrant = cartmillQuadrant(out.limbPhase).value_or("");

@@ -32,7 +32,7 @@ class HildebrandSummariser {
   std::optional<HildebrandSummary> finish() const;
 
  private:
-  std::vector<double> phases_;
+  CircularSums limbPhases_;
   double dutySum_ = 0;
 };
 

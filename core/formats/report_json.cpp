@@ -451,7 +451,7 @@ void writeReportJsonFile(const std::filesystem::path& path, const Report& report
 struct ReportJsonStream::Pending {
   explicit Pending(const Report& head) : strides(head) {}
 
-  void addExtra(const analysis::StrideRecord& s) {
+  void addExtra(const analysis::StrideRecord& s, text::NumberText& numbers) {
     const std::size_t room = StrideText::extraRoom(s) + 1;
     if (pieces.empty() || pieces.back().capacity - pieces.back().size < room) {
       const std::size_t capacity = std::max(kPiece, room);
@@ -473,7 +473,6 @@ struct ReportJsonStream::Pending {
   };
   StrideText strides;
   std::vector<Piece> pieces;
-  text::NumberText numbers;
   bool any = false;
 };
 
@@ -488,7 +487,7 @@ void ReportJsonStream::begin(const Report& head) {
 void ReportJsonStream::consume(std::span<const analysis::StrideRecord> strides) {
   for (const analysis::StrideRecord& s : strides) {
     pending_->strides.write(out_, s);
-    pending_->addExtra(s);
+    pending_->addExtra(s, out_.numbers());  // same thread as the strides' own text
   }
 }
 
