@@ -171,14 +171,15 @@ model::Project loadInput(const ScoreOptions& options) {
 }
 
 // The report JSON alone: written while it is scored, without keeping the strides.
-int scoreToJsonOnly(const ScoreOptions& options, const model::Project& project) {
+// Consumes the project: its events are freed once read, and the analysis reuses their memory.
+int scoreToJsonOnly(const ScoreOptions& options, model::Project project) {
   const analysis::AnalysisOptions settings = analysisOptions(options, project.annotation);
   if (options.json == "-") {
     formats::JsonOut out(stdoutSink());
-    formats::scoreToReportJson(out, project, settings);
+    formats::scoreToReportJson(out, std::move(project), settings);
     std::fflush(stdout);
   } else {
-    formats::scoreToReportJsonFile(options.json, project, settings);
+    formats::scoreToReportJsonFile(options.json, std::move(project), settings);
     std::cerr << "wrote " << options.json << '\n';
   }
   return kExitOk;
@@ -198,8 +199,9 @@ void writeStoredJson(const ScoreOptions& options, const analysis::Report& report
 
 int runScore(const ScoreOptions& options) {
   try {
-    const model::Project project = loadInput(options);
-    if (!options.json.empty() && options.csv.empty()) return scoreToJsonOnly(options, project);
+    model::Project project = loadInput(options);
+    if (!options.json.empty() && options.csv.empty())
+      return scoreToJsonOnly(options, std::move(project));
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
     if (!options.json.empty()) writeStoredJson(options, report);

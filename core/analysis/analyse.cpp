@@ -207,9 +207,8 @@ class StrideBuilder {
       if (!wp.first) continue;
       const LimbCycle* cycle = cursor(limb).cycleAt(*wp.first);
       firstCycles_[i] = cycle;
-      if (cycle && cycle->liftoff)
-        s.dutyFactor[i] = static_cast<double>(*cycle->stanceFrames()) /
-                          static_cast<double>(cycle->strideFrames());
+      if (const auto stance = cycle ? cycle->stanceFrames() : std::nullopt)
+        s.dutyFactor[i] = static_cast<double>(*stance) / static_cast<double>(cycle->strideFrames());
     }
   }
 
@@ -461,16 +460,18 @@ SupportShares pipeStrides(const PipeInput& in, StrideSlots& slots, StrideSummari
 }
 
 // Everything analyse() and analyseStreaming() share. Without a consumer the strides stay in
-// the report; with one they go to it and are dropped.
+// the report; with one they go to it and are dropped. `scanCycles` reads the tags once the
+// options are checked.
+template <typename ScanCycles>
 void analyseInto(const model::Annotation& annotation, const AnalysisOptions& options,
-                 Report& report, StrideConsumer* consumer) {
+                 Report& report, StrideConsumer* consumer, ScanCycles scanCycles) {
   const int reference = options.referenceLimb.value_or(annotation.referenceLimb);
   checkOptions(annotation, options, reference);
   report.limbs = annotation.limbs;
   report.fps = annotation.captureRate;
   report.referenceLimb = reference;
 
-  CycleScan scan = scanCycles(annotation);
+  CycleScan scan = scanCycles();
   report.limbSummary = summariseLimbs(scan.tracks, annotation.captureRate);
   if (consumer) consumer->begin(report);
   const std::vector<const LimbCycle*> kept = keptStrides(scan, reference);
@@ -512,14 +513,14 @@ AnalysisOptions withTrialCard(const model::Project& project, const AnalysisOptio
 
 Report analyse(const model::Annotation& annotation, const AnalysisOptions& options) {
   Report report;
-  analyseInto(annotation, options, report, nullptr);
+  analyseInto(annotation, options, report, nullptr, [&] { return scanCycles(annotation); });
   return report;
 }
 
 Report analyseStreaming(const model::Annotation& annotation, const AnalysisOptions& options,
                         StrideConsumer& consumer) {
   Report report;
-  analyseInto(annotation, options, report, &consumer);
+  analyseInto(annotation, options, report, &consumer, [&] { return scanCycles(annotation); });
   return report;
 }
 
@@ -530,6 +531,16 @@ Report analyse(const model::Project& project, const AnalysisOptions& options) {
 Report analyseStreaming(const model::Project& project, const AnalysisOptions& options,
                         StrideConsumer& consumer) {
   return analyseStreaming(project.annotation, withTrialCard(project, options), consumer);
+}
+
+Report analyseStreaming(model::Project&& project, const AnalysisOptions& options,
+                        StrideConsumer& consumer) {
+  const AnalysisOptions merged = withTrialCard(project, options);
+  model::Annotation& annotation = project.annotation;
+  Report report;
+  analyseInto(annotation, merged, report, &consumer,
+              [&] { return scanCycles(annotation, std::move(annotation.events)); });
+  return report;
 }
 
 }  // namespace stridemark::analysis

@@ -46,6 +46,10 @@ Report analyseStreaming(const model::Annotation& annotation, const AnalysisOptio
                         StrideConsumer& consumer);
 Report analyseStreaming(const model::Project& project, const AnalysisOptions& options,
                         StrideConsumer& consumer);
+// Same, consuming the project: its events are freed as soon as they are read, so the rest of
+// the analysis reuses their memory (a batch command scoring 10^6 events touches ~16 MB less).
+Report analyseStreaming(model::Project&& project, const AnalysisOptions& options,
+                        StrideConsumer& consumer);
 
 // Same, taking speed and leg length from the trial card unless the options override them.
 Report analyse(const model::Project& project, const AnalysisOptions& options = {});

@@ -11,7 +11,9 @@ namespace {
 
 using model::EventKind;
 
-// 8 bytes instead of 16: a long annotation holds one per event.
+// 8 bytes instead of 16: a long annotation holds one per event. Frames past kLastTagFrame
+// (beyond any real clip) are reported and ignored rather than cut to 62 bits.
+constexpr std::int64_t kLastTagFrame = (std::int64_t{1} << 61) - 1;
 struct Tag {
   Tag() = default;
   Tag(std::int64_t f, EventKind k) : frame(f), kind(k) {}
@@ -226,9 +228,16 @@ class LimbScanner {
                                      status.begin() + static_cast<std::ptrdiff_t>(next),
                                      [](PairStatus s) { return s != PairStatus::bad; });
       if (!clean) continue;
-      LimbCycle cycle{limb_, tags[i].frame, std::nullopt, tags[next].frame};
-      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
-        cycle.liftoff = tags[i + 1].frame;
+      LimbCycle cycle(limb_, tags[i].frame, tags[next].frame);
+      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame) &&
+          !cycle.setLiftoff(tags[i + 1].frame)) {
+        report(tags[i + 1].frame,
+               "stance of " + label() + " from frame " + std::to_string(tags[i].frame) +
+                   " is longer than 2^31 - 1 frames; the cycle was left out - check the frame "
+                   "numbers",
+               tags[i].frame);
+        continue;
+      }
       cycles_.push(cycle);
     }
   }
@@ -241,27 +250,43 @@ class LimbScanner {
   LimbTrack track_;
 };
 
-}  // namespace
-
-CycleScan scanCycles(const model::Annotation& annotation) {
-  CycleScan scan;
+// Each limb's tags, in the order of `events`; tags naming no limb of the set are reported.
+std::vector<HugeVector<Tag>> tagsByLimb(const model::Annotation& annotation,
+                                        std::span<const model::Event> events,
+                                        std::vector<Problem>& problems) {
   const int limbCount = annotation.limbs.size();
   std::vector<HugeVector<Tag>> tags(static_cast<std::size_t>(limbCount));
   std::vector<std::size_t> perLimb(static_cast<std::size_t>(limbCount), 0);
-  for (const model::Event& e : annotation.events)
+  for (const model::Event& e : events)
     if (e.limb >= 0 && e.limb < limbCount) ++perLimb[static_cast<std::size_t>(e.limb)];
   for (std::size_t i = 0; i < tags.size(); ++i) reserveHuge(tags[i], perLimb[i]);
-  for (const model::Event& e : annotation.events) {
+  for (const model::Event& e : events) {
     if (e.limb < 0 || e.limb >= limbCount) {
-      scan.problems.push_back({e.frame, std::nullopt,
-                               "tag at frame " + std::to_string(e.frame) + " names limb #" +
-                                   std::to_string(e.limb) + ", which the " +
-                                   annotation.limbs.name() + " limb set does not have (" +
-                                   annotation.limbs.labelList() + "); it was ignored"});
+      problems.push_back({e.frame, std::nullopt,
+                          "tag at frame " + std::to_string(e.frame) + " names limb #" +
+                              std::to_string(e.limb) + ", which the " + annotation.limbs.name() +
+                              " limb set does not have (" + annotation.limbs.labelList() +
+                              "); it was ignored"});
+      continue;
+    }
+    if (e.frame > kLastTagFrame || e.frame < -kLastTagFrame - 1) {
+      problems.push_back({e.frame, e.limb,
+                          "tag of " + annotation.limbs.label(e.limb) + " at frame " +
+                              std::to_string(e.frame) +
+                              " is beyond frame 2^61 - 1; it was ignored - check the frame "
+                              "number"});
       continue;
     }
     tags[static_cast<std::size_t>(e.limb)].push_back({e.frame, e.kind});
   }
+  return tags;
+}
+
+CycleScan scanTags(const model::Annotation& annotation, std::vector<HugeVector<Tag>> tags,
+                   std::vector<Problem> problems) {
+  CycleScan scan;
+  scan.problems = std::move(problems);
+  const int limbCount = annotation.limbs.size();
   for (const model::HiddenSpan& span : annotation.hidden) {
     if (span.limb >= 0 && span.limb < limbCount) continue;
     scan.problems.push_back({span.first, std::nullopt,
@@ -276,7 +301,8 @@ CycleScan scanCycles(const model::Annotation& annotation) {
   // touchdown); limbs are scanned in parallel, then their cycles are closed up in limb order.
   std::vector<CycleSlice> slices(tags.size());
   std::size_t cycleRoom = 0;
-  for (std::size_t i = 0; i < tags.size(); ++i) cycleRoom += slices[i].room = perLimb[i] / 2 + 1;
+  for (std::size_t i = 0; i < tags.size(); ++i)
+    cycleRoom += slices[i].room = tags[i].size() / 2 + 1;
   reserveHuge(scan.cycles, cycleRoom);
   scan.cycles.resize(cycleRoom);
   for (std::size_t i = 0, offset = 0; i < slices.size(); offset += slices[i++].room)
@@ -295,15 +321,30 @@ CycleScan scanCycles(const model::Annotation& annotation) {
     kept += slices[i].count;
   }
   scan.cycles.resize(kept);
-  for (auto& problems : limbProblems)
-    scan.problems.insert(scan.problems.end(), std::make_move_iterator(problems.begin()),
-                         std::make_move_iterator(problems.end()));
+  for (auto& found : limbProblems)
+    scan.problems.insert(scan.problems.end(), std::make_move_iterator(found.begin()),
+                         std::make_move_iterator(found.end()));
   std::stable_sort(scan.problems.begin(), scan.problems.end(),
                    [](const Problem& a, const Problem& b) {
                      if (a.frame != b.frame) return a.frame < b.frame;
                      return a.limb.value_or(-1) < b.limb.value_or(-1);
                    });
   return scan;
+}
+
+}  // namespace
+
+CycleScan scanCycles(const model::Annotation& annotation) {
+  std::vector<Problem> problems;
+  std::vector<HugeVector<Tag>> tags = tagsByLimb(annotation, annotation.events, problems);
+  return scanTags(annotation, std::move(tags), std::move(problems));
+}
+
+CycleScan scanCycles(const model::Annotation& rest, std::vector<model::Event>&& events) {
+  std::vector<Problem> problems;
+  std::vector<HugeVector<Tag>> tags = tagsByLimb(rest, events, problems);
+  std::vector<model::Event>().swap(events);  // its memory now holds the cycles
+  return scanTags(rest, std::move(tags), std::move(problems));
 }
 
 const LimbCycle* cycleStartingAt(const LimbTrack& track, std::int64_t touchdown) {

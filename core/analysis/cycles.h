@@ -46,6 +46,10 @@ struct CycleScan {
 // last touchdown (clip starting or ending mid-stance) is normal. Hidden spans make the state
 // unknown: cycles across them keep their stride time but lose stance, swing and duty factor.
 CycleScan scanCycles(const model::Annotation& annotation);
+// Same, for a caller done with the events: `events` (moved out of the annotation, whose other
+// members `rest` still holds) is freed as soon as it is read, so a long trial's cycles reuse its
+// memory instead of fresh pages.
+CycleScan scanCycles(const model::Annotation& rest, std::vector<model::Event>&& events);
 
 // The cycle of `track` that starts exactly at `touchdown`, if it is complete and valid.
 const LimbCycle* cycleStartingAt(const LimbTrack& track, std::int64_t touchdown);

@@ -27,16 +27,37 @@ struct Stat {
 };
 
 // One complete cycle of one limb: touchdown -> next touchdown (its own stride).
+// 24 bytes: a long annotation holds one per touchdown, so the lift-off is kept as the frames
+// of stance after the touchdown.
 struct LimbCycle {
-  int limb = 0;
+  LimbCycle() = default;
+  LimbCycle(int limbIndex, std::int64_t touchdownFrame, std::int64_t nextTouchdownFrame)
+      : touchdown(touchdownFrame), nextTouchdown(nextTouchdownFrame), limb(limbIndex) {}
+
   std::int64_t touchdown = 0;
-  std::optional<std::int64_t> liftoff;  // missing when the lift-off was not tagged
   std::int64_t nextTouchdown = 0;
+  std::int32_t limb = 0;
+
+  // Missing when the lift-off was not tagged (or fell in a hidden span).
+  std::optional<std::int64_t> liftoff() const {
+    return stance_ < 0 ? std::nullopt : std::optional(touchdown + stance_);
+  }
+  // False (and nothing set) when the stance is longer than a cycle can hold (2^31 - 1 frames).
+  bool setLiftoff(std::int64_t frame) {
+    const std::int64_t stance = frame - touchdown;
+    if (stance < 0 || stance > std::numeric_limits<std::int32_t>::max()) return false;
+    stance_ = static_cast<std::int32_t>(stance);
+    return true;
+  }
   std::int64_t strideFrames() const { return nextTouchdown - touchdown; }
   std::optional<std::int64_t> stanceFrames() const {
-    return liftoff ? std::optional(*liftoff - touchdown) : std::nullopt;
+    return stance_ < 0 ? std::nullopt : std::optional<std::int64_t>(stance_);
   }
+
+ private:
+  std::int32_t stance_ = -1;  // frames from touchdown to lift-off; -1: no lift-off
 };
+static_assert(sizeof(LimbCycle) == 24);
 
 struct LimbSummary {
   int strides = 0;  // complete, valid cycles

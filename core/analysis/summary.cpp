@@ -24,14 +24,14 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
     s.strideS = eachCycle(
         [fps](const LimbCycle& c, auto&& take) { take(framesToSeconds(c.strideFrames(), fps)); });
     s.stanceS = eachCycle([fps](const LimbCycle& c, auto&& take) {
-      if (c.liftoff) take(framesToSeconds(*c.stanceFrames(), fps));
+      if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
     });
     s.swingS = eachCycle([fps](const LimbCycle& c, auto&& take) {
-      if (c.liftoff) take(framesToSeconds(c.nextTouchdown - *c.liftoff, fps));
+      if (const auto liftoff = c.liftoff()) take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
     });
     s.dutyFactor = eachCycle([](const LimbCycle& c, auto&& take) {
-      if (c.liftoff)
-        take(static_cast<double>(*c.stanceFrames()) / static_cast<double>(c.strideFrames()));
+      if (const auto stance = c.stanceFrames())
+        take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
     });
     out.push_back(s);
   }

@@ -501,19 +501,19 @@ void ReportJsonStream::finish(const Report& report) {
   pending_.reset();
 }
 
-Report scoreToReportJson(JsonOut& out, const model::Project& project,
+Report scoreToReportJson(JsonOut& out, model::Project project,
                          const analysis::AnalysisOptions& options) {
   ReportJsonStream stream(out);
-  Report report = analysis::analyseStreaming(project, options, stream);
+  Report report = analysis::analyseStreaming(std::move(project), options, stream);
   stream.finish(report);
   return report;
 }
 
-Report scoreToReportJsonFile(const std::filesystem::path& path, const model::Project& project,
+Report scoreToReportJsonFile(const std::filesystem::path& path, model::Project project,
                              const analysis::AnalysisOptions& options) {
   AtomicFile file(path, Durability::regenerable);  // a report is made again from its input
   JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
-  Report report = scoreToReportJson(out, project, options);
+  Report report = scoreToReportJson(out, std::move(project), options);
   file.commit();
   return report;
 }

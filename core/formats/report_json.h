@@ -55,12 +55,12 @@ class ReportJsonStream final : public analysis::StrideConsumer {
 };
 
 // Scores `project` and writes its report to `out` in one pass; returns the report without its
-// strides (see analysis::analyseStreaming).
-analysis::Report scoreToReportJson(JsonOut& out, const model::Project& project,
+// strides (see analysis::analyseStreaming). Takes the project by value: move it in and its
+// events are freed as soon as they are read.
+analysis::Report scoreToReportJson(JsonOut& out, model::Project project,
                                    const analysis::AnalysisOptions& options);
 // Same, into a file, atomically: on any failure an existing file is left unchanged.
-analysis::Report scoreToReportJsonFile(const std::filesystem::path& path,
-                                       const model::Project& project,
+analysis::Report scoreToReportJsonFile(const std::filesystem::path& path, model::Project project,
                                        const analysis::AnalysisOptions& options);
 
 // Reader (tests, later export). Per-limb cycles are not part of the JSON and stay empty.

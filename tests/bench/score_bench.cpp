@@ -119,7 +119,7 @@ Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
   analysis::AnalysisOptions analysisOptions;
   analysisOptions.strideSupport = false;  // as the verb does
   const analysis::Report report =
-      formats::scoreToReportJsonFile(jsonPath, project, analysisOptions);
+      formats::scoreToReportJsonFile(jsonPath, std::move(project), analysisOptions);
   const double cpu2 = cpuSeconds();
   out.wall = secondsSince(start);
   out.readWall = std::chrono::duration<double>(read - start).count();
