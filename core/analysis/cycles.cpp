@@ -11,19 +11,6 @@ namespace {
 
 using model::EventKind;
 
-// 8 bytes instead of 16: a long annotation holds one per event. Frames past kLastTagFrame
-// (beyond any real clip) are reported and ignored rather than cut to 62 bits.
-constexpr std::int64_t kLastTagFrame = (std::int64_t{1} << 61) - 1;
-struct Tag {
-  Tag() = default;
-  Tag(std::int64_t f, EventKind k) : frame(f), kind(k) {}
-  std::int64_t frame : 62 = 0;
-  EventKind kind : 2 = EventKind::touchdown;  // 2 bits: the enum's type is signed
-};
-static_assert(sizeof(Tag) == 8);
-
-enum class PairStatus : std::uint8_t { ok, occluded, bad };
-
 std::string describe(EventKind kind) {
   return kind == EventKind::touchdown ? "touchdown" : "lift-off";
 }
@@ -67,7 +54,7 @@ bool overlapsHidden(const std::vector<StateInterval>& hidden, std::int64_t first
 
 // Appends [first, end) minus the hidden intervals to `out`.
 void appendVisible(const std::vector<StateInterval>& hidden, StateInterval interval,
-                   HugeVector<StateInterval>& out) {
+                   std::vector<StateInterval>& out) {
   auto it = std::upper_bound(hidden.begin(), hidden.end(), interval.first,
                              [](std::int64_t f, const StateInterval& s) { return f < s.end; });
   std::int64_t cursor = interval.first;
@@ -104,14 +91,14 @@ class LimbScanner {
       std::sort(tags.begin(), tags.end(), byFrameThenKind);
     dropUnusable(tags);
     orderSameFrame(tags);
-    reserveHuge(track_.known, tags.size() + 2 * hidden_.size());
     reserveHuge(track_.touchdowns, tags.size() / 2 + 1);
-    const HugeVector<PairStatus> status = checkPairs(tags);
+    HugeVector<PairStatus> status = checkPairs(tags);
     buildCycles(tags, status);
     for (const Tag& t : tags)
       if (t.kind == EventKind::touchdown) track_.touchdowns.push_back(t.frame);
     std::sort(track_.flagged.begin(), track_.flagged.end(),
               [](const FlaggedSpan& a, const FlaggedSpan& b) { return a.first < b.first; });
+    track_.known = KnownStates(std::move(tags), std::move(status), std::move(hidden_));
     return std::move(track_);
   }
 
@@ -177,12 +164,9 @@ class LimbScanner {
                      " on the same frame - move one of them",
                  a.frame);
           status[i] = PairStatus::bad;
-        } else {
-          appendVisible(hidden_, {a.frame, b.frame, a.kind == EventKind::touchdown}, track_.known);
         }
       } else if (overlapsHidden(hidden_, a.frame + 1, b.frame)) {
         status[i] = PairStatus::occluded;  // the missing tag fell in a hidden span
-        addKnownAroundOcclusion(a, b);
       } else {
         status[i] = PairStatus::bad;
         if (a.kind == EventKind::touchdown) {
@@ -201,20 +185,6 @@ class LimbScanner {
       }
     }
     return status;
-  }
-
-  // Two like tags around a hidden span: the state is known from the first tag up to the span
-  // and from the span up to the second tag.
-  void addKnownAroundOcclusion(const Tag& a, const Tag& b) {
-    auto first = std::upper_bound(hidden_.begin(), hidden_.end(), a.frame,
-                                  [](std::int64_t f, const StateInterval& s) { return f < s.end; });
-    const bool stanceAfterA = a.kind == EventKind::touchdown;
-    if (first->first > a.frame) track_.known.push_back({a.frame, first->first, stanceAfterA});
-    auto last =
-        std::lower_bound(hidden_.begin(), hidden_.end(), b.frame,
-                         [](const StateInterval& s, std::int64_t f) { return s.first < f; });
-    --last;  // the last span starting before b
-    if (last->end < b.frame) track_.known.push_back({last->end, b.frame, !stanceAfterA});
   }
 
   void buildCycles(const HugeVector<Tag>& tags, const HugeVector<PairStatus>& status) {
@@ -332,7 +302,56 @@ CycleScan scanTags(const model::Annotation& annotation, std::vector<HugeVector<T
   return scan;
 }
 
+// Two like tags around a hidden span: the state is known from the first tag up to the span
+// and from the span up to the second tag.
+void appendAroundOcclusion(const std::vector<StateInterval>& hidden, const Tag& a, const Tag& b,
+                           std::vector<StateInterval>& out) {
+  auto first = std::upper_bound(hidden.begin(), hidden.end(), a.frame,
+                                [](std::int64_t f, const StateInterval& s) { return f < s.end; });
+  const bool stanceAfterA = a.kind == EventKind::touchdown;
+  if (first->first > a.frame) out.push_back({a.frame, first->first, stanceAfterA});
+  auto last = std::lower_bound(hidden.begin(), hidden.end(), b.frame,
+                               [](const StateInterval& s, std::int64_t f) { return s.first < f; });
+  --last;  // the last span starting before b
+  if (last->end < b.frame) out.push_back({last->end, b.frame, !stanceAfterA});
+}
+
 }  // namespace
+
+KnownStates::KnownStates(HugeVector<Tag> tags, HugeVector<PairStatus> status,
+                         std::vector<StateInterval> hidden)
+    : tags_(std::move(tags)), status_(std::move(status)), hidden_(std::move(hidden)) {}
+
+KnownStates::Reader::Reader(const KnownStates& states) : states_(&states) {
+  fill();
+}
+
+void KnownStates::Reader::next() {
+  if (++piece_ == pieces_.size()) fill();
+}
+
+// The intervals of the next pair of tags that has any: an ordinary pair gives its span less any
+// hidden part; a pair of like tags around a hidden span, the parts on either side of it.
+void KnownStates::Reader::fill() {
+  pieces_.clear();
+  piece_ = 0;
+  const auto& tags = states_->tags_;
+  const auto& hidden = states_->hidden_;
+  for (; pieces_.empty() && pair_ < states_->status_.size(); ++pair_) {
+    const Tag& a = tags[pair_];
+    const Tag& b = tags[pair_ + 1];
+    switch (states_->status_[pair_]) {
+      case PairStatus::ok:
+        appendVisible(hidden, {a.frame, b.frame, a.kind == EventKind::touchdown}, pieces_);
+        break;
+      case PairStatus::occluded:
+        appendAroundOcclusion(hidden, a, b, pieces_);
+        break;
+      case PairStatus::bad:
+        break;
+    }
+  }
+}
 
 CycleScan scanCycles(const model::Annotation& annotation) {
   std::vector<Problem> problems;

@@ -21,6 +21,56 @@ struct StateInterval {
 };
 static_assert(sizeof(StateInterval) == 16);
 
+// One tag of one limb. 8 bytes instead of 16: a long annotation holds one per event. Frames
+// past kLastTagFrame (beyond any real clip) are reported and ignored rather than cut to 62 bits.
+inline constexpr std::int64_t kLastTagFrame = (std::int64_t{1} << 61) - 1;
+struct Tag {
+  Tag() = default;
+  Tag(std::int64_t f, model::EventKind k) : frame(f), kind(k) {}
+  std::int64_t frame : 62 = 0;
+  model::EventKind kind : 2 = model::EventKind::touchdown;  // 2 bits: the enum type is signed
+};
+static_assert(sizeof(Tag) == 8);
+
+// What a pair of consecutive tags says about the frames between them.
+enum class PairStatus : std::uint8_t {
+  ok,        // a touchdown then a lift-off, or the reverse, on different frames
+  occluded,  // like tags around a hidden span, which holds the missing one
+  bad,       // an annotation problem: the state between them is unknown
+};
+
+// Where one limb's state is known, as ascending, disjoint intervals: from each checked tag to
+// the next, less hidden spans and problems. Read from the tags themselves rather than stored:
+// intervals would take 16 more bytes per tag of a long annotation.
+class KnownStates {
+ public:
+  KnownStates() = default;
+  // `tags` ascending and checked, `status` of each consecutive pair, `hidden` merged spans.
+  KnownStates(HugeVector<Tag> tags, HugeVector<PairStatus> status,
+              std::vector<StateInterval> hidden);
+
+  // Reads the intervals forwards, one at a time.
+  class Reader {
+   public:
+    explicit Reader(const KnownStates& states);
+    bool done() const { return piece_ == pieces_.size(); }
+    const StateInterval& current() const { return pieces_[piece_]; }
+    void next();
+
+   private:
+    void fill();
+    const KnownStates* states_;
+    std::size_t pair_ = 0;               // next pair of tags to read
+    std::vector<StateInterval> pieces_;  // intervals of the pair last read
+    std::size_t piece_ = 0;
+  };
+
+ private:
+  HugeVector<Tag> tags_;
+  HugeVector<PairStatus> status_;
+  std::vector<StateInterval> hidden_;
+};
+
 // Frames [first, last] (inclusive) that an annotation problem makes untrustworthy.
 struct FlaggedSpan {
   std::int64_t first = 0;
@@ -30,7 +80,7 @@ struct FlaggedSpan {
 struct LimbTrack {
   HugeVector<std::int64_t> touchdowns;  // every usable touchdown, ascending
   std::span<const LimbCycle> cycles;    // complete cycles without problems, ascending
-  HugeVector<StateInterval> known;      // where the limb's state is known, ascending, disjoint
+  KnownStates known;                    // where the limb's state is known
   std::vector<FlaggedSpan> flagged;     // ascending by first
 };
 

@@ -49,10 +49,12 @@ SupportTimeline::SupportTimeline(const LimbSet& limbs, const std::vector<LimbTra
 }
 
 void SupportTimeline::restart() {
-  cursors_.assign(tracks_.size(), Cursor{});
+  cursors_.clear();
   nextChange_.assign(tracks_.size(), kNoChange);
-  for (std::size_t i = 0; i < tracks_.size(); ++i)
-    if (!tracks_[i].known.empty()) nextChange_[i] = tracks_[i].known.front().first;
+  for (std::size_t i = 0; i < tracks_.size(); ++i) {
+    cursors_.push_back(Cursor{KnownStates::Reader(tracks_[i].known), 0});
+    if (!cursors_[i].known.done()) nextChange_[i] = cursors_[i].known.current().first;
+  }
   unknown_ = static_cast<int>(tracks_.size());
   stance_ = 0;
   mask_ = 0;
@@ -80,16 +82,16 @@ bool SupportTimeline::produce() {
       if (nextChange_[i] != frame) continue;
       const int limb = static_cast<int>(i);
       Cursor& c = cursors_[i];
-      const auto& iv = tracks_[static_cast<std::size_t>(limb)].known;
+      KnownStates::Reader& states = c.known;
       const int before = c.state;
-      while (c.next < iv.size() && iv[c.next].end <= frame) ++c.next;
+      while (!states.done() && states.current().end <= frame) states.next();
       std::int64_t nextChange = -1;
-      if (c.next < iv.size() && iv[c.next].first <= frame) {
-        c.state = iv[c.next].stance ? 2 : 1;
-        nextChange = iv[c.next].end;
+      if (!states.done() && states.current().first <= frame) {
+        c.state = states.current().stance ? 2 : 1;
+        nextChange = states.current().end;
       } else {
         c.state = 0;
-        if (c.next < iv.size()) nextChange = iv[c.next].first;
+        if (!states.done()) nextChange = states.current().first;
       }
       unknown_ += (c.state == 0) - (before == 0);
       stance_ += (c.state == 2) - (before == 2);

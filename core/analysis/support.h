@@ -61,7 +61,7 @@ class SupportTimeline {
     bool known = false;
   };
   struct Cursor {
-    std::size_t next = 0;
+    KnownStates::Reader known;
     int state = 0;  // 0 unknown, 1 swing, 2 stance
   };
   static constexpr std::int64_t kNoChange = INT64_MAX;

@@ -98,11 +98,21 @@ void AtomicFile::fail(std::string_view what, int errorNumber) {
                                      "folder's permissions and free space");
 }
 
+bool AtomicFile::setDirect(bool on) {
+  const int flags = ::fcntl(fd_, F_GETFL);
+  if (flags < 0) return direct_;
+  const int wanted = on ? (flags | O_DIRECT) : (flags & ~O_DIRECT);
+  if (wanted != flags && ::fcntl(fd_, F_SETFL, wanted) != 0) return direct_;
+  direct_ = on;
+  return direct_;
+}
+
 void AtomicFile::write(std::string_view bytes) {
   while (!bytes.empty()) {
     const ssize_t wrote = ::write(fd_, bytes.data(), bytes.size());
     if (wrote < 0) {
       if (errno == EINTR) continue;
+      if (errno == EINVAL && direct_ && !setDirect(false)) continue;  // refused: buffered
       fail("write failed", errno);
     }
     bytes.remove_prefix(static_cast<std::size_t>(wrote));

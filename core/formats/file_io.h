@@ -31,6 +31,13 @@ class AtomicFile {
   // fsync (survivePowerLoss), close, rename over the target, fsync the folder (survivePowerLoss)
   void commit();
 
+  // Direct I/O for the writes that follow: bytes go from the caller's memory to the disk
+  // without passing through the page cache. Returns whether it is now on: false where the file
+  // system does not offer it. While on, write() takes only memory aligned to kDirectAlignment
+  // and sizes that are multiples of it (a write the kernel still refuses is retried without).
+  static constexpr std::size_t kDirectAlignment = 4096;
+  bool setDirect(bool on);
+
  private:
   [[noreturn]] void fail(std::string_view what, int errorNumber);
   std::filesystem::path target_;
@@ -38,6 +45,7 @@ class AtomicFile {
   Durability durability_;
   int fd_ = -1;
   bool committed_ = false;
+  bool direct_ = false;
 };
 
 // One-shot form of AtomicFile for content already in memory.

@@ -7,6 +7,7 @@
 #include <functional>
 
 #include "formats/file_io.h"
+#include "formats/write_behind.h"
 
 namespace stridemark::formats {
 namespace {
@@ -441,7 +442,8 @@ std::string reportJsonText(const Report& report) {
 }
 
 void writeReportJsonFile(const std::filesystem::path& path, const Report& report) {
-  AtomicFile file(path, Durability::regenerable);  // a report is made again from its input
+  // Regenerable: a report is made again from its input. Written behind the formatting.
+  WriteBehindFile file(path, Durability::regenerable);
   JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
   writeReportJson(report, out);
   file.commit();
@@ -511,7 +513,9 @@ Report scoreToReportJson(JsonOut& out, model::Project project,
 
 Report scoreToReportJsonFile(const std::filesystem::path& path, model::Project project,
                              const analysis::AnalysisOptions& options) {
-  AtomicFile file(path, Durability::regenerable);  // a report is made again from its input
+  // Regenerable: a report is made again from its input. Written behind, so that the kernel's
+  // copying overlaps the scoring.
+  WriteBehindFile file(path, Durability::regenerable);
   JsonOut out([&file](std::string_view chunk) { file.write(chunk); });
   Report report = scoreToReportJson(out, std::move(project), options);
   file.commit();

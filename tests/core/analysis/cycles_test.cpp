@@ -60,9 +60,12 @@ TEST(Cycles, MidStanceStartAndEndAreNotProblems) {
   EXPECT_EQ(scan.tracks[2].cycles[0].touchdown, 100);
   EXPECT_EQ(scan.tracks[2].cycles[1].nextTouchdown, 350);
   // Known state runs from the first tag to the last: swing 10-100 ... swing 290-350.
-  ASSERT_FALSE(scan.tracks[2].known.empty());
-  EXPECT_EQ(scan.tracks[2].known.front().first, 10);
-  EXPECT_EQ(scan.tracks[2].known.back().end, 350);
+  KnownStates::Reader known(scan.tracks[2].known);
+  ASSERT_FALSE(known.done());
+  EXPECT_EQ(known.current().first, 10);
+  std::int64_t end = 0;
+  for (; !known.done(); known.next()) end = known.current().end;
+  EXPECT_EQ(end, 350);
 }
 
 TEST(Cycles, ConsumedEventsGiveTheSameScanAndAreFreed) {
