@@ -41,6 +41,7 @@
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
 #include "formats/report_json.h"
+#include "formats/write_behind.h"
 
 namespace {
 
@@ -146,13 +147,13 @@ Sample parseOnly(const fs::path& csvPath) {
 }
 
 // A floor for any run that writes the report: the same number of bytes written to a new file
-// as `score` writes it (AtomicFile, regenerable, 1 MiB chunks), nothing computed.
+// as `score` writes it (WriteBehindFile, regenerable, 1 MiB chunks), nothing computed.
 Sample writeOnly(const fs::path& path, std::size_t bytes) {
   Sample out;
   const auto start = Clock::now();
   const double cpu0 = cpuSeconds();
   const std::string chunk(std::size_t{1} << 20, ' ');
-  formats::AtomicFile file(path, formats::Durability::regenerable);
+  formats::WriteBehindFile file(path, formats::Durability::regenerable);
   for (std::size_t left = bytes; left > 0;) {
     const std::size_t n = std::min(left, chunk.size());
     file.write(std::string_view(chunk.data(), n));
