@@ -415,7 +415,9 @@ std::vector<const LimbCycle*> keptStrides(const CycleScan& scan, int reference) 
 
 // Strides a chunk at a time, on two threads: while one builds chunk k and adds it to the
 // summaries, the other sweeps support over chunk k - 1 and hands it to the consumer.
-constexpr std::size_t kChunkStrides = 4096;
+// 1536 records (about 1 MB each chunk): two chunks of 4096 took 5 MB of fresh pages, which in a
+// virtual machine cost more than the extra hand-overs (tests/bench/score_bench).
+constexpr std::size_t kChunkStrides = 1536;
 
 struct PipeInput {
   const model::Annotation& annotation;
