@@ -327,30 +327,42 @@ KnownStates::Reader::Reader(const KnownStates& states) : states_(&states) {
 }
 
 void KnownStates::Reader::next() {
-  if (++piece_ == pieces_.size()) fill();
+  if (piece_ + 1 < pieces_.size()) {
+    take(pieces_[++piece_]);
+  } else {
+    fill();
+  }
 }
 
-// The intervals of the next pair of tags that has any: an ordinary pair gives its span less any
-// hidden part; a pair of like tags around a hidden span, the parts on either side of it.
+// The first interval of the next pair of tags that has any: an ordinary pair gives its span
+// less any hidden part; a pair of like tags around a hidden span, the parts on either side.
+// Without hidden spans (the usual case) an ordinary pair is one interval, read straight off.
 void KnownStates::Reader::fill() {
   pieces_.clear();
   piece_ = 0;
   const auto& tags = states_->tags_;
   const auto& hidden = states_->hidden_;
-  for (; pieces_.empty() && pair_ < states_->status_.size(); ++pair_) {
+  for (; pair_ < states_->status_.size(); ++pair_) {
     const Tag& a = tags[pair_];
     const Tag& b = tags[pair_ + 1];
-    switch (states_->status_[pair_]) {
-      case PairStatus::ok:
-        appendVisible(hidden, {a.frame, b.frame, a.kind == EventKind::touchdown}, pieces_);
-        break;
-      case PairStatus::occluded:
-        appendAroundOcclusion(hidden, a, b, pieces_);
-        break;
-      case PairStatus::bad:
-        break;
+    const PairStatus status = states_->status_[pair_];
+    if (status == PairStatus::ok && hidden.empty()) {
+      current_ = {a.frame, b.frame, a.kind == EventKind::touchdown};
+      ++pair_;
+      return;
+    }
+    if (status == PairStatus::ok) {
+      appendVisible(hidden, {a.frame, b.frame, a.kind == EventKind::touchdown}, pieces_);
+    } else if (status == PairStatus::occluded) {
+      appendAroundOcclusion(hidden, a, b, pieces_);
+    }
+    if (!pieces_.empty()) {
+      take(pieces_.front());
+      ++pair_;
+      return;
     }
   }
+  done_ = true;
 }
 
 CycleScan scanCycles(const model::Annotation& annotation) {

@@ -49,19 +49,29 @@ class KnownStates {
   KnownStates(HugeVector<Tag> tags, HugeVector<PairStatus> status,
               std::vector<StateInterval> hidden);
 
+  // One interval as the reader gives it: plain fields, read once per change of a support sweep.
+  struct Interval {
+    std::int64_t first = 0;
+    std::int64_t end = 0;
+    bool stance = false;
+  };
+
   // Reads the intervals forwards, one at a time.
   class Reader {
    public:
     explicit Reader(const KnownStates& states);
-    bool done() const { return piece_ == pieces_.size(); }
-    const StateInterval& current() const { return pieces_[piece_]; }
+    bool done() const { return done_; }
+    const Interval& current() const { return current_; }
     void next();
 
    private:
     void fill();
+    void take(const StateInterval& piece) { current_ = {piece.first, piece.end, piece.stance}; }
     const KnownStates* states_;
+    Interval current_;
+    bool done_ = false;
     std::size_t pair_ = 0;               // next pair of tags to read
-    std::vector<StateInterval> pieces_;  // intervals of the pair last read
+    std::vector<StateInterval> pieces_;  // the pair last read, when hidden spans cut it up
     std::size_t piece_ = 0;
   };
 
