@@ -5,35 +5,69 @@
 
 #include "analysis/circular.h"
 #include "analysis/hildebrand.h"
+#include "analysis/parallel.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
 #include "analysis/symmetry.h"
 
 namespace stridemark::analysis {
 
-std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
-  std::vector<LimbSummary> out;
-  for (const LimbTrack& track : tracks) {
-    const auto eachCycle = [&track](auto measure) {
-      return describeEach([&](auto&& take) {
-        for (const LimbCycle& c : track.cycles) measure(c, take);
+namespace {
+
+// Statistic `which` (0 stride, 1 stance, 2 swing, 3 duty factor) of one limb's cycles.
+Stat describeCycles(std::span<const LimbCycle> cycles, Rational fps, int which) {
+  const auto eachCycle = [cycles](auto measure) {
+    return describeEach([&](auto&& take) {
+      for (const LimbCycle& c : cycles) measure(c, take);
+    });
+  };
+  switch (which) {
+    case 0:
+      return eachCycle(
+          [fps](const LimbCycle& c, auto&& take) { take(framesToSeconds(c.strideFrames(), fps)); });
+    case 1:
+      return eachCycle([fps](const LimbCycle& c, auto&& take) {
+        if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
       });
-    };
-    LimbSummary s;
-    s.strides = static_cast<int>(track.cycles.size());
-    s.strideS = eachCycle(
-        [fps](const LimbCycle& c, auto&& take) { take(framesToSeconds(c.strideFrames(), fps)); });
-    s.stanceS = eachCycle([fps](const LimbCycle& c, auto&& take) {
-      if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
-    });
-    s.swingS = eachCycle([fps](const LimbCycle& c, auto&& take) {
-      if (const auto liftoff = c.liftoff()) take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
-    });
-    s.dutyFactor = eachCycle([](const LimbCycle& c, auto&& take) {
-      if (const auto stance = c.stanceFrames())
-        take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
-    });
-    out.push_back(s);
+    case 2:
+      return eachCycle([fps](const LimbCycle& c, auto&& take) {
+        if (const auto liftoff = c.liftoff())
+          take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
+      });
+    default:
+      return eachCycle([](const LimbCycle& c, auto&& take) {
+        if (const auto stance = c.stanceFrames())
+          take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
+      });
+  }
+}
+
+// Below this many cycles in all, threads cost more than the statistics (every desk edit).
+constexpr std::size_t kParallelFromCycles = 20000;
+
+}  // namespace
+
+std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
+  std::vector<LimbSummary> out(tracks.size());
+  std::size_t cycles = 0;
+  for (std::size_t i = 0; i < tracks.size(); ++i) {
+    out[i].strides = static_cast<int>(tracks[i].cycles.size());
+    cycles += tracks[i].cycles.size();
+  }
+  // Four statistics per limb, each its own task: limbs x statistics on the machine's cores.
+  const auto describe = [&](std::size_t task) {
+    const std::size_t limb = task / 4;
+    const int which = static_cast<int>(task % 4);
+    Stat& stat = which == 0   ? out[limb].strideS
+                 : which == 1 ? out[limb].stanceS
+                 : which == 2 ? out[limb].swingS
+                              : out[limb].dutyFactor;
+    stat = describeCycles(tracks[limb].cycles, fps, which);
+  };
+  if (cycles >= kParallelFromCycles) {
+    forEachParallel(tracks.size() * 4, describe);
+  } else {
+    for (std::size_t task = 0; task < tracks.size() * 4; ++task) describe(task);
   }
   return out;
 }
