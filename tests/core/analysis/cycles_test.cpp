@@ -118,6 +118,14 @@ class ProblemTest : public ::testing::Test {
     train.normalize();
     return analyse(train);
   }
+  // The report has exactly one problem, at `frame` and `limb`, whose message says `words`.
+  static void expectOneProblem(const Report& r, std::int64_t frame, int limb,
+                               const std::string& words) {
+    ASSERT_EQ(r.problems.size(), 1u);
+    EXPECT_EQ(r.problems[0].frame, frame);
+    EXPECT_EQ(r.problems[0].limb, limb);
+    EXPECT_NE(r.problems[0].message.find(words), std::string::npos) << r.problems[0].message;
+  }
   static bool hasStrideStarting(const Report& r, std::int64_t frame) {
     for (const StrideRecord& s : r.strides)
       if (s.startFrame == frame) return true;
@@ -220,10 +228,7 @@ TEST_F(ProblemTest, FrameBeyondWhatATagHoldsIsReportedNotCut) {
   const std::int64_t far = (std::int64_t{1} << 62) + 1000;  // would read as 1000 if cut
   train.events.push_back({far, lh, TD});
   const Report r = run();
-  ASSERT_EQ(r.problems.size(), 1u);
-  EXPECT_EQ(r.problems[0].frame, far);
-  EXPECT_EQ(r.problems[0].limb, lh);
-  EXPECT_NE(r.problems[0].message.find("beyond frame 2^61 - 1"), std::string::npos);
+  expectOneProblem(r, far, lh, "beyond frame 2^61 - 1");
   EXPECT_EQ(r.strides.size(), 6u);
 }
 
@@ -233,10 +238,7 @@ TEST_F(ProblemTest, StanceLongerThanACycleHoldsIsReportedAndLeftOut) {
   train.events.push_back({lo, lh, LO});
   train.events.push_back({next, lh, TD});
   const Report r = run();
-  ASSERT_EQ(r.problems.size(), 1u);
-  EXPECT_EQ(r.problems[0].frame, lo);
-  EXPECT_EQ(r.problems[0].limb, lh);
-  EXPECT_NE(r.problems[0].message.find("longer than 2^31 - 1 frames"), std::string::npos);
+  expectOneProblem(r, lo, lh, "longer than 2^31 - 1 frames");
   for (const LimbCycle& c : r.cycles) EXPECT_FALSE(c.limb == lh && c.touchdown == td);
   EXPECT_FALSE(hasStrideStarting(r, td));
 }
