@@ -20,6 +20,8 @@
 // write_only_s: a third child writes as many bytes as the report to a new file and computes
 // nothing; parse_plus_write_ratio = (parse_s + write_only_s) / parse_s is the least ratio any
 // score run that writes this report could reach on this machine.
+// round_ratio_*: score / parse within each round (a round takes ~10 s, so slower drifts of the
+// machine cancel); their median, least and greatest show how far the ratio moves from run to run.
 // Targets (issue 2): ratio <= 2.0, peak RSS < 300 MB.
 // Usage: score_bench [runs=7] [strides-per-limb=125000] [pause-seconds=3]   (0: smoke test)
 #include <sys/resource.h>
@@ -240,6 +242,7 @@ int main(int argc, char** argv) {
   const fs::path bytesPath = folder / "bytes.json";
   std::vector<double> parse, score, parseCpu, scoreCpu, read, analyse, rss, writeFloor;
   std::vector<double> readWall, analyseWall;
+  std::vector<double> roundRatio;  // score / parse of the same round: machine drift cancels
   std::size_t strides = 0, parsed = 0;
   for (int run = 0; run < runs; ++run) {
     const Sample p = runChild(self.c_str(), "parse", csvPath, jsonPath, pause);
@@ -251,6 +254,7 @@ int main(int argc, char** argv) {
     parsed = p.count;
     strides = s.count;
     parse.push_back(p.wall);
+    roundRatio.push_back(s.wall / p.wall);
     parseCpu.push_back(p.cpu);
     score.push_back(s.wall);
     scoreCpu.push_back(s.cpu);
@@ -269,12 +273,15 @@ int main(int argc, char** argv) {
       "\"score_read_cpu_s\": %.4f, \"score_analyse_and_write_cpu_s\": %.4f, "
       "\"score_read_s\": %.4f, \"score_analyse_and_write_s\": %.4f, "
       "\"write_only_s\": %.4f, \"parse_plus_write_ratio\": %.3f, "
+      "\"round_ratio_median\": %.3f, \"round_ratio_min\": %.3f, \"round_ratio_max\": %.3f, "
       "\"target_ratio\": 2.0, \"target_peak_rss_mb\": 300}\n",
       events, parsed, strides, static_cast<double>(fs::file_size(csvPath)) / 1e6,
       static_cast<double>(fs::file_size(jsonPath)) / 1e6, runs, parseS, scoreS, scoreS / parseS,
       *std::max_element(rss.begin(), rss.end()), median(parseCpu), median(scoreCpu),
       median(scoreCpu) / median(parseCpu), median(read), median(analyse), median(readWall),
-      median(analyseWall), median(writeFloor), (parseS + median(writeFloor)) / parseS);
+      median(analyseWall), median(writeFloor), (parseS + median(writeFloor)) / parseS,
+      median(roundRatio), *std::min_element(roundRatio.begin(), roundRatio.end()),
+      *std::max_element(roundRatio.begin(), roundRatio.end()));
   std::error_code ec;
   fs::remove_all(folder, ec);
   return 0;
