@@ -112,7 +112,10 @@ void AtomicFile::write(std::string_view bytes) {
     const ssize_t wrote = ::write(fd_, bytes.data(), bytes.size());
     if (wrote < 0) {
       if (errno == EINTR) continue;
-      if (errno == EINVAL && direct_ && !setDirect(false)) continue;  // refused: buffered
+      if (errno == EINVAL && direct_) {  // the kernel refused a direct write: buffered from here
+        setDirect(false);
+        if (!direct_) continue;
+      }
       fail("write failed", errno);
     }
     bytes.remove_prefix(static_cast<std::size_t>(wrote));

@@ -37,6 +37,7 @@ class AtomicFile {
   // and sizes that are multiples of it (a write the kernel still refuses is retried without).
   static constexpr std::size_t kDirectAlignment = 4096;
   bool setDirect(bool on);
+  bool direct() const { return direct_; }
 
  private:
   [[noreturn]] void fail(std::string_view what, int errorNumber);

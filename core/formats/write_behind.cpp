@@ -103,19 +103,20 @@ void WriteBehindFile::writeQueued() {
 void WriteBehindFile::writeOut(const Buffer& buffer) {
   const std::string_view bytes(buffer.bytes.get(), buffer.size);
   const bool full = buffer.size == kBuffer;
-  if (!direct_ && full && written_ >= kDirectFrom && written_ % kBuffer == 0 &&
+  if (!file_.direct() && full && written_ >= kDirectFrom && written_ % kBuffer == 0 &&
       slowDirectWrites_ < kSlowDirectWritesAllowed)
-    direct_ = file_.setDirect(true);
-  if (direct_ && !full) direct_ = file_.setDirect(false);
+    file_.setDirect(true);
+  if (file_.direct() && !full) file_.setDirect(false);
+  const bool direct = file_.direct();
   const auto start = std::chrono::steady_clock::now();
-  file_.write(bytes);
+  file_.write(bytes);  // may itself fall back to buffered (see AtomicFile::write)
   written_ += bytes.size();
-  if (!direct_) return;
+  if (!direct || !file_.direct()) return;
   const double seconds =
       std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   if (seconds * kSlowestDirectBytesPerSecond > static_cast<double>(bytes.size())) {
     ++slowDirectWrites_;  // a hiccup, or a slow disk: after a few, buffered for good
-    direct_ = file_.setDirect(false);
+    file_.setDirect(false);
   }
 }
 

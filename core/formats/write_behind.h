@@ -70,7 +70,6 @@ class WriteBehindFile {
   std::exception_ptr failure_;
   bool stopping_ = false;
   std::size_t written_ = 0;   // writer thread only
-  bool direct_ = false;       // writer thread only
   int slowDirectWrites_ = 0;  // writer thread only
   std::thread writer_;        // last: it starts once every member above exists
 };
