@@ -99,12 +99,17 @@ void AtomicFile::fail(std::string_view what, int errorNumber) {
 }
 
 bool AtomicFile::setDirect(bool on) {
+#ifndef O_DIRECT
+  (void)on;
+  return false;  // no direct I/O on this system: the page cache it is
+#else
   const int flags = ::fcntl(fd_, F_GETFL);
   if (flags < 0) return direct_;
   const int wanted = on ? (flags | O_DIRECT) : (flags & ~O_DIRECT);
   if (wanted != flags && ::fcntl(fd_, F_SETFL, wanted) != 0) return direct_;
   direct_ = on;
   return direct_;
+#endif
 }
 
 void AtomicFile::write(std::string_view bytes) {
