@@ -55,14 +55,11 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
     cycles += tracks[i].cycles.size();
   }
   // Four statistics per limb, each its own task: limbs x statistics on the machine's cores.
+  static constexpr Stat LimbSummary::*kStatOf[] = {&LimbSummary::strideS, &LimbSummary::stanceS,
+                                                   &LimbSummary::swingS, &LimbSummary::dutyFactor};
   const auto describe = [&](std::size_t task) {
-    const std::size_t limb = task / 4;
-    const int which = static_cast<int>(task % 4);
-    Stat& stat = which == 0   ? out[limb].strideS
-                 : which == 1 ? out[limb].stanceS
-                 : which == 2 ? out[limb].swingS
-                              : out[limb].dutyFactor;
-    stat = describeCycles(tracks[limb].cycles, fps, which);
+    const std::size_t limb = task / 4, which = task % 4;
+    out[limb].*kStatOf[which] = describeCycles(tracks[limb].cycles, fps, static_cast<int>(which));
   };
   if (cycles >= kParallelFromCycles) {
     forEachParallel(tracks.size() * 4, describe);
