@@ -91,7 +91,7 @@ class LimbScanner {
       std::sort(tags.begin(), tags.end(), byFrameThenKind);
     dropUnusable(tags);
     orderSameFrame(tags);
-    reserveHuge(track_.touchdowns, tags.size() / 2 + 1);
+    track_.touchdowns.reserve(tags.size() / 2 + 1);
     HugeVector<PairStatus> status = checkPairs(tags);
     buildCycles(tags, status);
     for (const Tag& t : tags)
