@@ -157,7 +157,13 @@ formats::JsonOut::Sink stdoutSink() {
   };
 }
 
-model::Project loadInput(const ScoreOptions& options) {
+// How the events of an events CSV reach the project.
+enum class EventOrder {
+  normalized,  // model order, as every reader of an annotation expects
+  asInFile,    // file order: only when the project goes straight to scoring (no second copy)
+};
+
+model::Project loadInput(const ScoreOptions& options, EventOrder order) {
   const std::filesystem::path inputPath(options.input);
   std::string content = formats::readWholeFile(inputPath);
   if (isProjectText(inputPath, content)) return loadProject(options, content);
@@ -166,7 +172,9 @@ model::Project loadInput(const ScoreOptions& options) {
   // its memory instead of touching fresh pages (see common/batch_memory.h).
   std::string().swap(content);
   model::Project project;
-  project.annotation = formats::toAnnotation(std::move(csv));
+  project.annotation = order == EventOrder::asInFile
+                           ? formats::toAnnotationInFileOrder(std::move(csv))
+                           : formats::toAnnotation(std::move(csv));
   return project;
 }
 
@@ -199,9 +207,9 @@ void writeStoredJson(const ScoreOptions& options, const analysis::Report& report
 
 int runScore(const ScoreOptions& options) {
   try {
-    model::Project project = loadInput(options);
     if (!options.json.empty() && options.csv.empty())
-      return scoreToJsonOnly(options, std::move(project));
+      return scoreToJsonOnly(options, loadInput(options, EventOrder::asInFile));
+    model::Project project = loadInput(options, EventOrder::normalized);
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
     if (!options.json.empty()) writeStoredJson(options, report);

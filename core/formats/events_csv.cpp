@@ -288,22 +288,29 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   return result;
 }
 
-model::Annotation toAnnotation(EventsCsv&& csv) {
+model::Annotation toAnnotationInFileOrder(EventsCsv&& csv) {
   model::Annotation annotation;
   annotation.limbs = csv.limbs;
   if (csv.captureRate) annotation.captureRate = *csv.captureRate;
   annotation.referenceLimb = csv.referenceLimb.value_or(csv.limbs.defaultReference());
-  // Stable counting sort by limb: a file in frame order comes out in model order already.
-  std::vector<std::size_t> start(static_cast<std::size_t>(csv.limbs.size()) + 1, 0);
-  for (const auto& event : csv.events) ++start[static_cast<std::size_t>(event.limb) + 1];
-  for (std::size_t i = 1; i < start.size(); ++i) start[i] += start[i - 1];
-  reserveHuge(annotation.events, csv.events.size());  // 16 MB per 10^6 events
-  annotation.events.resize(csv.events.size());
-  for (const auto& event : csv.events) {
-    annotation.events[start[static_cast<std::size_t>(event.limb)]++] = event;
+  annotation.events = std::move(csv.events);
+  return annotation;
+}
+
+model::Annotation toAnnotation(EventsCsv&& csv) {
+  model::Annotation annotation = toAnnotationInFileOrder(std::move(csv));
+  {
+    const std::vector<model::Event> inFileOrder = std::move(annotation.events);
+    annotation.events.clear();  // a moved-from vector is only "valid"
+    // Stable counting sort by limb: a file in frame order comes out in model order already.
+    std::vector<std::size_t> start(static_cast<std::size_t>(annotation.limbs.size()) + 1, 0);
+    for (const auto& event : inFileOrder) ++start[static_cast<std::size_t>(event.limb) + 1];
+    for (std::size_t i = 1; i < start.size(); ++i) start[i] += start[i - 1];
+    reserveHuge(annotation.events, inFileOrder.size());  // 16 MB per 10^6 events
+    annotation.events.resize(inFileOrder.size());
+    for (const auto& event : inFileOrder)
+      annotation.events[start[static_cast<std::size_t>(event.limb)]++] = event;
   }
-  csv.events.clear();
-  csv.events.shrink_to_fit();
   if (!std::is_sorted(annotation.events.begin(), annotation.events.end())) annotation.normalize();
   return annotation;
 }

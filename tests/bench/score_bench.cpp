@@ -102,7 +102,8 @@ struct Sample {
 };
 
 // What `stridemark score INPUT --fps 250 --json OUT` does (app/cli/verb_score.cpp): read and
-// parse, free the text, make the annotation, then score and write the report in one pass.
+// parse, free the text, make the annotation (events left in file order), then score and write
+// the report in one pass.
 Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
   Sample out;
   const auto start = Clock::now();
@@ -115,7 +116,7 @@ Sample scoreToJson(const fs::path& csvPath, const fs::path& jsonPath) {
     std::string content = formats::readWholeFile(csvPath);
     formats::EventsCsv csv = formats::parseEventsCsv(content, csvPath.string(), options);
     std::string().swap(content);
-    project.annotation = formats::toAnnotation(std::move(csv));
+    project.annotation = formats::toAnnotationInFileOrder(std::move(csv));
   }
   const double cpu1 = cpuSeconds();
   const auto read = Clock::now();

@@ -2,8 +2,10 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <random>
 #include <string>
 #include <vector>
 
@@ -12,6 +14,7 @@
 #include "../analysis/event_train.h"
 #include "analysis/analyse.h"
 #include "common/error.h"
+#include "formats/events_csv.h"
 #include "formats/file_io.h"
 #include "test_support.h"
 #include "trial_fixture.h"
@@ -139,6 +142,49 @@ TEST(ReportJson, StreamedReportIsByteForByteTheStoredOne) {
     EXPECT_EQ(streamed.size(), stored.size()) << trial.limbs.name();
     EXPECT_TRUE(streamed == stored) << trial.limbs.name();
     EXPECT_TRUE(nlohmann::json::accept(streamed));
+  }
+}
+
+// The events CSV text of `annotation`'s events in the order given (header and rows only).
+std::string csvRows(const model::Annotation& annotation, const std::vector<model::Event>& events) {
+  std::string text = "# fps: 250\n# limbs: " + annotation.limbs.name() + "\nlimb,event,frame\n";
+  for (const model::Event& e : events)
+    text += annotation.limbs.label(e.limb) + "," + std::string(model::eventWord(e.kind)) + "," +
+            std::to_string(e.frame) + "\n";
+  return text;
+}
+
+TEST(ReportJson, EventsLeftInFileOrderScoreAsNormalizedOnes) {
+  // Common practice, no source: `score --json` leaves a CSV's events in file order (no second
+  // copy); scoring must not depend on it, problems and their order included. Rows in frame
+  // order (the usual file) and shuffled, with a duplicate, a second touchdown inside a stance,
+  // a lift-off with no touchdown and a zero-length stance among them.
+  model::Annotation trial = testing::variedTrain(model::LimbSet::quadruped(), 400, 21);
+  const std::vector<model::Event> faults = {
+      {trial.events[10].frame, 0, model::EventKind::touchdown},
+      {trial.events[10].frame, 0, model::EventKind::touchdown},
+      {trial.events[41].frame + 1, 1, model::EventKind::touchdown},
+      {trial.events[900].frame + 1, 2, model::EventKind::liftoff},
+      {trial.events[1300].frame, 3, model::EventKind::touchdown},
+      {trial.events[1300].frame, 3, model::EventKind::liftoff}};
+  std::vector<model::Event> byFrame = trial.events;
+  byFrame.insert(byFrame.end(), faults.begin(), faults.end());
+  std::stable_sort(byFrame.begin(), byFrame.end(),
+                   [](const model::Event& a, const model::Event& b) { return a.frame < b.frame; });
+  std::vector<model::Event> shuffled = byFrame;
+  std::shuffle(shuffled.begin(), shuffled.end(), std::mt19937(7));
+  analysis::AnalysisOptions options;
+  options.strideSupport = false;
+  for (const auto& rows : {byFrame, shuffled}) {
+    const std::string text = csvRows(trial, rows);
+    const std::string normalized =
+        streamedText(toAnnotation(parseEventsCsv(text, "t.csv")), options);
+    const std::string asInFile =
+        streamedText(toAnnotationInFileOrder(parseEventsCsv(text, "t.csv")), options);
+    EXPECT_TRUE(asInFile == normalized);
+    const auto report = nlohmann::json::parse(asInFile);
+    EXPECT_GE(report["problems"].size(), 4U);
+    EXPECT_GT(report["strides"].size(), 300U);
   }
 }
 
