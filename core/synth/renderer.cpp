@@ -2,10 +2,10 @@
 #include <cmath>
 #include <vector>
 
-#include <opencv2/imgcodecs.hpp>
 #include <opencv2/imgproc.hpp>
 
 #include "common/error.h"
+#include "synth/block_artefacts.h"
 #include "synth/body.h"
 #include "synth/render.h"
 #include "synth/scene.h"
@@ -147,11 +147,7 @@ struct Renderer::Impl {
       cv::add(out, noiseUp[k], out);
       cv::subtract(out, noiseDown[k], out);
     }
-    if (options.blockiness > 0) {
-      std::vector<std::uint8_t> jpeg;
-      cv::imencode(".jpg", out, jpeg, {cv::IMWRITE_JPEG_QUALITY, options.blockiness});
-      out = cv::imdecode(jpeg, cv::IMREAD_COLOR);
-    }
+    if (options.blockiness > 0) applyBlockArtefacts(out, options.blockiness);
   }
 };
 

@@ -4,9 +4,11 @@
 
 #include <cmath>
 
+#include <opencv2/imgcodecs.hpp>
 #include <opencv2/imgproc.hpp>
 
 #include "common/error.h"
+#include "synth/block_artefacts.h"
 #include "synth/synth.h"
 
 namespace stridemark::synth {
@@ -138,6 +140,58 @@ TEST(Determinism, SameSeedSamePixelsOtherSeedOtherPixels) {
     differentSeed += cv::norm(a[i], c[i], cv::NORM_L1);
   }
   EXPECT_GT(differentSeed, 0.0);
+}
+
+// A rendered overground frame with noise: edges, flat ground and texture.
+cv::Mat busyFrame() {
+  SynthOptions o;
+  o.gaits = {"trot:0.25"};
+  o.render.width = 318;  // not a whole number of 8x8 blocks
+  o.render.height = 182;
+  o.render.noise = 6;
+  o.render.scene = Scene::overground;
+  const Timeline t = makeTimeline(o);
+  Renderer r(t, o.render);
+  cv::Mat frame;
+  r.render(3, frame);
+  return frame;
+}
+
+double meanAbsDifference(const cv::Mat& a, const cv::Mat& b) {
+  return cv::norm(a, b, cv::NORM_L1) / static_cast<double>(a.total() * a.channels());
+}
+
+TEST(BlockArtefacts, LookLikeAJpegEncoderAtTheSameQuality) {
+  // Source: ITU-T T.81 Annex K tables with the IJG quality scaling, which Debian's libjpeg (via
+  // OpenCV's imencode, used here only as the outside reference) applies too. Our quantised frame
+  // must sit close to libjpeg's round trip, much closer than either sits to the original.
+  const cv::Mat original = busyFrame();
+  for (const int quality : {20, 50, 85}) {
+    cv::Mat ours = original.clone();
+    applyBlockArtefacts(ours, quality);
+    std::vector<std::uint8_t> jpeg;
+    cv::imencode(".jpg", original, jpeg, {cv::IMWRITE_JPEG_QUALITY, quality});
+    const cv::Mat reference = cv::imdecode(jpeg, cv::IMREAD_COLOR);
+    ASSERT_EQ(ours.size(), original.size());
+    const double loss = meanAbsDifference(reference, original);
+    const double gap = meanAbsDifference(ours, reference);
+    EXPECT_GT(meanAbsDifference(ours, original), 0.5 * loss) << quality;
+    EXPECT_LT(gap, 0.2 * loss) << "quality " << quality << ": ours vs libjpeg " << gap
+                               << ", libjpeg vs original " << loss;
+  }
+}
+
+TEST(BlockArtefacts, LowerQualityLosesMore) {
+  // Common practice, no source: coarser quantisation, larger error.
+  const cv::Mat original = busyFrame();
+  double previous = 0;
+  for (const int quality : {95, 60, 25, 5}) {
+    cv::Mat out = original.clone();
+    applyBlockArtefacts(out, quality);
+    const double loss = meanAbsDifference(out, original);
+    EXPECT_GT(loss, previous) << quality;
+    previous = loss;
+  }
 }
 
 TEST(Errors, BadRenderOptionsAreExplained) {
