@@ -2,9 +2,12 @@
 
 #include <algorithm>
 #include <array>
+#include <cmath>
 #include <vector>
 
 #include <opencv2/imgproc.hpp>
+
+#include "common/error.h"
 
 namespace stridemark::synth {
 namespace {
@@ -60,7 +63,8 @@ void quantisePlane(cv::Mat& plane, const cv::Mat& table) {
 }  // namespace
 
 void applyBlockArtefacts(cv::Mat& image, int quality) {
-  CV_Assert(image.type() == CV_8UC3);
+  if (image.type() != CV_8UC3)  // the renderer's frames always are; anything else is a bug
+    throw Error(ErrorCategory::format, "block artefacts need an 8-bit, 3-channel image");
   cv::Mat ycrcb;
   cv::cvtColor(image, ycrcb, cv::COLOR_BGR2YCrCb);
   std::vector<cv::Mat> planes;
