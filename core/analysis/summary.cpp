@@ -2,6 +2,8 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
+#include <span>
 
 #include "analysis/circular.h"
 #include "analysis/hildebrand.h"
@@ -14,33 +16,50 @@ namespace stridemark::analysis {
 
 namespace {
 
-// Statistic `which` (0 stride, 1 stance, 2 swing, 3 duty factor) of one limb's cycles.
-Stat describeCycles(std::span<const LimbCycle> cycles, Rational fps, int which) {
-  const auto eachCycle = [cycles](auto measure) {
-    return describeEach([&](auto&& take) {
-      for (const LimbCycle& c : cycles) measure(c, take);
-    });
-  };
-  switch (which) {
-    case 0:
-      return eachCycle(
-          [fps](const LimbCycle& c, auto&& take) { take(framesToSeconds(c.strideFrames(), fps)); });
-    case 1:
-      return eachCycle([fps](const LimbCycle& c, auto&& take) {
-        if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
-      });
-    case 2:
-      return eachCycle([fps](const LimbCycle& c, auto&& take) {
-        if (const auto liftoff = c.liftoff())
-          take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
-      });
-    default:
-      return eachCycle([](const LimbCycle& c, auto&& take) {
-        if (const auto stance = c.stanceFrames())
-          take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
-      });
-  }
+// Describes one measure over a limb's cycles; `measure(cycle, take)` takes the cycle's value
+// when it has one.
+template <typename Measure>
+Stat describeCycles(std::span<const LimbCycle> cycles, Measure measure) {
+  return describeEach([&](auto&& take) {
+    for (const LimbCycle& c : cycles) measure(c, take);
+  });
 }
+
+Stat describeStride(std::span<const LimbCycle> cycles, Rational fps) {
+  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
+    take(framesToSeconds(c.strideFrames(), fps));
+  });
+}
+
+Stat describeStance(std::span<const LimbCycle> cycles, Rational fps) {
+  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
+    if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
+  });
+}
+
+Stat describeSwing(std::span<const LimbCycle> cycles, Rational fps) {
+  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
+    if (const auto liftoff = c.liftoff()) take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
+  });
+}
+
+Stat describeDutyFactor(std::span<const LimbCycle> cycles, Rational /*fps*/) {
+  return describeCycles(cycles, [](const LimbCycle& c, auto&& take) {
+    if (const auto stance = c.stanceFrames())
+      take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
+  });
+}
+
+// Each statistic of a limb summary and how it is described: one task per limb and row.
+struct CycleStatistic {
+  Stat LimbSummary::*into;
+  Stat (*describe)(std::span<const LimbCycle>, Rational);
+};
+constexpr CycleStatistic kCycleStatistics[] = {{&LimbSummary::strideS, describeStride},
+                                               {&LimbSummary::stanceS, describeStance},
+                                               {&LimbSummary::swingS, describeSwing},
+                                               {&LimbSummary::dutyFactor, describeDutyFactor}};
+constexpr std::size_t kStatisticCount = std::size(kCycleStatistics);
 
 // Below this many cycles in all, threads cost more than the statistics (every desk edit).
 constexpr std::size_t kParallelFromCycles = 20000;
@@ -54,17 +73,17 @@ std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Ra
     out[i].strides = static_cast<int>(tracks[i].cycles.size());
     cycles += tracks[i].cycles.size();
   }
-  // Four statistics per limb, each its own task: limbs x statistics on the machine's cores.
-  static constexpr Stat LimbSummary::*kStatOf[] = {&LimbSummary::strideS, &LimbSummary::stanceS,
-                                                   &LimbSummary::swingS, &LimbSummary::dutyFactor};
+  // Limbs x statistics, each its own task, on the machine's cores.
   const auto describe = [&](std::size_t task) {
-    const std::size_t limb = task / 4, which = task % 4;
-    out[limb].*kStatOf[which] = describeCycles(tracks[limb].cycles, fps, static_cast<int>(which));
+    const std::size_t limb = task / kStatisticCount;
+    const CycleStatistic& statistic = kCycleStatistics[task % kStatisticCount];
+    out[limb].*statistic.into = statistic.describe(tracks[limb].cycles, fps);
   };
+  const std::size_t tasks = tracks.size() * kStatisticCount;
   if (cycles >= kParallelFromCycles) {
-    forEachParallel(tracks.size() * 4, describe);
+    forEachParallel(tasks, describe);
   } else {
-    for (std::size_t task = 0; task < tracks.size() * 4; ++task) describe(task);
+    for (std::size_t task = 0; task < tasks; ++task) describe(task);
   }
   return out;
 }
