@@ -159,7 +159,13 @@ class StrideBuilder {
  public:
   StrideBuilder(const model::Annotation& annotation, const AnalysisOptions& options,
                 const CycleScan& scan)
-      : limbs_(annotation.limbs), fps_(annotation.captureRate), options_(options) {
+      : limbs_(annotation.limbs),
+        fps_(annotation.captureRate),
+        options_(options),
+        leftFore_(limbs_.at(Side::left, 0).value_or(-1)),
+        rightFore_(limbs_.at(Side::right, 0).value_or(-1)),
+        leftHind_(limbs_.at(Side::left, 1).value_or(-1)),
+        rightHind_(limbs_.at(Side::right, 1).value_or(-1)) {
     cursors_.reserve(scan.tracks.size());
     for (const LimbTrack& track : scan.tracks) cursors_.emplace_back(track);
   }
@@ -241,8 +247,7 @@ class StrideBuilder {
   }
 
   void classifyQuadruped(StrideRecord& s, double tau) {
-    const int lf = *limbs_.at(Side::left, 0), rf = *limbs_.at(Side::right, 0);
-    const int lh = *limbs_.at(Side::left, 1), rh = *limbs_.at(Side::right, 1);
+    const int lf = leftFore_, rf = rightFore_, lh = leftHind_, rh = rightHind_;
     s.hindDutyFactor = meanDutyFactor(s, {lh, rh});
     s.limbPhase = pairPhase(s, lh, lf);
     const auto hindContra = pairPhase(s, lh, rh);
@@ -288,7 +293,7 @@ class StrideBuilder {
   }
 
   void classifyBiped(StrideRecord& s, double tau) {
-    const int l = *limbs_.at(Side::left, 0), r = *limbs_.at(Side::right, 0);
+    const int l = leftFore_, r = rightFore_;
     const auto contra = pairPhase(s, l, r);
     const auto df = meanDutyFactor(s, {l, r});
     if (!contra || !df) return;
@@ -325,6 +330,9 @@ class StrideBuilder {
   const model::LimbSet& limbs_;
   Rational fps_;
   const AnalysisOptions& options_;
+  // The limbs of the first two pairs (-1 where the set has none): quadrupeds and bipeds ask
+  // for them every stride.
+  int leftFore_, rightFore_, leftHind_, rightHind_;
   std::vector<TrackCursor> cursors_;  // per limb
   // Per limb, for the stride being built: first touchdown in the window and the cycle it starts.
   std::vector<std::optional<std::int64_t>> firsts_;
@@ -356,20 +364,22 @@ class KeptStrides final : public StrideSlots {
   std::vector<StrideRecord>& strides_;
 };
 
-// The strides are handed on and dropped: one chunk is built while the other is handed on.
+// The strides are handed on and dropped: a few chunks in turn, one per stage of the pipeline
+// below, each reused once the consumer has had it.
 class RotatingStrides final : public StrideSlots {
  public:
+  explicit RotatingStrides(std::size_t chunks) : chunks_(chunks) {}
   std::span<StrideRecord> next(std::size_t count) override {
     std::vector<StrideRecord>& chunk = chunks_[turn_];
-    turn_ ^= 1U;
+    turn_ = (turn_ + 1) % chunks_.size();
     chunk.clear();
     chunk.resize(count);
     return chunk;
   }
 
  private:
-  std::vector<StrideRecord> chunks_[2];
-  unsigned turn_ = 0;
+  std::vector<std::vector<StrideRecord>> chunks_;
+  std::size_t turn_ = 0;
 };
 
 // The summaries over strides, fed in stride order as each stride is built.
@@ -413,11 +423,14 @@ std::vector<const LimbCycle*> keptStrides(const CycleScan& scan, int reference) 
   return kept;
 }
 
-// Strides a chunk at a time, on two threads: while one builds chunk k and adds it to the
-// summaries, the other sweeps support over chunk k - 1 and hands it to the consumer.
+// Strides a chunk at a time, in three stages on threads of their own: while chunk k is built
+// and added to the summaries, chunk k - 1 gets its support sweep and chunk k - 2 goes to the
+// consumer. The stages take about equal time on long annotations (two stages, build against
+// support-and-consume, left one core idle a third of the time: tests/bench/score_bench).
 // 1536 records (about 1 MB each chunk): two chunks of 4096 took 5 MB of fresh pages, which in a
-// virtual machine cost more than the extra hand-overs (tests/bench/score_bench).
+// virtual machine cost more than the extra hand-overs.
 constexpr std::size_t kChunkStrides = 1536;
+constexpr std::size_t kChunksInFlight = 3;  // one per stage
 
 struct PipeInput {
   const model::Annotation& annotation;
@@ -431,33 +444,30 @@ SupportShares pipeStrides(const PipeInput& in, StrideSlots& slots, StrideSummari
   SupportTimeline timeline(in.annotation.limbs, in.scan.tracks);
   StrideBuilder builder(in.annotation, in.options, in.scan);
   const std::size_t total = in.kept.size();
-  std::span<StrideRecord> waiting;  // built, not yet given support and handed on
-  std::size_t waitingFirst = 0;     // index of its first stride
-  for (std::size_t first = 0; first < total || !waiting.empty(); first += kChunkStrides) {
-    const std::size_t count = first < total ? std::min(kChunkStrides, total - first) : 0;
-    std::span<StrideRecord> building;
-    const auto build = [&] {
-      if (count == 0) return;
-      building = slots.next(count);
-      for (std::size_t i = 0; i < count; ++i) {
-        builder.build(*in.kept[first + i], building[i]);
-        summaries.add(building[i], first + i);
-      }
-    };
-    const auto handOn = [&] {
-      if (waiting.empty()) return;
-      addSupport(timeline, in.options, in.kept.subspan(waitingFirst, waiting.size()), waiting);
-      if (consumer) consumer->consume(waiting);
-    };
-    if (waiting.empty() || count == 0) {
-      build();
-      handOn();
-    } else {
-      runBoth(build, handOn);
-    }
-    waiting = building;
-    waitingFirst = first;
-  }
+  const std::size_t chunks = (total + kChunkStrides - 1) / kChunkStrides;
+  std::span<StrideRecord> built[kChunksInFlight];  // chunk k lives in built[k % kChunksInFlight]
+  const auto slot = [&](std::size_t chunk) -> std::span<StrideRecord>& {
+    return built[chunk % kChunksInFlight];
+  };
+  const std::function<void(std::size_t)> stages[] = {
+      [&](std::size_t chunk) {
+        const std::size_t first = chunk * kChunkStrides;
+        const std::size_t count = std::min(kChunkStrides, total - first);
+        std::span<StrideRecord> records = slots.next(count);
+        for (std::size_t i = 0; i < count; ++i) {
+          builder.build(*in.kept[first + i], records[i]);
+          summaries.add(records[i], first + i);
+        }
+        slot(chunk) = records;
+      },
+      [&](std::size_t chunk) {
+        const std::span<StrideRecord> records = slot(chunk);
+        addSupport(timeline, in.options, in.kept.subspan(chunk * kChunkStrides, records.size()),
+                   records);
+      },
+      [&](std::size_t chunk) { consumer->consume(slot(chunk)); },
+  };
+  runStages(chunks, kChunksInFlight, std::span(stages, consumer ? 3 : 2));
   return timeline.overall();
 }
 
@@ -481,7 +491,7 @@ void analyseInto(const model::Annotation& annotation, const AnalysisOptions& opt
   const PipeInput input{annotation, options, scan, kept};
   SupportShares overall;
   if (consumer) {
-    RotatingStrides slots;
+    RotatingStrides slots(kChunksInFlight);
     overall = pipeStrides(input, slots, summaries, consumer);
   } else {
     KeptStrides slots(report.strides, kept.size());

@@ -1,6 +1,7 @@
 #include "analysis/circular.h"
 
 #include <algorithm>
+#include <bit>
 #include <cmath>
 #include <limits>
 #include <numbers>
@@ -79,10 +80,41 @@ CircularStats circularStats(std::span<const double> phases) {
   return sums.stats();
 }
 
-void CircularSums::add(double phase) {
+namespace {
+
+constexpr int kVectorSlotBits = 12;  // 4096 slots, 96 KiB
+// A NaN payload that of() never looks up (it computes non-finite phases directly).
+constexpr std::uint64_t kNoPhase = 0x7FF8DEADBEEF0002ULL;
+
+UnitVectors::Vector unitVector(double phase) {
   const double angle = phase * kTwoPi;  // as resultant() on the period [0, 1)
-  cos_ += std::cos(angle);
-  sin_ += std::sin(angle);
+  return {std::cos(angle), std::sin(angle)};
+}
+
+}  // namespace
+
+UnitVectors::UnitVectors() : slots_(std::size_t{1} << kVectorSlotBits, Slot{kNoPhase, {}}) {}
+
+UnitVectors::Vector UnitVectors::of(double phase) {
+  if (!std::isfinite(phase)) return unitVector(phase);
+  const auto bits = std::bit_cast<std::uint64_t>(phase);
+  Slot& slot =
+      slots_[static_cast<std::size_t>((bits * 0x9E3779B97F4A7C15ULL) >> (64 - kVectorSlotBits))];
+  if (slot.bits != bits) slot = {bits, unitVector(phase)};
+  return slot.vector;
+}
+
+void CircularSums::add(double phase) {
+  const UnitVectors::Vector v = unitVector(phase);
+  cos_ += v.cos;
+  sin_ += v.sin;
+  ++n_;
+}
+
+void CircularSums::add(double phase, UnitVectors& vectors) {
+  const UnitVectors::Vector v = vectors.of(phase);
+  cos_ += v.cos;
+  sin_ += v.sin;
   ++n_;
 }
 

@@ -2,7 +2,9 @@
 // Circular statistics for phases (METHODS.md §8). Phases are in cycles; angles = 2 pi phase.
 // When the mean resultant length is 0 the mean direction does not exist: `defined` is false and
 // the mean is NaN, so callers can say "undefined" instead of printing a silent NaN.
+#include <cstdint>
 #include <span>
+#include <vector>
 
 namespace stridemark::analysis {
 
@@ -23,9 +25,30 @@ CircularStats circularStats(std::span<const double> phases);
 
 // The same statistics, fed one phase at a time (in order: the sums, so the results, are then
 // the bits circularStats gives), for long trials whose phases are not kept.
+// cos and sin of 2 pi phase, remembered per phase value (the same bits as computing them):
+// phases are ratios of small frame counts, so a trial of 10^5 strides repeats a few thousand
+// distinct values, and a lookup is much cheaper than sin and cos.
+class UnitVectors {
+ public:
+  UnitVectors();
+  struct Vector {
+    double cos = 0;
+    double sin = 0;
+  };
+  Vector of(double phase);
+
+ private:
+  struct Slot {
+    std::uint64_t bits;
+    Vector vector;
+  };
+  std::vector<Slot> slots_;
+};
+
 class CircularSums {
  public:
   void add(double phase);
+  void add(double phase, UnitVectors& vectors);  // same sums, looked up
   CircularStats stats() const;
 
  private:

@@ -3,8 +3,12 @@
 // second for 10^6 events), so this is a plain fork-join: no pool, at most one thread per core.
 #include <algorithm>
 #include <atomic>
+#include <condition_variable>
 #include <cstddef>
 #include <exception>
+#include <functional>
+#include <mutex>
+#include <span>
 #include <thread>
 #include <vector>
 
@@ -47,6 +51,56 @@ void forEachParallel(std::size_t count, Task task) {
 template <typename First, typename Second>
 void runBoth(First first, Second second) {
   forEachParallel(2, [&](std::size_t i) { i == 0 ? first() : second(); });
+}
+
+// A production line: every stage handles chunks 0, 1, ... in order, each stage on a thread of
+// its own (the first on the caller's), so different chunks are in different stages at once.
+// Stage s takes chunk k only once stage s - 1 has finished it; the first stage starts chunk k
+// only once the last has finished chunk k - depth, so at most `depth` chunks are in flight (a
+// caller cycling through `depth` buffers never overwrites one still in use). After a stage
+// throws, no stage starts another chunk, and the first exception is rethrown here once every
+// thread has stopped.
+inline void runStages(std::size_t chunks, std::size_t depth,
+                      std::span<const std::function<void(std::size_t)>> stages) {
+  const std::size_t count = stages.size();
+  if (count == 0 || chunks == 0) return;
+  depth = std::max<std::size_t>(depth, 1);
+  std::mutex mutex;
+  std::condition_variable changed;
+  std::vector<std::size_t> finished(count, 0);  // per stage: chunks done
+  std::exception_ptr error;
+  const auto mayStart = [&](std::size_t stage, std::size_t chunk) {
+    if (stage > 0) return finished[stage - 1] > chunk;
+    return chunk < depth || finished[count - 1] > chunk - depth;
+  };
+  const auto work = [&](std::size_t stage) {
+    for (std::size_t chunk = 0; chunk < chunks; ++chunk) {
+      {
+        std::unique_lock lock(mutex);
+        changed.wait(lock, [&] { return error || mayStart(stage, chunk); });
+        if (error) return;
+      }
+      try {
+        stages[stage](chunk);
+      } catch (...) {
+        std::lock_guard lock(mutex);
+        if (!error) error = std::current_exception();
+        changed.notify_all();
+        return;
+      }
+      {
+        std::lock_guard lock(mutex);
+        ++finished[stage];
+      }
+      changed.notify_all();
+    }
+  };
+  {
+    std::vector<std::jthread> helpers;
+    for (std::size_t stage = 1; stage < count; ++stage) helpers.emplace_back(work, stage);
+    work(0);
+  }  // joins the helpers
+  if (error) std::rethrow_exception(error);
 }
 
 }  // namespace stridemark::analysis

@@ -94,7 +94,7 @@ PhaseSummariser::PhaseSummariser(int limbCount)
 void PhaseSummariser::add(const StrideRecord& stride) {
   const std::size_t n = std::min(phases_.size(), stride.phase.size());
   for (std::size_t i = 0; i < n; ++i)
-    if (stride.phase[i]) phases_[i].add(*stride.phase[i]);
+    if (stride.phase[i]) phases_[i].add(*stride.phase[i], vectors_);
 }
 
 std::vector<PhaseSummary> PhaseSummariser::finish() const {
@@ -120,7 +120,7 @@ std::vector<PhaseSummary> PhaseSummariser::finish() const {
 
 void HildebrandSummariser::add(const StrideRecord& stride) {
   if (!stride.symmetrical || !stride.limbPhase || !stride.hindDutyFactor) return;
-  limbPhases_.add(*stride.limbPhase);
+  limbPhases_.add(*stride.limbPhase, vectors_);
   dutySum_ += *stride.hindDutyFactor;
 }
 

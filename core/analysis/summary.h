@@ -23,6 +23,7 @@ class PhaseSummariser {
 
  private:
   std::vector<CircularSums> phases_;  // per limb
+  UnitVectors vectors_;
 };
 
 // Mean hind duty factor and circular-mean limb phase of the symmetrical strides; null if none.
@@ -33,6 +34,7 @@ class HildebrandSummariser {
 
  private:
   CircularSums limbPhases_;
+  UnitVectors vectors_;
   double dutySum_ = 0;
 };
 

@@ -3,8 +3,11 @@
 #include <gtest/gtest.h>
 
 #include <atomic>
+#include <functional>
+#include <mutex>
 #include <optional>
 #include <stdexcept>
+#include <thread>
 #include <vector>
 
 #include "analysis/limb_values.h"
@@ -38,6 +41,53 @@ TEST(Parallel, RunBothRunsBoth) {
 
 TEST(Parallel, NoTasksIsFine) {
   forEachParallel(0, [](std::size_t) { FAIL(); });
+}
+
+// Common practice, no source: a production line keeps chunk order in every stage, hands a chunk
+// on only when the stage before finished it, and never has more than `depth` chunks in flight.
+TEST(Parallel, StagesTakeChunksInOrderWithBoundedDepth) {
+  constexpr std::size_t kChunks = 200, kDepth = 3;
+  std::mutex mutex;
+  std::vector<std::vector<std::size_t>> seen(3);
+  std::vector<std::size_t> finished(3, 0);
+  std::size_t worstInFlight = 0;
+  bool outOfTurn = false;
+  const auto stage = [&](std::size_t s) {
+    return [&, s](std::size_t chunk) {
+      {
+        std::lock_guard lock(mutex);
+        if (s > 0 && finished[s - 1] <= chunk) outOfTurn = true;
+        if (s == 0) worstInFlight = std::max(worstInFlight, chunk + 1 - finished[2]);
+        seen[s].push_back(chunk);
+      }
+      std::this_thread::yield();
+      std::lock_guard lock(mutex);
+      ++finished[s];
+    };
+  };
+  const std::function<void(std::size_t)> stages[] = {stage(0), stage(1), stage(2)};
+  runStages(kChunks, kDepth, stages);
+  EXPECT_FALSE(outOfTurn);
+  EXPECT_LE(worstInFlight, kDepth);
+  for (const auto& order : seen) {
+    ASSERT_EQ(order.size(), kChunks);
+    for (std::size_t k = 0; k < kChunks; ++k) EXPECT_EQ(order[k], k);
+  }
+}
+
+TEST(Parallel, AStageFailureStopsTheLineAndReachesTheCaller) {
+  std::atomic<std::size_t> lastStarted{0};
+  const std::function<void(std::size_t)> stages[] = {
+      [&](std::size_t chunk) { lastStarted = chunk; },
+      [](std::size_t chunk) {
+        if (chunk == 5) throw std::runtime_error("disk full at chunk 5");
+      },
+      [](std::size_t chunk) { EXPECT_LT(chunk, 5u); },
+  };
+  EXPECT_THROW(runStages(1000, 2, stages), std::runtime_error);
+  EXPECT_LT(lastStarted.load(), 10u);  // the first stage stopped soon after, not at chunk 999
+  runStages(0, 2, stages);             // nothing to do is fine
+  runStages(3, 2, {});
 }
 
 // Per-limb values spill to the heap past four limbs (hexapods): copies are deep, moves leave
