@@ -47,12 +47,6 @@ void forEachParallel(std::size_t count, Task task) {
   if (error) std::rethrow_exception(error);
 }
 
-// Runs `first` and `second` at the same time; rethrows the first exception either threw.
-template <typename First, typename Second>
-void runBoth(First first, Second second) {
-  forEachParallel(2, [&](std::size_t i) { i == 0 ? first() : second(); });
-}
-
 // A production line: every stage handles chunks 0, 1, ... in order, each stage on a thread of
 // its own (the first on the caller's), so different chunks are in different stages at once.
 // Stage s takes chunk k only once stage s - 1 has finished it; the first stage starts chunk k

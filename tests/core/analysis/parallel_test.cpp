@@ -33,12 +33,6 @@ TEST(Parallel, FirstExceptionReachesTheCallerAfterAllThreadsStop) {
   EXPECT_GE(started.load(), 4);
 }
 
-TEST(Parallel, RunBothRunsBoth) {
-  int first = 0, second = 0;
-  runBoth([&] { first = 1; }, [&] { second = 2; });
-  EXPECT_EQ(first + second, 3);
-}
-
 TEST(Parallel, NoTasksIsFine) {
   forEachParallel(0, [](std::size_t) { FAIL(); });
 }
