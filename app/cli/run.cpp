@@ -2,15 +2,15 @@
 
 #include <exception>
 #include <iostream>
+#include <string>
 
-#include "cli/verbs.h"
 #include "common/batch_memory.h"
 #include "common/error.h"
 #include "stridemark/version.h"
 
 namespace stridemark::cli {
 
-int runCommandLine(int argc, char** argv) {
+int runVerbs(int argc, char** argv, std::span<const AddVerb> verbs) {
   keepFreedMemoryForReuse();  // one short-lived command per process
   CLI::App app{
       "stridemark - score animal locomotion from video tags (headless part of Stridemark).\n"
@@ -18,12 +18,7 @@ int runCommandLine(int argc, char** argv) {
   app.set_version_flag("--version", std::string("stridemark ") + kVersion);
   app.require_subcommand(1);
   VerbAction action;
-  // One line per verb, in the order `--help` lists them:
-  addProbeVerb(app, action);
-  addFrameVerb(app, action);
-  addScoreVerb(app, action);
-  addSynthVerb(app, action);
-  addExportVerb(app, action);
+  for (const AddVerb addVerb : verbs) addVerb(app, action);  // in the order `--help` lists them
 
   try {
     app.parse(argc, argv);

@@ -1,6 +1,7 @@
 #pragma once
-#include <string>
-#include <vector>
+#include <span>
+
+#include "cli/verbs.h"
 
 namespace stridemark::cli {
 
@@ -10,7 +11,18 @@ inline constexpr int kExitBadInput = 1;
 inline constexpr int kExitUsage = 2;
 inline constexpr int kExitInternal = 3;
 
-// Parses argv, runs the verb and turns every error into a message on stderr and an exit code.
+// Adds one verb's subcommand (see verbs.h).
+using AddVerb = void (*)(CLI::App&, VerbAction&);
+
+// Parses argv for the given verbs, runs the chosen one and turns every error into a message on
+// stderr and an exit code: the one place where core errors reach the user.
+int runVerbs(int argc, char** argv, std::span<const AddVerb> verbs);
+
+// Every verb (cli/run_all.cpp): what `stridemark-full` runs.
 int runCommandLine(int argc, char** argv);
+
+// `score` alone, which needs neither Qt nor the video libraries: what `stridemark score` runs
+// in the `stridemark` process itself (cli/run_score.cpp).
+int runScoreCommandLine(int argc, char** argv);
 
 }  // namespace stridemark::cli
