@@ -23,8 +23,6 @@ struct CircularStats {
 // Statistics of phases given in cycles (any real value; wrapped implicitly).
 CircularStats circularStats(std::span<const double> phases);
 
-// The same statistics, fed one phase at a time (in order: the sums, so the results, are then
-// the bits circularStats gives), for long trials whose phases are not kept.
 // cos and sin of 2 pi phase, remembered per phase value (the same bits as computing them):
 // phases are ratios of small frame counts, so a trial of 10^5 strides repeats a few thousand
 // distinct values, and a lookup is much cheaper than sin and cos.
@@ -45,6 +43,8 @@ class UnitVectors {
   std::vector<Slot> slots_;
 };
 
+// The same statistics, fed one phase at a time (in order: the sums, so the results, are then
+// the bits circularStats gives), for long trials whose phases are not kept.
 class CircularSums {
  public:
   void add(double phase);

@@ -1,6 +1,7 @@
 #pragma once
-// Independent pieces of one scoring run on the machine's cores. Scoring is short (well under a
-// second for 10^6 events), so this is a plain fork-join: no pool, at most one thread per core.
+// Pieces of one scoring run on the machine's cores. Scoring is short (well under a second for
+// 10^6 events), so there is no pool: a plain fork-join (at most one thread per core) for
+// independent pieces, and a production line of one thread per stage for work in sequence.
 #include <algorithm>
 #include <atomic>
 #include <condition_variable>
