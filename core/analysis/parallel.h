@@ -52,13 +52,18 @@ void forEachParallel(std::size_t count, Task task) {
 // its own (the first on the caller's), so different chunks are in different stages at once.
 // Stage s takes chunk k only once stage s - 1 has finished it; the first stage starts chunk k
 // only once the last has finished chunk k - depth, so at most `depth` chunks are in flight (a
-// caller cycling through `depth` buffers never overwrites one still in use). After a stage
-// throws, no stage starts another chunk, and the first exception is rethrown here once every
-// thread has stopped.
+// caller cycling through `depth` buffers never overwrites one still in use). A single chunk
+// goes through the stages on the caller's thread. After a stage throws, no stage starts another
+// chunk, and the first exception is rethrown here once every thread has stopped.
 inline void runStages(std::size_t chunks, std::size_t depth,
                       std::span<const std::function<void(std::size_t)>> stages) {
   const std::size_t count = stages.size();
   if (count == 0 || chunks == 0) return;
+  if (count == 1 || chunks == 1) {  // nothing to overlap (a short trial): no threads to start
+    for (std::size_t chunk = 0; chunk < chunks; ++chunk)
+      for (const auto& stage : stages) stage(chunk);
+    return;
+  }
   depth = std::max<std::size_t>(depth, 1);
   std::mutex mutex;
   std::condition_variable changed;

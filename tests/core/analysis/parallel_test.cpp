@@ -69,6 +69,26 @@ TEST(Parallel, StagesTakeChunksInOrderWithBoundedDepth) {
   }
 }
 
+// A single chunk goes through every stage in turn on the caller's thread.
+TEST(Parallel, OneChunkRunsEveryStageOnTheCaller) {
+  const auto caller = std::this_thread::get_id();
+  std::vector<int> order;
+  const auto stage = [&](int s) {
+    return [&, s](std::size_t chunk) {
+      EXPECT_EQ(chunk, 0u);
+      EXPECT_EQ(std::this_thread::get_id(), caller);
+      order.push_back(s);
+    };
+  };
+  const std::function<void(std::size_t)> stages[] = {stage(0), stage(1), stage(2)};
+  runStages(1, 3, stages);
+  EXPECT_EQ(order, (std::vector<int>{0, 1, 2}));
+  const std::function<void(std::size_t)> failing[] = {
+      [](std::size_t) { throw std::runtime_error("lift-off before touchdown"); }, stage(9)};
+  EXPECT_THROW(runStages(1, 3, failing), std::runtime_error);
+  EXPECT_EQ(order.size(), 3u);  // the stage after the failure did not run
+}
+
 TEST(Parallel, AStageFailureStopsTheLineAndReachesTheCaller) {
   std::atomic<std::size_t> lastStarted{0};
   const std::function<void(std::size_t)> stages[] = {
