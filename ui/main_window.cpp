@@ -26,6 +26,7 @@
 #include <QTextEdit>
 #include <QToolBar>
 #include <QUndoView>
+#include <algorithm>
 #include <array>
 
 #include "common/error.h"
@@ -336,6 +337,7 @@ void MainWindow::buildActions() {
 
   auto* settingsMenu = menuBar()->addMenu(tr("&Settings"));
   addAction(settingsMenu, tr("&Tag keys…"), {}, [this] { editTagKeys(); });
+  addAction(settingsMenu, tr("Frame &cache…"), {}, [this] { editFrameCacheBudget(); });
 
   auto* help = menuBar()->addMenu(tr("&Help"));
   addAction(help, tr("&Keyboard cheat sheet"), QKeySequence(Qt::Key_F1),
@@ -886,6 +888,30 @@ void MainWindow::editTrialCard() {
     keys_ = TagKeyMap::load(doc_.annotation().limbs);
     legend_->setKeys(keys_);
   }
+}
+
+void MainWindow::editFrameCacheBudget() {
+  constexpr int kLeastMiB = 64, kMostMiB = 64 * 1024;
+  const int current = static_cast<int>(
+      std::clamp<std::size_t>(videoOptions_.budgetBytes >> 20, kLeastMiB, kMostMiB));
+  bool ok = false;
+  const int mib = QInputDialog::getInt(
+      this, tr("Frame cache"),
+      tr("Memory for decoded frames, in MiB. More keeps stepping backwards smooth on clips with "
+         "far-apart keyframes; less leaves memory to other programs."),
+      current, kLeastMiB, kMostMiB, 64, &ok);
+  if (ok) setFrameCacheBudget(static_cast<std::size_t>(mib) << 20);
+}
+
+void MainWindow::setFrameCacheBudget(std::size_t bytes) {
+  videoOptions_.budgetBytes = bytes;
+  QSettings().setValue(QStringLiteral("video/cacheBudgetMiB"),
+                       static_cast<qulonglong>(bytes >> 20));
+  if (!video_) return;
+  video_->setBudget(bytes);
+  // As at open: a budget too small for the clip's keyframe spacing gets the stepping proxy.
+  if (video_->startProxyIfAdvised() && video_->proxyBuilding()) showProxyProgress(true);
+  updateStatus();
 }
 
 void MainWindow::editTagKeys() {

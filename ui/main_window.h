@@ -71,6 +71,10 @@ class MainWindow : public QMainWindow {
   void setAskBeforeDiscard(bool ask) { askBeforeDiscard_ = ask; }
   // Cache budget and proxy folder for videos opened from now on (tests; else from settings).
   void setVideoOptions(const VideoSourceOptions& options) { videoOptions_ = options; }
+  // Settings > Frame cache: the budget for decoded frames, saved, applied to the open video at
+  // once, and the stepping proxy offered if the new budget is too small for its keyframe spacing.
+  void setFrameCacheBudget(std::size_t bytes);
+  std::size_t frameCacheBudget() const { return videoOptions_.budgetBytes; }
   QAction* stepOnProxyAction() const { return stepOnProxyAction_; }
   QPushButton* proxyCancelButton() const { return proxyCancel_; }
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
@@ -116,6 +120,7 @@ class MainWindow : public QMainWindow {
   void setTheme(bool dark);
   void editTrialCard();
   void editTagKeys();
+  void editFrameCacheBudget();
   void exportFigures();
   // File > Export…: saves first when needed, then opens the Export dialog on the project file.
   bool saveBeforeExport();

@@ -8,6 +8,7 @@
 #include <QImage>
 #include <QProgressBar>
 #include <QPushButton>
+#include <QSettings>
 #include <QStatusBar>
 #include <cmath>
 #include <cstring>
@@ -167,6 +168,35 @@ TEST(SteppingProxy, ReopeningReusesTheVerifiedProxy) {
   EXPECT_TRUE(second.w.video()->displayingProxy()) << "no rebuild: the proxy is on disk";
   EXPECT_FALSE(second.w.proxyProgressBar()->isVisible());
   EXPECT_EQ(fs::last_write_time(proxies.front()), written);
+}
+
+// Settings > Frame cache applies at once: a clip opened with room for its whole keyframe spacing
+// gets no proxy; shrinking the budget below it offers one, as opening the clip would have.
+TEST(SteppingProxy, ShrinkingTheFrameCacheOffersTheProxyAtOnce) {
+  testsupport::TempFolder tmp("stridemark-proxy-");
+  const fs::path clip = makeLongGopClip(tmp.path());
+  const fs::path proxyDir = tmp / "cache";
+  Window win(proxyDir);
+  win.w.setFrameCacheBudget(std::size_t{1} << 30);  // 1 GiB: the 600-frame GOP fits (~70 MB)
+  ASSERT_TRUE(win.w.openVideo(QString::fromStdString(clip.string())));
+  EXPECT_FALSE(win.w.video()->proxyAdvised());
+  EXPECT_FALSE(win.w.video()->proxyBuilding());
+  EXPECT_FALSE(win.w.proxyCancelButton()->isVisible());
+  win.watchFrames();
+  ASSERT_TRUE(win.showFrame(10));
+  const std::int64_t bigWindow = win.w.video()->stats().windowFrames;
+  EXPECT_GT(bigWindow, 0);
+
+  win.w.setFrameCacheBudget(kSmallBudget);
+  EXPECT_EQ(win.w.video()->budget(), kSmallBudget);
+  EXPECT_LT(win.w.video()->stats().windowFrames, bigWindow) << "the source's cache shrank";
+  EXPECT_TRUE(win.w.video()->proxyAdvised());
+  EXPECT_TRUE(win.w.video()->proxyBuilding() || win.w.video()->hasProxy());
+  EXPECT_TRUE(win.w.proxyCancelButton()->isVisible() || win.w.video()->hasProxy());
+  EXPECT_EQ(QSettings().value(QStringLiteral("video/cacheBudgetMiB")).toULongLong(),
+            kSmallBudget >> 20);
+  if (win.w.video()->proxyBuilding()) win.w.proxyCancelButton()->click();
+  win.w.setFrameCacheBudget(std::size_t{1} << 30);  // leave the saved setting as it was
 }
 
 TEST(SteppingProxy, CancelLeavesNoFileAndTheSourceKeepsWorking) {

@@ -116,10 +116,20 @@ void VideoSource::setStepOnProxy(bool on) {
   if (proxyServer_) switchDisplay(on);
 }
 
+void VideoSource::setBudget(std::size_t bytes) {
+  options_.budgetBytes = bytes;
+  if (proxyServer_) proxyServer_->setBudget(bytes);
+  server_->setBudget(sourceBudget(displayingProxy()));
+}
+
+// While the proxy is displayed the source serves only export and frameNow(): a small cache.
+std::size_t VideoSource::sourceBudget(bool proxyDisplayed) const {
+  return proxyDisplayed ? std::min(options_.budgetBytes, kIdleSourceBudget) : options_.budgetBytes;
+}
+
 void VideoSource::switchDisplay(bool proxy) {
   dropPrepared();
-  server_->setBudget(proxy ? std::min(options_.budgetBytes, kIdleSourceBudget)
-                           : options_.budgetBytes);
+  server_->setBudget(sourceBudget(proxy));
   // Same frame numbers on both: ask the new display server for the frame the user waits for.
   if (wanted_ >= 0) request(wanted_);
 }

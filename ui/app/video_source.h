@@ -56,6 +56,11 @@ class VideoSource : public QObject {
   std::int64_t preparedShown() const { return preparedShown_; }
   std::int64_t preparedFrame() const { return prepared_.frame; }
 
+  // The frame cache budget (bytes) of the display, applied at once: the source's and the
+  // proxy's servers grow or shrink their caches. proxyAdvised() follows it.
+  void setBudget(std::size_t bytes);
+  std::size_t budget() const { return options_.budgetBytes; }
+
   // --- stepping proxy ---
   // True when backward steps would stall at this cache budget (long keyframe intervals).
   bool proxyAdvised() const;
@@ -84,6 +89,7 @@ class VideoSource : public QObject {
   video::FrameServer& display() const;
   void useProxy(std::shared_ptr<const video::FrameIndex> proxyIndex);
   void switchDisplay(bool proxy);
+  std::size_t sourceBudget(bool proxyDisplayed) const;
   QImage toDisplayImage(const video::DecodedFrame& frame);  // with the converter of its server
   QImage& recycledImage(QSize size);  // a slot nobody else holds, of this size
   void deliver(std::int64_t n, std::shared_ptr<const video::DecodedFrame> frame,
