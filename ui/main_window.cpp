@@ -897,8 +897,8 @@ void MainWindow::editFrameCacheBudget() {
   bool ok = false;
   const int mib = QInputDialog::getInt(
       this, tr("Frame cache"),
-      tr("Memory for decoded frames, in MiB. More keeps stepping backwards smooth on clips with "
-         "far-apart keyframes; less leaves memory to other programs."),
+      tr("Memory for decoded frames (MiB).\nMore keeps stepping backwards smooth on clips\n"
+         "with far-apart keyframes; less leaves memory to other programs."),
       current, kLeastMiB, kMostMiB, 64, &ok);
   if (ok) setFrameCacheBudget(static_cast<std::size_t>(mib) << 20);
 }
