@@ -74,7 +74,6 @@ class MainWindow : public QMainWindow {
   // Settings > Frame cache: the budget for decoded frames, saved, applied to the open video at
   // once, and the stepping proxy offered if the new budget is too small for its keyframe spacing.
   void setFrameCacheBudget(std::size_t bytes);
-  std::size_t frameCacheBudget() const { return videoOptions_.budgetBytes; }
   QAction* stepOnProxyAction() const { return stepOnProxyAction_; }
   QPushButton* proxyCancelButton() const { return proxyCancel_; }
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
