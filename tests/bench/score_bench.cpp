@@ -179,14 +179,25 @@ double peakRssMb() {
   return static_cast<double>(usage.ru_maxrss) / 1024.0;  // ru_maxrss is in KiB on Linux
 }
 
+// The same start for every child (see the top of this file): a quiet disk, and a pause longer
+// than the kernel's free page reporting delay (2 s), so the memory the previous child freed has
+// gone back to the host and every child starts equally cold.
+void startEquallyCold(unsigned pauseSeconds) {
+  ::sync();
+  ::sleep(pauseSeconds);
+}
+
+// Waits for child `pid`; true when it exited with status 0.
+bool exitedCleanly(pid_t pid) {
+  int status = 0;
+  ::waitpid(pid, &status, 0);
+  return WIFEXITED(status) && WEXITSTATUS(status) == 0;
+}
+
 // Runs `self --child MODE CSV JSON` and reads back its Sample.
 Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
                 const fs::path& jsonPath, unsigned pauseSeconds) {
-  // The same start for every run (see the top of this file): a quiet disk, and a pause longer
-  // than the kernel's free page reporting delay (2 s), so the memory the previous child freed
-  // has gone back to the host and every child starts equally cold.
-  ::sync();
-  ::sleep(pauseSeconds);
+  startEquallyCold(pauseSeconds);
   int pipeFds[2];
   if (::pipe(pipeFds) != 0) std::abort();
   const pid_t pid = ::fork();
@@ -204,10 +215,8 @@ Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
   for (ssize_t got; (got = ::read(pipeFds[0], buffer, sizeof buffer)) > 0;)
     text.append(buffer, static_cast<std::size_t>(got));
   ::close(pipeFds[0]);
-  int status = 0;
-  ::waitpid(pid, &status, 0);
   Sample s;
-  if (!WIFEXITED(status) || WEXITSTATUS(status) != 0 ||
+  if (!exitedCleanly(pid) ||
       std::sscanf(text.c_str(), "%lf %lf %lf %lf %lf %zu %lf %lf", &s.wall, &s.cpu, &s.read,
                   &s.analyse, &s.rssMb, &s.count, &s.readWall, &s.analyseWall) != 8) {
     std::fprintf(stderr, "score_bench: child '%s' failed\n", mode);
@@ -221,8 +230,7 @@ Sample runChild(const char* self, const char* mode, const fs::path& csvPath,
 // fork to its exit (process start, loading, reading, scoring, writing and exit included), after
 // the same sync and pause as every child.
 double runCommand(const fs::path& csvPath, const fs::path& jsonPath, unsigned pauseSeconds) {
-  ::sync();
-  ::sleep(pauseSeconds);
+  startEquallyCold(pauseSeconds);
   const std::string csv = csvPath.string(), json = jsonPath.string();
   const auto start = Clock::now();
   const pid_t pid = ::fork();
@@ -236,10 +244,9 @@ double runCommand(const fs::path& csvPath, const fs::path& jsonPath, unsigned pa
             json.c_str(), static_cast<char*>(nullptr));
     std::_Exit(127);
   }
-  int status = 0;
-  ::waitpid(pid, &status, 0);
+  const bool ok = exitedCleanly(pid);
   const double seconds = secondsSince(start);
-  if (!WIFEXITED(status) || WEXITSTATUS(status) != 0) {
+  if (!ok) {
     std::fprintf(stderr, "score_bench: %s score %s --fps 250 --json %s failed; run it by hand\n",
                  STRIDEMARK_EXE, csv.c_str(), json.c_str());
     std::exit(1);
