@@ -1,7 +1,6 @@
 #include "analysis/circular.h"
 
 #include <algorithm>
-#include <bit>
 #include <cmath>
 #include <limits>
 #include <numbers>
@@ -82,10 +81,6 @@ CircularStats circularStats(std::span<const double> phases) {
 
 namespace {
 
-constexpr int kVectorSlotBits = 12;  // 4096 slots, 96 KiB
-// A NaN payload that of() never looks up (it computes non-finite phases directly).
-constexpr std::uint64_t kNoPhase = 0x7FF8DEADBEEF0002ULL;
-
 UnitVectors::Vector unitVector(double phase) {
   const double angle = phase * kTwoPi;  // as resultant() on the period [0, 1)
   return {std::cos(angle), std::sin(angle)};
@@ -93,15 +88,9 @@ UnitVectors::Vector unitVector(double phase) {
 
 }  // namespace
 
-UnitVectors::UnitVectors() : slots_(std::size_t{1} << kVectorSlotBits, Slot{kNoPhase, {}}) {}
-
 UnitVectors::Vector UnitVectors::of(double phase) {
   if (!std::isfinite(phase)) return unitVector(phase);
-  const auto bits = std::bit_cast<std::uint64_t>(phase);
-  Slot& slot =
-      slots_[static_cast<std::size_t>((bits * 0x9E3779B97F4A7C15ULL) >> (64 - kVectorSlotBits))];
-  if (slot.bits != bits) slot = {bits, unitVector(phase)};
-  return slot.vector;
+  return vectors_.get(phase, unitVector);
 }
 
 void CircularSums::add(double phase) {

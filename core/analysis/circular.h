@@ -2,9 +2,9 @@
 // Circular statistics for phases (METHODS.md §8). Phases are in cycles; angles = 2 pi phase.
 // When the mean resultant length is 0 the mean direction does not exist: `defined` is false and
 // the mean is NaN, so callers can say "undefined" instead of printing a silent NaN.
-#include <cstdint>
 #include <span>
-#include <vector>
+
+#include "common/memo_by_bits.h"
 
 namespace stridemark::analysis {
 
@@ -28,7 +28,6 @@ CircularStats circularStats(std::span<const double> phases);
 // distinct values, and a lookup is much cheaper than sin and cos.
 class UnitVectors {
  public:
-  UnitVectors();
   struct Vector {
     double cos = 0;
     double sin = 0;
@@ -36,11 +35,7 @@ class UnitVectors {
   Vector of(double phase);
 
  private:
-  struct Slot {
-    std::uint64_t bits;
-    Vector vector;
-  };
-  std::vector<Slot> slots_;
+  MemoByBits<Vector, 12> vectors_;  // 4096 slots, 96 KiB
 };
 
 // The same statistics, fed one phase at a time (in order: the sums, so the results, are then
