@@ -91,7 +91,7 @@ QString findMovedVideo(const QString& projectDir, const model::VideoLink& link) 
     const QString candidate = it.next();
     if (QFileInfo(candidate).size() != size) continue;
     try {
-      if (VideoSource::signatureText(video::computeSignature(candidate.toStdString())) ==
+      if (video::signatureText(video::computeSignature(candidate.toStdString())) ==
           link.signature)
         return candidate;
     } catch (const Error&) {

@@ -146,7 +146,7 @@ void printSummary(const ScoreOptions& options, const analysis::Report& report) {
         << (first.limb ? ", " + report.limbs.label(*first.limb) : std::string()) << ": "
         << first.message << "; see --json for all)";
   }
-  out << "\n\n" << formats::kCaution << '\n';
+  out << "\n\n" << kCaution << '\n';
 }
 
 formats::JsonOut::Sink stdoutSink() {

@@ -17,15 +17,13 @@
 
 #include "analysis/analyse.h"
 #include "analysis/report.h"
+#include "common/caution.h"
 #include "formats/json_out.h"
 #include "model/annotation.h"
 
 namespace stridemark::formats {
 
 inline constexpr std::string_view kReportSchema = "stridemark.report.v1";
-inline constexpr std::string_view kCaution =
-    "Gait measurements support, and never replace, examination by a licensed veterinarian; "
-    "defer to local practice and regulations for animal handling.";
 
 void writeReportJson(const analysis::Report& report, JsonOut& out);
 std::string reportJsonText(const analysis::Report& report);

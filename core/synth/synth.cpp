@@ -64,16 +64,6 @@ nlohmann::json rateJson(Rational r) {
   return toString(r);
 }
 
-// Same text form as the workstation's video link ("size-headhash-tailhash"), so a moved clip
-// can be recognised.
-std::string signatureText(const video::VideoSignature& s) {
-  char text[64];
-  std::snprintf(
-      text, sizeof text, "%llu-%016llx-%016llx", static_cast<unsigned long long>(s.fileSize),
-      static_cast<unsigned long long>(s.headHash), static_cast<unsigned long long>(s.tailHash));
-  return text;
-}
-
 }  // namespace
 
 std::vector<GaitSegment> parseSchedule(const model::LimbSet& limbs,
@@ -176,7 +166,7 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
     renderVideo(options, timeline, result.video, progress);
     model::VideoLink link;
     link.path = result.video.filename().string();
-    link.signature = signatureText(video::computeSignature(result.video.string()));
+    link.signature = video::signatureText(video::computeSignature(result.video.string()));
     link.frameCount = timeline.frameCount();
     link.fileRate = storedRate(options);
     project.video = link;

@@ -46,6 +46,14 @@ bool readValue(std::ifstream& in, T& value) {
 
 }  // namespace
 
+std::string signatureText(const VideoSignature& s) {
+  char text[64];
+  std::snprintf(
+      text, sizeof text, "%llu-%016llx-%016llx", static_cast<unsigned long long>(s.fileSize),
+      static_cast<unsigned long long>(s.headHash), static_cast<unsigned long long>(s.tailHash));
+  return text;
+}
+
 VideoSignature computeSignature(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   std::error_code ec;

@@ -33,6 +33,9 @@ struct VideoSignature {
   friend bool operator==(const VideoSignature&, const VideoSignature&) = default;
 };
 VideoSignature computeSignature(const std::string& path);  // throws Error(io)
+// The signature as text, "size-headhash-tailhash" (hex): how projects, proxies and exports name
+// a clip, so a moved or renamed file is still recognised.
+std::string signatureText(const VideoSignature& signature);
 
 // Where index sidecars of the command line go, one per absolute video path: the folder named
 // by $STRIDEMARK_INDEX_CACHE, else $XDG_CACHE_HOME/stridemark/index, else

@@ -134,16 +134,8 @@ void VideoSource::switchDisplay(bool proxy) {
   if (wanted_ >= 0) request(wanted_);
 }
 
-std::string VideoSource::signatureText(const video::VideoSignature& s) {
-  char text[64];
-  std::snprintf(
-      text, sizeof text, "%llu-%016llx-%016llx", static_cast<unsigned long long>(s.fileSize),
-      static_cast<unsigned long long>(s.headHash), static_cast<unsigned long long>(s.tailHash));
-  return text;
-}
-
 std::string VideoSource::signatureText() const {
-  return signatureText(index_->signature());
+  return video::signatureText(index_->signature());
 }
 
 model::VideoLink VideoSource::link() const {

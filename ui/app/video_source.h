@@ -76,8 +76,6 @@ class VideoSource : public QObject {
   bool displayingProxy() const { return stepOnProxy_ && proxyServer_; }
   QString proxyPath() const;
 
-  static std::string signatureText(const video::VideoSignature& s);
-
  signals:
   void frameReady(qint64 frame, const QImage& image);
   void frameFailed(qint64 frame, const QString& message);
