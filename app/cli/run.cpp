@@ -4,17 +4,16 @@
 #include <iostream>
 #include <string>
 
-#include "common/batch_memory.h"
+#include "common/caution.h"
 #include "common/error.h"
 #include "stridemark/version.h"
 
 namespace stridemark::cli {
 
 int runVerbs(int argc, char** argv, std::span<const AddVerb> verbs) {
-  keepFreedMemoryForReuse();  // one short-lived command per process
-  CLI::App app{
-      "stridemark - score animal locomotion from video tags (headless part of Stridemark).\n"
-      "Measurements support, and never replace, examination by a licensed veterinarian."};
+  CLI::App app{std::string("stridemark - score animal locomotion from video tags (headless part of "
+                           "Stridemark).\n") +
+               std::string(kCaution)};
   app.set_version_flag("--version", std::string("stridemark ") + kVersion);
   app.require_subcommand(1);
   VerbAction action;

@@ -18,11 +18,7 @@ using AddVerb = void (*)(CLI::App&, VerbAction&);
 // stderr and an exit code: the one place where core errors reach the user.
 int runVerbs(int argc, char** argv, std::span<const AddVerb> verbs);
 
-// Every verb (cli/run_all.cpp): what `stridemark-full` runs.
+// Every verb (cli/run_all.cpp): what `stridemark` runs.
 int runCommandLine(int argc, char** argv);
-
-// `score` alone, which needs neither Qt nor the video libraries: what `stridemark score` runs
-// in the `stridemark` process itself (cli/run_score.cpp).
-int runScoreCommandLine(int argc, char** argv);
 
 }  // namespace stridemark::cli

@@ -14,7 +14,6 @@
 #include "common/error.h"
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
-#include "formats/json_out.h"
 #include "formats/project_file.h"
 #include "formats/report_json.h"
 #include "formats/tables_csv.h"
@@ -84,9 +83,6 @@ analysis::AnalysisOptions analysisOptions(const ScoreOptions& options,
                          annotation.limbs.labelList()};
     }
   }
-  // Per-stride support shares are not part of the report JSON or the tables; skipping them
-  // saves about 0.7 kB per stride on long trials.
-  result.strideSupport = false;
   result.speedMs = options.speed;
   result.legLengthM = options.legLength;
   return result;
@@ -149,56 +145,20 @@ void printSummary(const ScoreOptions& options, const analysis::Report& report) {
   out << "\n\n" << kCaution << '\n';
 }
 
-formats::JsonOut::Sink stdoutSink() {
-  return [](std::string_view chunk) {
-    if (std::fwrite(chunk.data(), 1, chunk.size(), stdout) != chunk.size()) {
-      throw Error(ErrorCategory::io, "could not write the report to standard output");
-    }
-  };
-}
-
-// How the events of an events CSV reach the project.
-enum class EventOrder {
-  normalized,  // model order, as every reader of an annotation expects
-  asInFile,    // file order: only when the project goes straight to scoring (no second copy)
-};
-
-model::Project loadInput(const ScoreOptions& options, EventOrder order) {
+model::Project loadInput(const ScoreOptions& options) {
   const std::filesystem::path inputPath(options.input);
-  std::string content = formats::readWholeFile(inputPath);
+  const std::string content = formats::readWholeFile(inputPath);
   if (isProjectText(inputPath, content)) return loadProject(options, content);
-  formats::EventsCsv csv = parseEventsText(options, content);
-  // The text goes before the annotation is made, so the annotation, then the analysis, reuse
-  // its memory instead of touching fresh pages (see common/batch_memory.h).
-  std::string().swap(content);
   model::Project project;
-  project.annotation = order == EventOrder::asInFile
-                           ? formats::toAnnotationInFileOrder(std::move(csv))
-                           : formats::toAnnotation(std::move(csv));
+  project.annotation = formats::toAnnotation(parseEventsText(options, content));
   return project;
 }
 
-// The report JSON alone: written while it is scored, without keeping the strides.
-// Consumes the project: its events are freed once read, and the analysis reuses their memory.
-int scoreToJsonOnly(const ScoreOptions& options, model::Project project) {
-  const analysis::AnalysisOptions settings = analysisOptions(options, project.annotation);
+void writeJson(const ScoreOptions& options, const analysis::Report& report) {
   if (options.json == "-") {
-    formats::JsonOut out(stdoutSink());
-    formats::scoreToReportJson(out, std::move(project), settings);
-    std::fflush(stdout);
-  } else {
-    formats::scoreToReportJsonFile(options.json, std::move(project), settings);
-    std::cerr << "wrote " << options.json << '\n';
-  }
-  return kExitOk;
-}
-
-// The report JSON of a report kept whole (when tables are written too).
-void writeStoredJson(const ScoreOptions& options, const analysis::Report& report) {
-  if (options.json == "-") {
-    formats::JsonOut out(stdoutSink());
-    formats::writeReportJson(report, out);
-    std::fflush(stdout);
+    const std::string text = formats::reportJsonText(report);
+    if (std::fwrite(text.data(), 1, text.size(), stdout) != text.size() || std::fflush(stdout))
+      throw Error(ErrorCategory::io, "could not write the report to standard output");
   } else {
     formats::writeReportJsonFile(options.json, report);
     std::cerr << "wrote " << options.json << '\n';
@@ -207,12 +167,10 @@ void writeStoredJson(const ScoreOptions& options, const analysis::Report& report
 
 int runScore(const ScoreOptions& options) {
   try {
-    if (!options.json.empty() && options.csv.empty())
-      return scoreToJsonOnly(options, loadInput(options, EventOrder::asInFile));
-    model::Project project = loadInput(options, EventOrder::normalized);
+    const model::Project project = loadInput(options);
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, project.annotation));
-    if (!options.json.empty()) writeStoredJson(options, report);
+    if (!options.json.empty()) writeJson(options, report);
     if (!options.csv.empty()) {
       const auto files =
           formats::writeTables(options.csv, project.annotation, report, {options.input});

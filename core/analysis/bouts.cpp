@@ -3,20 +3,20 @@
 namespace stridemark::analysis {
 
 std::vector<Bout> findBouts(const std::vector<StrideRecord>& strides) {
-  BoutFinder finder;
-  for (std::size_t i = 0; i < strides.size(); ++i) finder.add(strides[i], static_cast<int>(i));
-  return finder.take();
-}
-
-void BoutFinder::add(const StrideRecord& s, int index) {
-  const bool continues =
-      !bouts_.empty() && bouts_.back().gait == s.gait && bouts_.back().endFrame == s.startFrame;
-  if (continues) {
-    bouts_.back().lastStride = index;
-    bouts_.back().endFrame = s.endFrame;
-  } else {
-    bouts_.push_back({s.gait, index, index, s.startFrame, s.endFrame});
+  std::vector<Bout> bouts;
+  for (std::size_t i = 0; i < strides.size(); ++i) {
+    const StrideRecord& s = strides[i];
+    const int index = static_cast<int>(i);
+    const bool continues =
+        !bouts.empty() && bouts.back().gait == s.gait && bouts.back().endFrame == s.startFrame;
+    if (continues) {
+      bouts.back().lastStride = index;
+      bouts.back().endFrame = s.endFrame;
+    } else {
+      bouts.push_back({s.gait, index, index, s.startFrame, s.endFrame});
+    }
   }
+  return bouts;
 }
 
 std::vector<Transition> findTransitions(const std::vector<Bout>& bouts) {

@@ -74,54 +74,24 @@ double rayleighP(int n, double rBar) {
 }
 
 CircularStats circularStats(std::span<const double> phases) {
-  CircularSums sums;
-  for (const double phase : phases) sums.add(phase);
-  return sums.stats();
-}
-
-namespace {
-
-UnitVectors::Vector unitVector(double phase) {
-  const double angle = phase * kTwoPi;  // as resultant() on the period [0, 1)
-  return {std::cos(angle), std::sin(angle)};
-}
-
-}  // namespace
-
-UnitVectors::Vector UnitVectors::of(double phase) {
-  if (!std::isfinite(phase)) return unitVector(phase);
-  return vectors_.get(phase, unitVector);
-}
-
-void CircularSums::add(double phase) {
-  const UnitVectors::Vector v = unitVector(phase);
-  cos_ += v.cos;
-  sin_ += v.sin;
-  ++n_;
-}
-
-void CircularSums::add(double phase, UnitVectors& vectors) {
-  const UnitVectors::Vector v = vectors.of(phase);
-  cos_ += v.cos;
-  sin_ += v.sin;
-  ++n_;
-}
-
-CircularStats CircularSums::stats() const {
   CircularStats out;
-  out.n = n_;
-  if (n_ == 0) {
-    out.mean = std::numeric_limits<double>::quiet_NaN();
-    out.r = std::numeric_limits<double>::quiet_NaN();
-    out.circVar = out.circSd = out.angularDev = out.rayleighZ = out.r;
-    out.rayleighP = out.r;
+  out.n = static_cast<int>(phases.size());
+  if (phases.empty()) {
+    out.mean = out.r = std::numeric_limits<double>::quiet_NaN();
+    out.circVar = out.circSd = out.angularDev = out.rayleighZ = out.rayleighP = out.r;
     return out;
   }
-  const Resultant res{cos_ / static_cast<double>(n_), sin_ / static_cast<double>(n_)};
+  Resultant res;
+  for (const double phase : phases) {
+    const double angle = phase * kTwoPi;  // as resultant() on the period [0, 1)
+    res.c += std::cos(angle);
+    res.s += std::sin(angle);
+  }
+  res.c /= static_cast<double>(out.n);
+  res.s /= static_cast<double>(out.n);
   out.r = std::min(1.0, res.r());
   out.defined = out.r >= kZeroR;
   if (!out.defined) out.r = 0.0;
-  // One pass of cos/sin serves R and the mean (10^5 strides: the trigonometry is the cost).
   out.mean = out.defined ? meanOf(res, false, 1.0, 0.0) : std::numeric_limits<double>::quiet_NaN();
   out.circVar = 1.0 - out.r;
   out.circSd = out.defined ? std::sqrt(-2.0 * std::log(out.r)) / kTwoPi

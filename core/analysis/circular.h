@@ -1,10 +1,8 @@
 #pragma once
-// Circular statistics for phases (METHODS.md §8). Phases are in cycles; angles = 2 pi phase.
+// Circular statistics for phases (docs/methods.md §8). Phases are in cycles; angles = 2 pi phase.
 // When the mean resultant length is 0 the mean direction does not exist: `defined` is false and
 // the mean is NaN, so callers can say "undefined" instead of printing a silent NaN.
 #include <span>
-
-#include "common/memo_by_bits.h"
 
 namespace stridemark::analysis {
 
@@ -22,35 +20,6 @@ struct CircularStats {
 
 // Statistics of phases given in cycles (any real value; wrapped implicitly).
 CircularStats circularStats(std::span<const double> phases);
-
-// cos and sin of 2 pi phase, remembered per phase value (the same bits as computing them):
-// phases are ratios of small frame counts, so a trial of 10^5 strides repeats a few thousand
-// distinct values, and a lookup is much cheaper than sin and cos.
-class UnitVectors {
- public:
-  struct Vector {
-    double cos = 0;
-    double sin = 0;
-  };
-  Vector of(double phase);
-
- private:
-  MemoByBits<Vector, 12> vectors_;  // 4096 slots, 96 KiB
-};
-
-// The same statistics, fed one phase at a time (in order: the sums, so the results, are then
-// the bits circularStats gives), for long trials whose phases are not kept.
-class CircularSums {
- public:
-  void add(double phase);
-  void add(double phase, UnitVectors& vectors);  // same sums, looked up
-  CircularStats stats() const;
-
- private:
-  double cos_ = 0;
-  double sin_ = 0;
-  int n_ = 0;
-};
 
 // Circular mean of samples on a period [low, high) like scipy.stats.circmean; NaN when R == 0.
 double circularMean(std::span<const double> samples, double high, double low = 0.0);

@@ -3,9 +3,6 @@
 #include <algorithm>
 #include <string>
 
-#include "analysis/parallel.h"
-#include "common/huge_pages.h"
-
 namespace stridemark::analysis {
 namespace {
 
@@ -65,40 +62,53 @@ void appendVisible(const std::vector<StateInterval>& hidden, StateInterval inter
   if (cursor < interval.end) out.push_back({cursor, interval.end, interval.stance});
 }
 
-// One limb's slice of the shared cycle vector: limbs are scanned in parallel, each writing
-// into room sized for its tags, and the slices are closed up afterwards.
-struct CycleSlice {
-  LimbCycle* data = nullptr;
-  std::size_t room = 0;
-  std::size_t count = 0;
-  void push(const LimbCycle& cycle) { data[count++] = cycle; }  // room >= tags / 2 + 1 >= count
+// What a pair of consecutive tags says about the frames between them.
+enum class PairStatus {
+  ok,        // a touchdown then a lift-off, or the reverse, on different frames
+  occluded,  // like tags around a hidden span, which holds the missing one
+  bad,       // an annotation problem: the state between them is unknown
 };
 
+struct Tag {
+  std::int64_t frame = 0;
+  EventKind kind = EventKind::touchdown;
+};
+
+// Two like tags around a hidden span: the state is known from the first tag up to the span
+// and from the span up to the second tag.
+void appendAroundOcclusion(const std::vector<StateInterval>& hidden, const Tag& a, const Tag& b,
+                           std::vector<StateInterval>& out) {
+  auto first = std::upper_bound(hidden.begin(), hidden.end(), a.frame,
+                                [](std::int64_t f, const StateInterval& s) { return f < s.end; });
+  const bool stanceAfterA = a.kind == EventKind::touchdown;
+  if (first->first > a.frame) out.push_back({a.frame, first->first, stanceAfterA});
+  auto last = std::lower_bound(hidden.begin(), hidden.end(), b.frame,
+                               [](const StateInterval& s, std::int64_t f) { return s.first < f; });
+  --last;  // the last span starting before b
+  if (last->end < b.frame) out.push_back({last->end, b.frame, !stanceAfterA});
+}
+
+// Checks one limb's tags and turns them into its track.
 class LimbScanner {
  public:
-  LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems,
-              CycleSlice& cycles)
-      : annotation_(annotation), limb_(limb), problems_(problems), cycles_(cycles) {
+  LimbScanner(const model::Annotation& annotation, int limb, std::vector<Problem>& problems)
+      : annotation_(annotation), limb_(limb), problems_(problems) {
     hidden_ = hiddenIntervals(annotation, limb, problems);
   }
 
-  LimbTrack scan(HugeVector<Tag> tags) {
-    const auto byFrameThenKind = [](const Tag& a, const Tag& b) {
+  LimbTrack scan(std::vector<Tag> tags) {
+    std::sort(tags.begin(), tags.end(), [](const Tag& a, const Tag& b) {
       return a.frame != b.frame ? a.frame < b.frame : a.kind < b.kind;
-    };
-    // Normalized annotations arrive sorted: checking is one cheap pass, sorting is not.
-    if (!std::is_sorted(tags.begin(), tags.end(), byFrameThenKind))
-      std::sort(tags.begin(), tags.end(), byFrameThenKind);
+    });
     dropUnusable(tags);
     orderSameFrame(tags);
-    track_.touchdowns.reserve(tags.size() / 2 + 1);
-    HugeVector<PairStatus> status = checkPairs(tags);
+    const std::vector<PairStatus> status = checkPairs(tags);
     buildCycles(tags, status);
+    addKnownStates(tags, status);
     for (const Tag& t : tags)
       if (t.kind == EventKind::touchdown) track_.touchdowns.push_back(t.frame);
     std::sort(track_.flagged.begin(), track_.flagged.end(),
               [](const FlaggedSpan& a, const FlaggedSpan& b) { return a.first < b.first; });
-    track_.known = KnownStates(std::move(tags), std::move(status), std::move(hidden_));
     return std::move(track_);
   }
 
@@ -111,16 +121,14 @@ class LimbScanner {
   }
 
   // Duplicates, tags outside the clip and tags inside hidden spans are reported and ignored.
-  // Filters in place: long annotations should not pay for a second copy.
-  void dropUnusable(HugeVector<Tag>& tags) {
-    std::size_t kept = 0;
+  void dropUnusable(std::vector<Tag>& tags) {
+    std::vector<Tag> kept;
     const auto& clip = annotation_.clip;
-    for (std::size_t i = 0; i < tags.size(); ++i) {
-      const Tag t = tags[i];  // a copy: slot i may be overwritten below
+    for (const Tag& t : tags) {
       const auto what = [&] {
         return describe(t.kind) + " of " + label() + " at frame " + std::to_string(t.frame);
       };
-      if (kept > 0 && tags[kept - 1].frame == t.frame && tags[kept - 1].kind == t.kind) {
+      if (!kept.empty() && kept.back().frame == t.frame && kept.back().kind == t.kind) {
         report(t.frame, "duplicate " + what() + "; delete one of the two tags", t.frame);
       } else if (clip && (t.frame < clip->first || t.frame > clip->last)) {
         report(t.frame,
@@ -133,15 +141,15 @@ class LimbScanner {
                    " is marked hidden; it was ignored - delete the tag or shorten the span",
                t.frame);
       } else {
-        tags[kept++] = t;
+        kept.push_back(t);
       }
     }
-    tags.resize(kept);
+    tags = std::move(kept);
   }
 
   // A touchdown and a lift-off on one frame: read them in the order the state implies (a limb
   // in stance lifts off first), so the zero-length phase is the one reported.
-  static void orderSameFrame(HugeVector<Tag>& tags) {
+  static void orderSameFrame(std::vector<Tag>& tags) {
     for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
       if (tags[i].frame != tags[i + 1].frame) continue;
       const bool inStance = i > 0 && tags[i - 1].kind == EventKind::touchdown;
@@ -149,8 +157,8 @@ class LimbScanner {
     }
   }
 
-  HugeVector<PairStatus> checkPairs(const HugeVector<Tag>& tags) {
-    HugeVector<PairStatus> status(tags.size() > 0 ? tags.size() - 1 : 0, PairStatus::ok);
+  std::vector<PairStatus> checkPairs(const std::vector<Tag>& tags) {
+    std::vector<PairStatus> status(tags.empty() ? 0 : tags.size() - 1, PairStatus::ok);
     for (std::size_t i = 0; i + 1 < tags.size(); ++i) {
       const Tag& a = tags[i];
       const Tag& b = tags[i + 1];
@@ -187,7 +195,9 @@ class LimbScanner {
     return status;
   }
 
-  void buildCycles(const HugeVector<Tag>& tags, const HugeVector<PairStatus>& status) {
+  // A cycle runs from a touchdown to the next one when no pair between them is bad. Its
+  // lift-off counts only when it is the one tag between them and no hidden span covers it.
+  void buildCycles(const std::vector<Tag>& tags, const std::vector<PairStatus>& status) {
     std::size_t next = 0;
     for (std::size_t i = 0; i < tags.size(); ++i) {
       if (tags[i].kind != EventKind::touchdown) continue;
@@ -198,39 +208,40 @@ class LimbScanner {
                                      status.begin() + static_cast<std::ptrdiff_t>(next),
                                      [](PairStatus s) { return s != PairStatus::bad; });
       if (!clean) continue;
-      LimbCycle cycle(limb_, tags[i].frame, tags[next].frame);
-      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame) &&
-          !cycle.setLiftoff(tags[i + 1].frame)) {
-        report(tags[i + 1].frame,
-               "stance of " + label() + " from frame " + std::to_string(tags[i].frame) +
-                   " is longer than 2^31 - 1 frames; the cycle was left out - check the frame "
-                   "numbers",
-               tags[i].frame);
-        continue;
+      LimbCycle cycle{limb_, tags[i].frame, tags[next].frame, std::nullopt};
+      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
+        cycle.liftoff = tags[i + 1].frame;
+      track_.cycles.push_back(cycle);
+    }
+  }
+
+  // Known state between consecutive tags: an ordinary pair gives its span less any hidden
+  // part; a pair of like tags around a hidden span, the parts on either side; a bad pair none.
+  void addKnownStates(const std::vector<Tag>& tags, const std::vector<PairStatus>& status) {
+    for (std::size_t i = 0; i < status.size(); ++i) {
+      const Tag& a = tags[i];
+      const Tag& b = tags[i + 1];
+      if (status[i] == PairStatus::ok) {
+        appendVisible(hidden_, {a.frame, b.frame, a.kind == EventKind::touchdown}, track_.known);
+      } else if (status[i] == PairStatus::occluded) {
+        appendAroundOcclusion(hidden_, a, b, track_.known);
       }
-      cycles_.push(cycle);
     }
   }
 
   const model::Annotation& annotation_;
   int limb_;
   std::vector<Problem>& problems_;
-  CycleSlice& cycles_;
   std::vector<StateInterval> hidden_;
   LimbTrack track_;
 };
 
-// Each limb's tags, in the order of `events`; tags naming no limb of the set are reported.
-std::vector<HugeVector<Tag>> tagsByLimb(const model::Annotation& annotation,
-                                        std::span<const model::Event> events,
-                                        std::vector<Problem>& problems) {
+// Each limb's tags, in the order of the events; tags naming no limb of the set are reported.
+std::vector<std::vector<Tag>> tagsByLimb(const model::Annotation& annotation,
+                                         std::vector<Problem>& problems) {
   const int limbCount = annotation.limbs.size();
-  std::vector<HugeVector<Tag>> tags(static_cast<std::size_t>(limbCount));
-  std::vector<std::size_t> perLimb(static_cast<std::size_t>(limbCount), 0);
-  for (const model::Event& e : events)
-    if (e.limb >= 0 && e.limb < limbCount) ++perLimb[static_cast<std::size_t>(e.limb)];
-  for (std::size_t i = 0; i < tags.size(); ++i) reserveHuge(tags[i], perLimb[i]);
-  for (const model::Event& e : events) {
+  std::vector<std::vector<Tag>> tags(static_cast<std::size_t>(limbCount));
+  for (const model::Event& e : annotation.events) {
     if (e.limb < 0 || e.limb >= limbCount) {
       problems.push_back({e.frame, std::nullopt,
                           "tag at frame " + std::to_string(e.frame) + " names limb #" +
@@ -252,130 +263,34 @@ std::vector<HugeVector<Tag>> tagsByLimb(const model::Annotation& annotation,
   return tags;
 }
 
-CycleScan scanTags(const model::Annotation& annotation, std::vector<HugeVector<Tag>> tags,
-                   std::vector<Problem> problems) {
-  CycleScan scan;
-  scan.problems = std::move(problems);
+void reportForeignHiddenSpans(const model::Annotation& annotation, std::vector<Problem>& problems) {
   const int limbCount = annotation.limbs.size();
   for (const model::HiddenSpan& span : annotation.hidden) {
     if (span.limb >= 0 && span.limb < limbCount) continue;
-    scan.problems.push_back({span.first, std::nullopt,
-                             "hidden span at frames " + std::to_string(span.first) + "-" +
-                                 std::to_string(span.last) + " names limb #" +
-                                 std::to_string(span.limb) + ", which the " +
-                                 annotation.limbs.name() +
-                                 " limb set does not have; it was "
-                                 "ignored"});
+    problems.push_back({span.first, std::nullopt,
+                        "hidden span at frames " + std::to_string(span.first) + "-" +
+                            std::to_string(span.last) + " names limb #" +
+                            std::to_string(span.limb) + ", which the " + annotation.limbs.name() +
+                            " limb set does not have; it was ignored"});
   }
-  // Each limb gets room for tags / 2 + 1 cycles at its own offset (a cycle starts at a
-  // touchdown); limbs are scanned in parallel, then their cycles are closed up in limb order.
-  std::vector<CycleSlice> slices(tags.size());
-  std::size_t cycleRoom = 0;
-  for (std::size_t i = 0; i < tags.size(); ++i)
-    cycleRoom += slices[i].room = tags[i].size() / 2 + 1;
-  reserveHuge(scan.cycles, cycleRoom);
-  scan.cycles.resize(cycleRoom);
-  for (std::size_t i = 0, offset = 0; i < slices.size(); offset += slices[i++].room)
-    slices[i].data = scan.cycles.data() + offset;
-  scan.tracks.resize(tags.size());
-  std::vector<std::vector<Problem>> limbProblems(tags.size());
-  forEachParallel(tags.size(), [&](std::size_t i) {
-    LimbScanner scanner(annotation, static_cast<int>(i), limbProblems[i], slices[i]);
-    scan.tracks[i] = scanner.scan(std::move(tags[i]));
-  });
-  std::size_t kept = 0;
-  for (std::size_t i = 0; i < slices.size(); ++i) {
-    if (slices[i].data != scan.cycles.data() + kept)  // slices only move towards the front
-      std::copy_n(slices[i].data, slices[i].count, scan.cycles.data() + kept);
-    scan.tracks[i].cycles = std::span<const LimbCycle>(scan.cycles.data() + kept, slices[i].count);
-    kept += slices[i].count;
+}
+
+}  // namespace
+
+CycleScan scanCycles(const model::Annotation& annotation) {
+  CycleScan scan;
+  std::vector<std::vector<Tag>> tags = tagsByLimb(annotation, scan.problems);
+  reportForeignHiddenSpans(annotation, scan.problems);
+  for (std::size_t limb = 0; limb < tags.size(); ++limb) {
+    LimbScanner scanner(annotation, static_cast<int>(limb), scan.problems);
+    scan.tracks.push_back(scanner.scan(std::move(tags[limb])));
   }
-  scan.cycles.resize(kept);
-  for (auto& found : limbProblems)
-    scan.problems.insert(scan.problems.end(), std::make_move_iterator(found.begin()),
-                         std::make_move_iterator(found.end()));
   std::stable_sort(scan.problems.begin(), scan.problems.end(),
                    [](const Problem& a, const Problem& b) {
                      if (a.frame != b.frame) return a.frame < b.frame;
                      return a.limb.value_or(-1) < b.limb.value_or(-1);
                    });
   return scan;
-}
-
-// Two like tags around a hidden span: the state is known from the first tag up to the span
-// and from the span up to the second tag.
-void appendAroundOcclusion(const std::vector<StateInterval>& hidden, const Tag& a, const Tag& b,
-                           std::vector<StateInterval>& out) {
-  auto first = std::upper_bound(hidden.begin(), hidden.end(), a.frame,
-                                [](std::int64_t f, const StateInterval& s) { return f < s.end; });
-  const bool stanceAfterA = a.kind == EventKind::touchdown;
-  if (first->first > a.frame) out.push_back({a.frame, first->first, stanceAfterA});
-  auto last = std::lower_bound(hidden.begin(), hidden.end(), b.frame,
-                               [](const StateInterval& s, std::int64_t f) { return s.first < f; });
-  --last;  // the last span starting before b
-  if (last->end < b.frame) out.push_back({last->end, b.frame, !stanceAfterA});
-}
-
-}  // namespace
-
-KnownStates::KnownStates(HugeVector<Tag> tags, HugeVector<PairStatus> status,
-                         std::vector<StateInterval> hidden)
-    : tags_(std::move(tags)), status_(std::move(status)), hidden_(std::move(hidden)) {}
-
-KnownStates::Reader::Reader(const KnownStates& states) : states_(&states) {
-  fill();
-}
-
-void KnownStates::Reader::next() {
-  if (piece_ + 1 < pieces_.size()) {
-    take(pieces_[++piece_]);
-  } else {
-    fill();
-  }
-}
-
-// The first interval of the next pair of tags that has any: an ordinary pair gives its span
-// less any hidden part; a pair of like tags around a hidden span, the parts on either side.
-// Without hidden spans (the usual case) an ordinary pair is one interval, read straight off.
-void KnownStates::Reader::fill() {
-  pieces_.clear();
-  piece_ = 0;
-  const auto& tags = states_->tags_;
-  const auto& hidden = states_->hidden_;
-  for (; pair_ < states_->status_.size(); ++pair_) {
-    const Tag& a = tags[pair_];
-    const Tag& b = tags[pair_ + 1];
-    const PairStatus status = states_->status_[pair_];
-    if (status == PairStatus::ok && hidden.empty()) {
-      current_ = {a.frame, b.frame, a.kind == EventKind::touchdown};
-      ++pair_;
-      return;
-    }
-    if (status == PairStatus::ok) {
-      appendVisible(hidden, {a.frame, b.frame, a.kind == EventKind::touchdown}, pieces_);
-    } else if (status == PairStatus::occluded) {
-      appendAroundOcclusion(hidden, a, b, pieces_);
-    }
-    if (!pieces_.empty()) {
-      take(pieces_.front());
-      ++pair_;
-      return;
-    }
-  }
-  done_ = true;
-}
-
-CycleScan scanCycles(const model::Annotation& annotation) {
-  std::vector<Problem> problems;
-  std::vector<HugeVector<Tag>> tags = tagsByLimb(annotation, annotation.events, problems);
-  return scanTags(annotation, std::move(tags), std::move(problems));
-}
-
-CycleScan scanCycles(const model::Annotation& rest, std::vector<model::Event>&& events) {
-  std::vector<Problem> problems;
-  std::vector<HugeVector<Tag>> tags = tagsByLimb(rest, events, problems);
-  std::vector<model::Event>().swap(events);  // its memory now holds the cycles
-  return scanTags(rest, std::move(tags), std::move(problems));
 }
 
 const LimbCycle* cycleStartingAt(const LimbTrack& track, std::int64_t touchdown) {

@@ -45,9 +45,4 @@ std::optional<std::string> footfallSequence(double limbPhase) {
   return phase < 0.5 ? "lateral" : "diagonal";
 }
 
-bool isSymmetrical(double hindContralateral, double foreContralateral, double tolerance) {
-  return circularDistance(hindContralateral, 0.5) <= tolerance + kEdgeTolerance &&
-         circularDistance(foreContralateral, 0.5) <= tolerance + kEdgeTolerance;
-}
-
 }  // namespace stridemark::analysis

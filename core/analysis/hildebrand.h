@@ -1,7 +1,7 @@
 #pragma once
 // Hildebrand's symmetrical-gait measures (METHODS.md §2): the limb-phase band (scheme B, eight
 // 12.5 %-wide bands whose boundaries live in ONE table), the Cartmill et al. 2002 quadrant
-// (scheme A), the footfall sequence and the symmetry gate of §2.3.
+// (scheme A) and the footfall sequence. The symmetry gate is a gait rule (gait_rules.h).
 #include <optional>
 #include <string>
 #include <vector>
@@ -26,8 +26,5 @@ std::optional<std::string> cartmillQuadrant(double limbPhase);
 // "lateral" when the forefoot follows its ipsilateral hindfoot within half a stride, "diagonal"
 // when later; null at exactly 0 or 0.5 (pace, trot: no sequence).
 std::optional<std::string> footfallSequence(double limbPhase);
-
-// Schmitt et al. 2006 gate: both girdles' contralateral phases within `tolerance` of 0.5.
-bool isSymmetrical(double hindContralateral, double foreContralateral, double tolerance = 0.10);
 
 }  // namespace stridemark::analysis

@@ -10,7 +10,6 @@
 #include <string>
 #include <vector>
 
-#include "analysis/limb_values.h"
 #include "common/rational.h"
 #include "model/limb_set.h"
 
@@ -27,37 +26,22 @@ struct Stat {
 };
 
 // One complete cycle of one limb: touchdown -> next touchdown (its own stride).
-// 24 bytes: a long annotation holds one per touchdown, so the lift-off is kept as the frames
-// of stance after the touchdown.
 struct LimbCycle {
-  LimbCycle() = default;
-  LimbCycle(int limbIndex, std::int64_t touchdownFrame, std::int64_t nextTouchdownFrame)
-      : touchdown(touchdownFrame), nextTouchdown(nextTouchdownFrame), limb(limbIndex) {}
-
+  int limb = 0;
   std::int64_t touchdown = 0;
   std::int64_t nextTouchdown = 0;
-  std::int32_t limb = 0;
+  std::optional<std::int64_t> liftoff;  // missing when untagged or hidden
 
-  // Missing when the lift-off was not tagged (or fell in a hidden span).
-  std::optional<std::int64_t> liftoff() const {
-    return stance_ < 0 ? std::nullopt : std::optional(touchdown + stance_);
-  }
-  // False (and nothing set) when the stance is longer than a cycle can hold (2^31 - 1 frames).
-  bool setLiftoff(std::int64_t frame) {
-    const std::int64_t stance = frame - touchdown;
-    if (stance < 0 || stance > std::numeric_limits<std::int32_t>::max()) return false;
-    stance_ = static_cast<std::int32_t>(stance);
-    return true;
-  }
   std::int64_t strideFrames() const { return nextTouchdown - touchdown; }
   std::optional<std::int64_t> stanceFrames() const {
-    return stance_ < 0 ? std::nullopt : std::optional<std::int64_t>(stance_);
+    if (!liftoff) return std::nullopt;
+    return *liftoff - touchdown;
   }
-
- private:
-  std::int32_t stance_ = -1;  // frames from touchdown to lift-off; -1: no lift-off
+  std::optional<std::int64_t> swingFrames() const {
+    if (!liftoff) return std::nullopt;
+    return nextTouchdown - *liftoff;
+  }
 };
-static_assert(sizeof(LimbCycle) == 24);
 
 struct LimbSummary {
   int strides = 0;  // complete, valid cycles
@@ -66,15 +50,11 @@ struct LimbSummary {
 
 // One stride of the reference limb and the other limbs seen in its window.
 struct StrideRecord {
-  // User-provided on purpose: `strides.emplace_back()` then skips zero-filling the whole
-  // record before the member initialisers run (a large share of scoring 10^5 strides).
-  StrideRecord() {}  // NOLINT(modernize-use-equals-default)
-
   std::int64_t startFrame = 0;  // reference touchdown k
   std::int64_t endFrame = 0;    // reference touchdown k + 1
   double durationS = 0;
-  LimbValues<std::optional<double>> dutyFactor;  // per limb: its cycle that starts in the window
-  LimbValues<std::optional<double>> phase;       // per limb, [0, 1); reference limb = 0
+  std::vector<std::optional<double>> dutyFactor;  // per limb: its cycle that starts in the window
+  std::vector<std::optional<double>> phase;       // per limb, [0, 1); reference limb = 0
   std::string gait = "unclassified";
   std::optional<std::string> band;      // Hildebrand band (symmetrical quadruped strides)
   std::optional<std::string> quadrant;  // Cartmill et al. 2002 quadrant (LSLC, LSDC, DSDC, DSLC)
@@ -97,7 +77,7 @@ struct StrideRecord {
   // Added by analysis: touchdowns of each limb inside the window (phase is null unless 1; more
   // than 1 flags a stride mismatch or stumble), the template gait's mean circular distance, and
   // the asymmetrical lags of METHODS §3.2 (fore, hind, pair; cycles).
-  LimbValues<int> touchdownCount;
+  std::vector<int> touchdownCount;
   std::optional<double> templateDistance;
   std::optional<double> foreLag, hindLag, pairLag;
 };
@@ -144,6 +124,20 @@ struct SymmetryValues {
 
 struct Symmetry {
   SymmetryValues strideS, stanceS, swingS, dutyFactor;
+};
+
+// Every symmetry measure, in the order reports and tables list them: the one list the JSON,
+// the tables and the desk read.
+struct SymmetryMeasure {
+  const char* key;    // report JSON and table name
+  const char* title;  // for people
+  SymmetryValues Symmetry::*values;
+};
+inline constexpr SymmetryMeasure kSymmetryMeasures[] = {
+    {"stride_s", "Stride time", &Symmetry::strideS},
+    {"stance_s", "Stance time", &Symmetry::stanceS},
+    {"swing_s", "Swing time", &Symmetry::swingS},
+    {"duty_factor", "Duty factor", &Symmetry::dutyFactor},
 };
 
 struct SpeedSummary {

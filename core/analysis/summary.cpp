@@ -2,12 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
-#include <iterator>
-#include <span>
 
 #include "analysis/circular.h"
 #include "analysis/hildebrand.h"
-#include "analysis/parallel.h"
 #include "analysis/speed.h"
 #include "analysis/stats.h"
 #include "analysis/symmetry.h"
@@ -16,120 +13,83 @@ namespace stridemark::analysis {
 
 namespace {
 
-// Describes one measure over a limb's cycles; `measure(cycle, take)` takes the cycle's value
-// when it has one.
+// One value per cycle that has it, in cycle order.
 template <typename Measure>
-Stat describeCycles(std::span<const LimbCycle> cycles, Measure measure) {
-  return describeEach([&](auto&& take) {
-    for (const LimbCycle& c : cycles) measure(c, take);
-  });
+Stat describeCycles(const std::vector<LimbCycle>& cycles, Measure measure) {
+  std::vector<double> values;
+  values.reserve(cycles.size());
+  for (const LimbCycle& c : cycles)
+    if (const std::optional<double> v = measure(c)) values.push_back(*v);
+  return describe(values);
 }
 
-Stat describeStride(std::span<const LimbCycle> cycles, Rational fps) {
-  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
-    take(framesToSeconds(c.strideFrames(), fps));
+LimbSummary summariseLimb(const std::vector<LimbCycle>& cycles, Rational fps) {
+  const auto seconds = [fps](std::optional<std::int64_t> frames) -> std::optional<double> {
+    if (!frames) return std::nullopt;
+    return framesToSeconds(*frames, fps);
+  };
+  LimbSummary out;
+  out.strides = static_cast<int>(cycles.size());
+  out.strideS =
+      describeCycles(cycles, [&](const LimbCycle& c) { return seconds(c.strideFrames()); });
+  out.stanceS =
+      describeCycles(cycles, [&](const LimbCycle& c) { return seconds(c.stanceFrames()); });
+  out.swingS = describeCycles(cycles, [&](const LimbCycle& c) { return seconds(c.swingFrames()); });
+  out.dutyFactor = describeCycles(cycles, [](const LimbCycle& c) -> std::optional<double> {
+    const auto stance = c.stanceFrames();
+    if (!stance) return std::nullopt;
+    return static_cast<double>(*stance) / static_cast<double>(c.strideFrames());
   });
+  return out;
 }
 
-Stat describeStance(std::span<const LimbCycle> cycles, Rational fps) {
-  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
-    if (const auto stance = c.stanceFrames()) take(framesToSeconds(*stance, fps));
-  });
+PhaseSummary phaseSummary(const CircularStats& c) {
+  PhaseSummary p;
+  p.n = c.n;
+  if (c.n == 0) return p;
+  p.r = c.r;
+  p.angularDeviation = c.angularDev;
+  p.rayleighZ = c.rayleighZ;
+  p.rayleighP = c.rayleighP;
+  if (c.defined) {
+    p.mean = c.mean;
+    p.circSd = c.circSd;
+  }
+  return p;
 }
-
-Stat describeSwing(std::span<const LimbCycle> cycles, Rational fps) {
-  return describeCycles(cycles, [fps](const LimbCycle& c, auto&& take) {
-    if (const auto liftoff = c.liftoff()) take(framesToSeconds(c.nextTouchdown - *liftoff, fps));
-  });
-}
-
-Stat describeDutyFactor(std::span<const LimbCycle> cycles, Rational /*fps*/) {
-  return describeCycles(cycles, [](const LimbCycle& c, auto&& take) {
-    if (const auto stance = c.stanceFrames())
-      take(static_cast<double>(*stance) / static_cast<double>(c.strideFrames()));
-  });
-}
-
-// Each statistic of a limb summary and how it is described: one task per limb and row.
-struct CycleStatistic {
-  Stat LimbSummary::*into;
-  Stat (*describe)(std::span<const LimbCycle>, Rational);
-};
-constexpr CycleStatistic kCycleStatistics[] = {{&LimbSummary::strideS, describeStride},
-                                               {&LimbSummary::stanceS, describeStance},
-                                               {&LimbSummary::swingS, describeSwing},
-                                               {&LimbSummary::dutyFactor, describeDutyFactor}};
-constexpr std::size_t kStatisticCount = std::size(kCycleStatistics);
-
-// Below this many cycles in all, threads cost more than the statistics (every desk edit).
-constexpr std::size_t kParallelFromCycles = 20000;
 
 }  // namespace
 
 std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps) {
-  std::vector<LimbSummary> out(tracks.size());
-  std::size_t cycles = 0;
-  for (std::size_t i = 0; i < tracks.size(); ++i) {
-    out[i].strides = static_cast<int>(tracks[i].cycles.size());
-    cycles += tracks[i].cycles.size();
-  }
-  // Limbs x statistics, each its own task, on the machine's cores.
-  const auto describe = [&](std::size_t task) {
-    const std::size_t limb = task / kStatisticCount;
-    const CycleStatistic& statistic = kCycleStatistics[task % kStatisticCount];
-    out[limb].*statistic.into = statistic.describe(tracks[limb].cycles, fps);
-  };
-  const std::size_t tasks = tracks.size() * kStatisticCount;
-  if (cycles >= kParallelFromCycles) {
-    forEachParallel(tasks, describe);
-  } else {
-    for (std::size_t task = 0; task < tasks; ++task) describe(task);
-  }
+  std::vector<LimbSummary> out;
+  out.reserve(tracks.size());
+  for (const LimbTrack& track : tracks) out.push_back(summariseLimb(track.cycles, fps));
   return out;
 }
 
-PhaseSummariser::PhaseSummariser(int limbCount)
-    : phases_(static_cast<std::size_t>(std::max(limbCount, 0))) {}
-
-void PhaseSummariser::add(const StrideRecord& stride) {
-  const std::size_t n = std::min(phases_.size(), stride.phase.size());
-  for (std::size_t i = 0; i < n; ++i)
-    if (stride.phase[i]) phases_[i].add(*stride.phase[i], vectors_);
-}
-
-std::vector<PhaseSummary> PhaseSummariser::finish() const {
+std::vector<PhaseSummary> summarisePhases(int limbCount, const std::vector<StrideRecord>& strides) {
   std::vector<PhaseSummary> out;
-  for (const CircularSums& limbPhases : phases_) {
-    const CircularStats c = limbPhases.stats();
-    PhaseSummary p;
-    p.n = c.n;
-    if (c.n > 0) {
-      p.r = c.r;
-      p.angularDeviation = c.angularDev;
-      p.rayleighZ = c.rayleighZ;
-      p.rayleighP = c.rayleighP;
-      if (c.defined) {
-        p.mean = c.mean;
-        p.circSd = c.circSd;
-      }
-    }
-    out.push_back(p);
+  for (std::size_t limb = 0; limb < static_cast<std::size_t>(std::max(limbCount, 0)); ++limb) {
+    std::vector<double> phases;
+    for (const StrideRecord& s : strides)
+      if (limb < s.phase.size() && s.phase[limb]) phases.push_back(*s.phase[limb]);
+    out.push_back(phaseSummary(circularStats(phases)));
   }
   return out;
 }
 
-void HildebrandSummariser::add(const StrideRecord& stride) {
-  if (!stride.symmetrical || !stride.limbPhase || !stride.hindDutyFactor) return;
-  limbPhases_.add(*stride.limbPhase, vectors_);
-  dutySum_ += *stride.hindDutyFactor;
-}
-
-std::optional<HildebrandSummary> HildebrandSummariser::finish() const {
-  const CircularStats phases = limbPhases_.stats();
-  if (phases.n == 0) return std::nullopt;
+std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides) {
+  std::vector<double> limbPhases;
+  double dutySum = 0;
+  for (const StrideRecord& s : strides) {
+    if (!s.symmetrical || !s.limbPhase || !s.hindDutyFactor) continue;
+    limbPhases.push_back(*s.limbPhase);
+    dutySum += *s.hindDutyFactor;
+  }
+  if (limbPhases.empty()) return std::nullopt;
   HildebrandSummary out;
-  out.dutyFactor = dutySum_ / static_cast<double>(phases.n);
-  out.limbPhase = phases.mean;  // NaN when the mean direction does not exist
+  out.dutyFactor = dutySum / static_cast<double>(limbPhases.size());
+  out.limbPhase = circularStats(limbPhases).mean;  // NaN when the mean direction does not exist
   if (std::isnan(out.limbPhase)) return out;
   out.band = hildebrandBand(out.limbPhase);
   out.quadrant = cartmillQuadrant(out.limbPhase).value_or("");

@@ -4,7 +4,6 @@
 #include <optional>
 #include <vector>
 
-#include "analysis/circular.h"
 #include "analysis/cycles.h"
 #include "analysis/report.h"
 
@@ -13,30 +12,11 @@ namespace stridemark::analysis {
 // Stride, stance, swing (seconds) and duty factor per limb over its valid cycles.
 std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps);
 
-// Circular statistics of each limb's phase over the strides where it is defined. Fed stride by
-// stride, in stride order, so a streamed analysis gets the same numbers as a stored one.
-class PhaseSummariser {
- public:
-  explicit PhaseSummariser(int limbCount);
-  void add(const StrideRecord& stride);
-  std::vector<PhaseSummary> finish() const;
-
- private:
-  std::vector<CircularSums> phases_;  // per limb
-  UnitVectors vectors_;
-};
+// Circular statistics of each limb's phase over the strides where it is defined.
+std::vector<PhaseSummary> summarisePhases(int limbCount, const std::vector<StrideRecord>& strides);
 
 // Mean hind duty factor and circular-mean limb phase of the symmetrical strides; null if none.
-class HildebrandSummariser {
- public:
-  void add(const StrideRecord& stride);
-  std::optional<HildebrandSummary> finish() const;
-
- private:
-  CircularSums limbPhases_;
-  UnitVectors vectors_;
-  double dutySum_ = 0;
-};
+std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides);
 
 // Robinson SI and R/L ratio per left/right pair from the limbs' mean values.
 Symmetry summariseSymmetry(const model::LimbSet& limbs,

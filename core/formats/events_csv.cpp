@@ -1,7 +1,5 @@
 #include "formats/events_csv.h"
 
-#include "common/huge_pages.h"
-
 #include <algorithm>
 #include <array>
 #include <charconv>
@@ -263,7 +261,6 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   const auto eventColumn = static_cast<std::size_t>(columns->event);
   const auto whenColumn =
       static_cast<std::size_t>(result.timeColumn ? columns->time : columns->frame);
-  reserveHuge(result.events, text.size() / 16);  // shortest rows are ~16 bytes
   std::array<std::string_view, 3> fields;
   while (cursor.next(line)) {
     const long number = cursor.number();
@@ -288,30 +285,13 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   return result;
 }
 
-model::Annotation toAnnotationInFileOrder(EventsCsv&& csv) {
+model::Annotation toAnnotation(EventsCsv&& csv) {
   model::Annotation annotation;
   annotation.limbs = csv.limbs;
   if (csv.captureRate) annotation.captureRate = *csv.captureRate;
   annotation.referenceLimb = csv.referenceLimb.value_or(csv.limbs.defaultReference());
   annotation.events = std::move(csv.events);
-  return annotation;
-}
-
-model::Annotation toAnnotation(EventsCsv&& csv) {
-  model::Annotation annotation = toAnnotationInFileOrder(std::move(csv));
-  {
-    const std::vector<model::Event> inFileOrder = std::move(annotation.events);
-    annotation.events.clear();  // a moved-from vector is only "valid"
-    // Stable counting sort by limb: a file in frame order comes out in model order already.
-    std::vector<std::size_t> start(static_cast<std::size_t>(annotation.limbs.size()) + 1, 0);
-    for (const auto& event : inFileOrder) ++start[static_cast<std::size_t>(event.limb) + 1];
-    for (std::size_t i = 1; i < start.size(); ++i) start[i] += start[i - 1];
-    reserveHuge(annotation.events, inFileOrder.size());  // 16 MB per 10^6 events
-    annotation.events.resize(inFileOrder.size());
-    for (const auto& event : inFileOrder)
-      annotation.events[start[static_cast<std::size_t>(event.limb)]++] = event;
-  }
-  if (!std::is_sorted(annotation.events.begin(), annotation.events.end())) annotation.normalize();
+  annotation.normalize();
   return annotation;
 }
 

@@ -40,13 +40,8 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
 EventsCsv readEventsCsv(const std::filesystem::path& path, const EventsCsvOptions& options = {});
 
 // The annotation an events CSV describes (limb set, capture rate, reference limb, events in
-// model order). Needs a capture rate. Events already in frame order are grouped by limb in
-// linear time, so a large file costs no full sort.
+// model order).
 model::Annotation toAnnotation(EventsCsv&& csv);
-// The same annotation with its events left in file order, NOT normalized: only for a caller
-// that hands the events straight to scoring (analysis::scanCycles reads tags in any order and
-// gives the same report). Skips the regrouping pass and its second copy of the events.
-model::Annotation toAnnotationInFileOrder(EventsCsv&& csv);
 
 // Header comment block (software version, limb set, capture rate, reference limb, optional
 // source note) followed by limb,event,frame rows in frame order.

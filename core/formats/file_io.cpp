@@ -11,7 +11,6 @@
 #include <vector>
 
 #include "common/error.h"
-#include "common/huge_pages.h"
 
 namespace stridemark::formats {
 namespace {
@@ -47,22 +46,10 @@ std::string readWholeFile(const std::filesystem::path& path) {
     throw Error(ErrorCategory::io, path.string() + ": cannot open (" + systemReason(errno) +
                                        ") — check the path and the file's permissions");
   }
-  // One allocation of the file's size (growing a string by appends copies and faults in
-  // about three times the file); keep reading past it in case the file grew meanwhile.
   std::string content;
-  const auto size = std::filesystem::file_size(path, ec);
-  std::size_t filled = 0;
-  content.reserve(ec ? std::size_t{1} << 20 : static_cast<std::size_t>(size) + 1);
-  adviseHugePages(content.data(), content.capacity());  // before the first touch
-  content.resize(content.capacity());
-  while (true) {
-    const std::size_t got =
-        std::fread(content.data() + filled, 1, content.size() - filled, file.get());
-    filled += got;
-    if (filled < content.size()) break;
-    content.resize(content.size() * 2);
-  }
-  content.resize(filled);
+  char buffer[1 << 16];
+  std::size_t got = 0;
+  while ((got = std::fread(buffer, 1, sizeof buffer, file.get())) > 0) content.append(buffer, got);
   if (std::ferror(file.get())) {
     throw Error(ErrorCategory::io, path.string() + ": read failed (" + systemReason(errno) +
                                        ") — check the disk or copy the file elsewhere");
@@ -98,29 +85,11 @@ void AtomicFile::fail(std::string_view what, int errorNumber) {
                                      "folder's permissions and free space");
 }
 
-bool AtomicFile::setDirect(bool on) {
-#ifndef O_DIRECT
-  (void)on;
-  return false;  // no direct I/O on this system: the page cache it is
-#else
-  const int flags = ::fcntl(fd_, F_GETFL);
-  if (flags < 0) return direct_;
-  const int wanted = on ? (flags | O_DIRECT) : (flags & ~O_DIRECT);
-  if (wanted != flags && ::fcntl(fd_, F_SETFL, wanted) != 0) return direct_;
-  direct_ = on;
-  return direct_;
-#endif
-}
-
 void AtomicFile::write(std::string_view bytes) {
   while (!bytes.empty()) {
     const ssize_t wrote = ::write(fd_, bytes.data(), bytes.size());
     if (wrote < 0) {
       if (errno == EINTR) continue;
-      if (errno == EINVAL && direct_) {  // the kernel refused a direct write: buffered from here
-        setDirect(false);
-        if (!direct_) continue;
-      }
       fail("write failed", errno);
     }
     bytes.remove_prefix(static_cast<std::size_t>(wrote));

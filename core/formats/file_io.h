@@ -13,8 +13,7 @@ std::string readWholeFile(const std::filesystem::path& path);
 // What a committed file survives. Every write is atomic for readers (they see the old file or the
 // whole new one). The user's work (projects, events CSVs, the journal) must also survive a power
 // cut, which costs an fsync: waiting for the disk. Derived outputs (reports, tables) can be made
-// again from the project in a second, so they skip it: for a 56 MB report the fsync took as
-// long as writing the file (tests/bench/score_bench). The kernel still writes them out soon.
+// again from the project in a second, so they skip it; the kernel still writes them out soon.
 enum class Durability { survivePowerLoss, regenerable };
 
 // Streams content into a temporary file in the target's folder; commit() makes it the target.
@@ -31,14 +30,6 @@ class AtomicFile {
   // fsync (survivePowerLoss), close, rename over the target, fsync the folder (survivePowerLoss)
   void commit();
 
-  // Direct I/O for the writes that follow: bytes go from the caller's memory to the disk
-  // without passing through the page cache. Returns whether it is now on: false where the file
-  // system does not offer it. While on, write() takes only memory aligned to kDirectAlignment
-  // and sizes that are multiples of it (a write the kernel still refuses is retried without).
-  static constexpr std::size_t kDirectAlignment = 4096;
-  bool setDirect(bool on);
-  bool direct() const { return direct_; }
-
  private:
   [[noreturn]] void fail(std::string_view what, int errorNumber);
   std::filesystem::path target_;
@@ -46,7 +37,6 @@ class AtomicFile {
   Durability durability_;
   int fd_ = -1;
   bool committed_ = false;
-  bool direct_ = false;
 };
 
 // One-shot form of AtomicFile for content already in memory.

@@ -190,13 +190,9 @@ void readExtra(const JsonIn& in, Report& report) {
     if (const auto stride = symmetry->find("stride_s"))
       report.symmetry.strideS.si = readNumberMap(*stride);
     if (const auto ratio = symmetry->find("ratio")) {
-      const std::pair<const char*, analysis::SymmetryValues*> measures[] = {
-          {"stride_s", &report.symmetry.strideS},
-          {"stance_s", &report.symmetry.stanceS},
-          {"swing_s", &report.symmetry.swingS},
-          {"duty_factor", &report.symmetry.dutyFactor}};
-      for (const auto& [name, values] : measures) {
-        if (const auto map = ratio->find(name)) values->ratio = readNumberMap(*map);
+      for (const analysis::SymmetryMeasure& measure : analysis::kSymmetryMeasures) {
+        if (const auto map = ratio->find(measure.key))
+          (report.symmetry.*measure.values).ratio = readNumberMap(*map);
       }
     }
   }

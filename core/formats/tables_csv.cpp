@@ -256,18 +256,14 @@ std::string symmetryTable(const Report& report, const TableSource& source) {
   CsvText csv("left/right symmetry (Robinson index, % ; positive = right larger)", source,
               report.fps);
   csv.header({"measure", "pair", "symmetry_index_percent", "ratio_right_left"});
-  const std::pair<std::string_view, const analysis::SymmetryValues*> measures[] = {
-      {"stride_s", &report.symmetry.strideS},
-      {"stance_s", &report.symmetry.stanceS},
-      {"swing_s", &report.symmetry.swingS},
-      {"duty_factor", &report.symmetry.dutyFactor}};
-  for (const auto& [name, values] : measures) {
-    for (const auto& [pair, si] : values->si) {
-      csv.cell(name);
+  for (const analysis::SymmetryMeasure& measure : analysis::kSymmetryMeasures) {
+    const analysis::SymmetryValues& values = report.symmetry.*measure.values;
+    for (const auto& [pair, si] : values.si) {
+      csv.cell(std::string_view(measure.key));
       csv.cell(std::string_view(pair));
       csv.cell(si);
-      const auto ratio = values->ratio.find(pair);
-      csv.cell(ratio != values->ratio.end() ? ratio->second : analysis::kUndefined);
+      const auto ratio = values.ratio.find(pair);
+      csv.cell(ratio != values.ratio.end() ? ratio->second : analysis::kUndefined);
       csv.endRow();
     }
   }

@@ -128,36 +128,5 @@ TEST(Circular, CentredFormAndDistance) {
   EXPECT_NEAR(wrapPhase(-0.25), 0.75, 1e-12);
 }
 
-// Common practice, no source: the looked-up sums are the computed ones to the bit, on phases
-// that repeat (as frame ratios do), that collide in the table, and that are not finite.
-TEST(Circular, LookedUpUnitVectorsGiveTheSameBits) {
-  std::vector<double> phases;
-  for (int stride = 97; stride <= 103; ++stride)
-    for (int frames = -60; frames < 160; ++frames)
-      phases.push_back(static_cast<double>(frames) / stride);
-  for (int i = 0; i < 20000; ++i) phases.push_back(phases[(i * 7919) % phases.size()]);
-  phases.push_back(std::numeric_limits<double>::infinity());
-  CircularSums computed, lookedUp;
-  UnitVectors vectors;
-  for (double p : phases) {
-    computed.add(p);
-    lookedUp.add(p, vectors);
-  }
-  const CircularStats a = computed.stats(), b = lookedUp.stats();
-  EXPECT_EQ(a.n, b.n);
-  EXPECT_EQ(std::isnan(a.mean), std::isnan(b.mean));
-  EXPECT_EQ(std::isnan(a.r), std::isnan(b.r));
-  const std::vector<double> finite(phases.begin(), phases.end() - 1);
-  CircularSums finiteComputed, finiteLookedUp;
-  for (double p : finite) {
-    finiteComputed.add(p);
-    finiteLookedUp.add(p, vectors);
-  }
-  const CircularStats c = finiteComputed.stats(), d = finiteLookedUp.stats();
-  EXPECT_EQ(std::bit_cast<std::uint64_t>(c.mean), std::bit_cast<std::uint64_t>(d.mean));
-  EXPECT_EQ(std::bit_cast<std::uint64_t>(c.r), std::bit_cast<std::uint64_t>(d.r));
-  EXPECT_EQ(std::bit_cast<std::uint64_t>(c.rayleighP), std::bit_cast<std::uint64_t>(d.rayleighP));
-}
-
 }  // namespace
 }  // namespace stridemark::analysis

@@ -1,4 +1,4 @@
-#include "analysis/gait.h"
+#include "analysis/gait_rules.h"
 
 #include <gtest/gtest.h>
 

@@ -1,4 +1,5 @@
 #include "analysis/hildebrand.h"
+#include "analysis/gait_rules.h"
 
 #include <gtest/gtest.h>
 

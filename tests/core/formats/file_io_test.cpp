@@ -64,27 +64,5 @@ TEST(FileIo, RegenerableOutputIsReplacedWholeOrNotAtAll) {
   EXPECT_EQ(entries, 1u);
 }
 
-// Common practice, no source: open(2) says a direct write of memory or a size not aligned to
-// the block size may fail with EINVAL. Such a write must still land whole, through the page
-// cache, and the file stays buffered afterwards.
-TEST(FileIo, DirectWriteTheKernelRefusesIsWrittenBuffered) {
-  testing::TempFolder folder;
-  const auto path = folder / "report.json";
-  const std::string head(5, '{');
-  const std::string body(AtomicFile::kDirectAlignment + 123, 'x');  // odd size, unaligned memory
-  bool fellBack = false;
-  {
-    AtomicFile file(path, Durability::regenerable);
-    file.write(head);
-    if (!file.setDirect(true)) GTEST_SKIP() << "no direct I/O on the file system of " << path;
-    file.write(std::string_view(body).substr(1));
-    fellBack = !file.direct();
-    file.write("}");
-    file.commit();
-  }
-  EXPECT_EQ(testing::readText(path), head + body.substr(1) + "}");
-  if (!fellBack) GTEST_SKIP() << "this file system took an unaligned direct write as it was";
-}
-
 }  // namespace
 }  // namespace stridemark::formats

@@ -114,35 +114,8 @@ TEST(ReportJson, ReaderNamesPathOfABadValue) {
   EXPECT_THROW(parseReportJson(j.dump(), "r.json"), Error);
 }
 
-// The text a streamed scoring writes for `annotation`.
-std::string streamedText(const model::Annotation& annotation, const analysis::AnalysisOptions& o) {
-  std::string text;
-  JsonOut out([&text](std::string_view chunk) { text.append(chunk); });
-  model::Project project;
-  project.annotation = annotation;
-  scoreToReportJson(out, project, o);
-  return text;
-}
-
-TEST(ReportJson, StreamedReportIsByteForByteTheStoredOne) {
-  // Common practice, no source: `score --json` writes while it scores; the bytes must be the
-  // ones the stored report gives. Long trials span many chunks and several 1 MiB flushes; the
-  // empty one has no strides and no extra.strides elements.
-  model::Annotation empty;
-  empty.captureRate = Rational{250, 1};
-  const std::vector<model::Annotation> trials = {
-      testing::checkOneTrial(), empty, testing::variedTrain(model::LimbSet::quadruped(), 12000, 11),
-      testing::variedTrain(model::LimbSet::hexapod(), 9000, 12),
-      testing::variedTrain(model::LimbSet::biped(), 9000, 13)};
-  analysis::AnalysisOptions options;
-  options.strideSupport = false;  // as the verb does; the bytes do not depend on it
-  for (const model::Annotation& trial : trials) {
-    const std::string stored = reportJsonText(analysis::analyse(trial, options));
-    const std::string streamed = streamedText(trial, options);
-    EXPECT_EQ(streamed.size(), stored.size()) << trial.limbs.name();
-    EXPECT_TRUE(streamed == stored) << trial.limbs.name();
-    EXPECT_TRUE(nlohmann::json::accept(streamed));
-  }
+std::string reportOf(const model::Annotation& annotation) {
+  return reportJsonText(analysis::analyse(annotation));
 }
 
 // The events CSV text of `annotation`'s events in the order given (header and rows only).
@@ -154,11 +127,11 @@ std::string csvRows(const model::Annotation& annotation, const std::vector<model
   return text;
 }
 
-TEST(ReportJson, EventsLeftInFileOrderScoreAsNormalizedOnes) {
-  // Common practice, no source: `score --json` leaves a CSV's events in file order (no second
-  // copy); scoring must not depend on it, problems and their order included. Rows in frame
-  // order (the usual file) and shuffled, with a duplicate, a second touchdown inside a stance,
-  // a lift-off with no touchdown and a zero-length stance among them.
+TEST(ReportJson, RowOrderOfTheEventsFileDoesNotMatter) {
+  // Common practice, no source: scoring must not depend on the order of a CSV's rows, problems
+  // and their order included. Rows in frame order (the usual file) and shuffled, with a
+  // duplicate, a second touchdown inside a stance, a lift-off with no touchdown and a
+  // zero-length stance among them.
   model::Annotation trial = testing::variedTrain(model::LimbSet::quadruped(), 400, 21);
   const std::vector<model::Event> faults = {
       {trial.events[10].frame, 0, model::EventKind::touchdown},
@@ -173,35 +146,27 @@ TEST(ReportJson, EventsLeftInFileOrderScoreAsNormalizedOnes) {
                    [](const model::Event& a, const model::Event& b) { return a.frame < b.frame; });
   std::vector<model::Event> shuffled = byFrame;
   std::shuffle(shuffled.begin(), shuffled.end(), std::mt19937(7));
-  analysis::AnalysisOptions options;
-  options.strideSupport = false;
+  const std::string inFrameOrder =
+      reportOf(toAnnotation(parseEventsCsv(csvRows(trial, byFrame), "t.csv")));
   for (const auto& rows : {byFrame, shuffled}) {
-    const std::string text = csvRows(trial, rows);
-    const std::string normalized =
-        streamedText(toAnnotation(parseEventsCsv(text, "t.csv")), options);
-    const std::string asInFile =
-        streamedText(toAnnotationInFileOrder(parseEventsCsv(text, "t.csv")), options);
-    EXPECT_TRUE(asInFile == normalized);
-    const auto report = nlohmann::json::parse(asInFile);
+    const std::string text = reportOf(toAnnotation(parseEventsCsv(csvRows(trial, rows), "t.csv")));
+    EXPECT_TRUE(text == inFrameOrder);
+    const auto report = nlohmann::json::parse(text);
     EXPECT_GE(report["problems"].size(), 4U);
     EXPECT_GT(report["strides"].size(), 300U);
   }
 }
 
-TEST(ReportJson, StreamedFileIsWholeOrUntouched) {
-  // Common practice, no source: the streamed file is replaced atomically, like a stored one.
-  const auto folder = std::filesystem::temp_directory_path() / "stridemark_stream_test";
+TEST(ReportJson, ReportFileIsTheReportText) {
+  // Common practice, no source: the file holds exactly the text, long trials included.
+  const auto folder = std::filesystem::temp_directory_path() / "stridemark_report_file_test";
   std::filesystem::create_directories(folder);
   const auto path = folder / "report.json";
-  model::Project project;
-  project.annotation = testing::variedTrain(model::LimbSet::quadruped(), 5000, 5);
-  const analysis::Report rest = scoreToReportJsonFile(path, project, {});
-  EXPECT_TRUE(rest.strides.empty());
-  EXPECT_EQ(readWholeFile(path), reportJsonText(analysis::analyse(project.annotation)));
-  project.annotation.captureRate = Rational{0, 1};  // unusable: scoring refuses
-  EXPECT_THROW(scoreToReportJsonFile(path, project, {}), Error);
-  EXPECT_EQ(readWholeFile(path), reportJsonText(analysis::analyse(
-                                     testing::variedTrain(model::LimbSet::quadruped(), 5000, 5))));
+  const model::Annotation trial = testing::variedTrain(model::LimbSet::quadruped(), 5000, 5);
+  const analysis::Report report = analysis::analyse(trial);
+  writeReportJsonFile(path, report);
+  EXPECT_EQ(readWholeFile(path), reportJsonText(report));
+  EXPECT_TRUE(nlohmann::json::accept(readWholeFile(path)));
   std::filesystem::remove_all(folder);
 }
 

@@ -1,15 +1,48 @@
 #pragma once
-// Gait labels per stride (METHODS.md team decisions, §2.3, §3.3, §4): quadruped symmetrical and
-// asymmetrical gaits with the lead, biped walk/run/hop/skip, and nearest-template labels with
-// the ipsilateral wave for hexapods and multi-pair sets.
+// Every rule that gives a stride its gait label lives here (docs/methods.md §2.3, §3.3, §4):
+// quadruped symmetrical and asymmetrical gaits with the lead, biped walk/run/hop/skip, and
+// nearest-template labels with the ipsilateral wave for hexapods and multi-pair sets. The
+// measurements these rules read (phases, duty factors) are made in strides.cpp.
 #include <optional>
 #include <span>
 #include <string>
 #include <vector>
 
+#include "analysis/report.h"
 #include "model/limb_set.h"
 
 namespace stridemark::analysis {
+
+// Tolerances of the rules, in cycles of the stride.
+struct GaitTolerances {
+  double symmetry = 0.10;  // |contralateral phase - 0.5| allowed per girdle (§2.3)
+  double tau = 0.05;       // "simultaneous" in §3.3, already raised to the minimum frames
+  double wave = 0.05;      // ipsilateral wave direction threshold (§4.3)
+};
+
+// Schmitt et al. 2006 gate: both girdles' contralateral phases within `tolerance` of 0.5.
+bool isSymmetrical(double hindContralateral, double foreContralateral, double tolerance = 0.10);
+
+// The limbs a quadruped's rules name.
+struct QuadrupedLimbs {
+  int lf = 0, rf = 1, lh = 2, rh = 3;
+};
+
+// Labels a quadruped stride from its phases (s.phase), Hildebrand point (s.limbPhase,
+// s.hindDutyFactor) and the contralateral phase of each girdle: gait, band, quadrant, sequence,
+// symmetry, lead and the asymmetrical lags.
+void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs,
+                          std::optional<double> hindContralateral,
+                          std::optional<double> foreContralateral, const GaitTolerances& tol);
+
+// Labels a biped stride from the right foot's phase in the left foot's cycle and the mean duty
+// factor of the two.
+void labelBipedStride(StrideRecord& s, std::optional<double> rightRelLeft,
+                      std::optional<double> meanDutyFactor, const GaitTolerances& tol);
+
+// Labels a hexapod or multi-pair stride by the nearest coordination template, with the
+// ipsilateral wave; needs every limb's phase.
+void labelMultiPairStride(StrideRecord& s, const model::LimbSet& limbs, const GaitTolerances& tol);
 
 // Symmetrical quadruped stride: band trot -> trot, band pace -> pace, else walk (hind DF >= 0.5)
 // or amble.

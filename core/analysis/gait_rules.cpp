@@ -1,9 +1,10 @@
-#include "analysis/gait.h"
+#include "analysis/gait_rules.h"
 
 #include <cmath>
 #include <limits>
 
 #include "analysis/circular.h"
+#include "analysis/hildebrand.h"
 
 namespace stridemark::analysis {
 namespace {
@@ -32,7 +33,70 @@ double phaseOf(Side side, double left, double right) {
   return side == Side::left ? left : right;
 }
 
+// Phases from integer frames land exactly on tolerance borders: compare with this margin.
+constexpr double kEdgeTolerance = 1e-9;
+
 }  // namespace
+
+bool isSymmetrical(double hindContralateral, double foreContralateral, double tolerance) {
+  return circularDistance(hindContralateral, 0.5) <= tolerance + kEdgeTolerance &&
+         circularDistance(foreContralateral, 0.5) <= tolerance + kEdgeTolerance;
+}
+
+void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs,
+                          std::optional<double> hindContralateral,
+                          std::optional<double> foreContralateral, const GaitTolerances& tol) {
+  if (hindContralateral && foreContralateral &&
+      isSymmetrical(*hindContralateral, *foreContralateral, tol.symmetry)) {
+    s.symmetrical = true;
+    if (!s.limbPhase || !s.hindDutyFactor) return;
+    s.band = hildebrandBand(*s.limbPhase);
+    s.quadrant = cartmillQuadrant(*s.limbPhase);
+    s.sequence = footfallSequence(*s.limbPhase);
+    s.gait = symmetricalQuadrupedGait(*s.band, *s.hindDutyFactor);
+    return;
+  }
+  const auto at = [&](int limb) { return s.phase[static_cast<std::size_t>(limb)]; };
+  if (!at(limbs.lf) || !at(limbs.rf) || !at(limbs.lh) || !at(limbs.rh)) return;
+  const AsymmetricalGait g =
+      classifyAsymmetrical({*at(limbs.lf), *at(limbs.rf), *at(limbs.lh), *at(limbs.rh)}, tol.tau);
+  s.gait = g.gait;
+  s.lead = g.lead;
+  s.foreLag = g.foreLag;
+  s.hindLag = g.hindLag;
+  s.pairLag = g.pairLag;
+}
+
+void labelBipedStride(StrideRecord& s, std::optional<double> rightRelLeft,
+                      std::optional<double> meanDutyFactor, const GaitTolerances& tol) {
+  if (!rightRelLeft || !meanDutyFactor) return;
+  s.symmetrical = circularDistance(*rightRelLeft, 0.5) <= tol.symmetry + kEdgeTolerance;
+  s.gait = bipedGait(*rightRelLeft, *meanDutyFactor, tol.tau, tol.symmetry);
+  if (s.gait == "skip") s.lead = *rightRelLeft < 0.5 ? "right" : "left";
+}
+
+void labelMultiPairStride(StrideRecord& s, const model::LimbSet& limbs, const GaitTolerances& tol) {
+  std::vector<double> phases;
+  for (const auto& p : s.phase) {
+    if (!p) return;
+    phases.push_back(*p);
+  }
+  const TemplateMatch match = nearestTemplate(limbs, phases);
+  s.gait = match.gait;
+  s.templateDistance = match.distance;
+  s.symmetrical = true;
+  for (int seg = 0; seg < limbs.pairs(); ++seg) {
+    const auto l = limbs.at(Side::left, seg), r = limbs.at(Side::right, seg);
+    if (!l || !r) continue;
+    const double contralateral =
+        phases[static_cast<std::size_t>(*r)] - phases[static_cast<std::size_t>(*l)];
+    if (circularDistance(contralateral, 0.5) > tol.symmetry + kEdgeTolerance) s.symmetrical = false;
+  }
+  if (const auto wave = ipsilateralWave(limbs, phases, tol.wave)) {
+    s.ipsilateralLag = wave->lag;
+    s.waveDirection = wave->direction;
+  }
+}
 
 std::string symmetricalQuadrupedGait(const std::string& band, double hindDutyFactor) {
   if (band == "trot") return "trot";
@@ -71,7 +135,7 @@ AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& p, double tau) {
 std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double tau,
                       double symmetryTolerance) {
   if (circularDistance(rightPhaseRelLeft, 0.0) < tau) return "hop";
-  if (circularDistance(rightPhaseRelLeft, 0.5) <= symmetryTolerance + 1e-9)
+  if (circularDistance(rightPhaseRelLeft, 0.5) <= symmetryTolerance + kEdgeTolerance)
     return meanDutyFactor >= 0.5 ? "walk" : "run";
   return "skip";
 }
