@@ -106,18 +106,12 @@ void writeTables(const Context& c) {
 }
 
 void writeFigures(const Context& c, const std::vector<NamedFigure>& figures) {
-  const std::size_t total = figures.size() * c.options.figureFormats.size();
-  std::size_t done = 0;
-  for (const NamedFigure& f : figures) {
-    for (const FigureFormat format : c.options.figureFormats) {
-      checkCancel(c);
-      const fs::path relative =
-          fs::path("figures") / (f.stem + "." + std::string(extensionOf(format)));
-      writeFigure(f.paint, f.size, format, QString::fromStdString(c.out.stage(relative).string()),
-                  f.title);
-      report(c, "figures", static_cast<double>(++done) / static_cast<double>(total));
-    }
-  }
+  writeFigureFiles(figures, c.options.figureFormats, c.out, "figures",
+                   [&c](std::size_t done, std::size_t total) {
+                     checkCancel(c);
+                     if (done > 0)
+                       report(c, "figures", static_cast<double>(done) / static_cast<double>(total));
+                   });
 }
 
 // Why there can be no clip, or nothing when the video is there.
