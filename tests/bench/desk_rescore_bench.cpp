@@ -5,7 +5,9 @@
 // edit: from the edit to the report being in the desk (MainWindow has taken it and handed it to
 // every panel: the "finished" signal, after the window's own slot), and, for information, to
 // the end of the repaint that shows it. The reference, measured after each edit in the same run
-// on the same annotation: analysis::analyse alone. Prints JSON.
+// on the same annotation: analysis::analyse alone; and, to show where the time goes, the edit
+// command alone (it rewrites the autosave journal before returning) and that journal write.
+// Prints JSON.
 // Usage: desk_rescore_bench [edits] [strides]   (default: 100 edits, 2,500 strides)
 #include <QApplication>
 #include <QStandardPaths>
@@ -24,6 +26,7 @@
 #include "synth/gait.h"
 #include "synth/timeline.h"
 #include "ui/app/analysis_runner.h"
+#include "ui/document/journal.h"
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"
 
@@ -149,7 +152,7 @@ int main(int argc, char** argv) {
   const std::size_t strideCount = w.report()->strides.size();
 
   std::mt19937 rng(1);
-  std::vector<double> deskMs, paintedMs, commandMs, analyseMs;
+  std::vector<double> deskMs, paintedMs, commandMs, analyseMs, journalMs;
   int notPainted = 0;
   for (int i = 0; i < edits; ++i) {
     const auto& events = doc.annotation().events;
@@ -182,6 +185,11 @@ int main(int argc, char** argv) {
     const auto report = stridemark::analysis::analyse(doc.annotation(), options);
     analyseMs.push_back(msBetween(t, Clock::now()));
     if (report.strides.empty()) return 3;  // keeps the call from being optimised away
+    // What the edit command's autosave costs on the UI thread (part of edit_command_ms).
+    const auto j = Clock::now();
+    stridemark::ui::journal::write(dir.filePath(QStringLiteral("bench.smjournal")), doc.project(),
+                                   doc.projectPath());
+    journalMs.push_back(msBetween(j, Clock::now()));
   }
   app.afterRepaint = nullptr;
 
@@ -189,6 +197,7 @@ int main(int argc, char** argv) {
   const Stats shown = statsOf(paintedMs);
   const Stats command = statsOf(commandMs);
   const Stats alone = statsOf(analyseMs);
+  const Stats journal = statsOf(journalMs);
   // Source: issue 15 (re-score within one display frame: median <= 16 ms, p95 <= 33 ms).
   const bool medianOk = desk.median <= 16.0;
   const bool p95Ok = desk.p95 <= 33.0;
@@ -203,6 +212,8 @@ int main(int argc, char** argv) {
       shown.median, shown.p95, shown.max, notPainted);
   std::printf("  \"edit_command_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", command.median,
               command.p95);
+  std::printf("  \"journal_write_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", journal.median,
+              journal.p95);
   std::printf("  \"analyse_alone_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", alone.median,
               alone.p95);
   std::printf("  \"ratio_median_to_analyse\": %.3f,\n",
