@@ -25,6 +25,7 @@
 #include "analysis/analyse.h"
 #include "synth/gait.h"
 #include "synth/timeline.h"
+#include "tests/bench/repaint_probe.h"
 #include "ui/app/analysis_runner.h"
 #include "ui/document/journal.h"
 #include "ui/document/project_document.h"
@@ -87,18 +88,7 @@ Project longTrot(int strides) {
   return p;
 }
 
-// Reports the end of every repaint (all dirty widgets painted, the window flushed).
-class BenchApplication : public QApplication {
- public:
-  using QApplication::QApplication;
-  std::function<void()> afterRepaint;
-  bool notify(QObject* receiver, QEvent* event) override {
-    const bool repaint = event->type() == QEvent::UpdateRequest;
-    const bool result = QApplication::notify(receiver, event);
-    if (repaint && afterRepaint) afterRepaint();
-    return result;
-  }
-};
+using BenchApplication = stridemark::bench::RepaintProbeApplication;
 
 // Runs the event loop until `done` or `limitMs` passed; false on time-out.
 bool spinUntil(const std::function<bool()>& done, double limitMs) {
