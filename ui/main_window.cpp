@@ -36,7 +36,7 @@
 #include "ui/app/video_source.h"
 #include "ui/document/project_io.h"
 #include "ui/export/export_dialog.h"
-#include "ui/export/figure_output.h"
+#include "ui/export/figure_set.h"
 #include "ui/figures/analysis_figures.h"
 #include "ui/widgets/figure_view.h"
 #include "ui/widgets/footfall_lanes.h"
@@ -597,34 +597,9 @@ void MainWindow::exportFigures() {
 
 bool MainWindow::exportFiguresTo(const QString& dir) {
   if (!report_) return false;
-  // The same painters as the docks, written as SVG, PNG and PDF by ui/export.
-  const auto report = report_;
-  const auto annotation = doc_.annotation();
-  const auto style = figures::FigureStyle::print();
-  const std::vector<std::pair<QString, exports::FigurePaint>> figs{
-      {QStringLiteral("gait_map"),
-       [=](QPainter& p, const QRectF& r) { figures::paintGaitMap(p, r, *report, style); }},
-      {QStringLiteral("phase_dial"),
-       [=](QPainter& p, const QRectF& r) { figures::paintPhaseDial(p, r, *report, style); }},
-      {QStringLiteral("duty_per_stride"),
-       [=](QPainter& p, const QRectF& r) { figures::paintStrideDutyPlot(p, r, *report, style); }},
-      {QStringLiteral("footfall_diagram"), [=](QPainter& p, const QRectF& r) {
-         figures::FootfallOptions o;
-         o.viewLast = annotation.clip
-                          ? annotation.clip->last
-                          : (annotation.events.empty() ? 100 : annotation.events.back().frame);
-         figures::paintFootfallDiagram(p, r, annotation, o, style);
-       }}};
+  // The export's figure set: same painters, sizes and file names as `stridemark export`.
   return runGuarded(this, tr("Export figures"), [&] {
-    for (const auto& [stem, paint] : figs)
-      for (auto format :
-           {exports::FigureFormat::svg, exports::FigureFormat::png, exports::FigureFormat::pdf})
-        exports::writeFigure(
-            paint, exports::FigureSize{170, 110}, format,
-            dir + QLatin1Char('/') + stem + QLatin1Char('.') +
-                QString::fromLatin1(exports::extensionOf(format).data(),
-                                    static_cast<int>(exports::extensionOf(format).size())),
-            stem);
+    exports::writeFigureFolder(doc_.annotation(), *report_, dir.toStdString());
     statusBar()->showMessage(tr("Figures written to %1").arg(dir), 5000);
   });
 }

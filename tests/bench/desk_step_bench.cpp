@@ -24,6 +24,7 @@
 #include <thread>
 #include <vector>
 
+#include "tests/bench/repaint_probe.h"
 #include "ui/main_window.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
@@ -89,19 +90,7 @@ Series engineSteps(const std::string& clip, std::int64_t from, std::int64_t to, 
   return s;
 }
 
-// Reports the end of every repaint (all dirty widgets painted and the window flushed): Qt
-// repaints a window when it handles QEvent::UpdateRequest.
-class BenchApplication : public QApplication {
- public:
-  using QApplication::QApplication;
-  std::function<void()> afterRepaint;
-  bool notify(QObject* receiver, QEvent* event) override {
-    const bool repaint = event->type() == QEvent::UpdateRequest;
-    const bool result = QApplication::notify(receiver, event);
-    if (repaint && afterRepaint) afterRepaint();
-    return result;
-  }
-};
+using BenchApplication = stridemark::bench::RepaintProbeApplication;
 
 // Key press -> the Viewer painted that frame.
 Series deskSteps(stridemark::ui::MainWindow& w, std::int64_t from, std::int64_t to, Period period) {

@@ -22,10 +22,14 @@ def main(out_dir):
     problems = []
     with open(f"{out_dir}/report.json", encoding="utf-8") as f:
         report = json.load(f)
-    header = report["extra"]["export"]
-    for key in ("software", "project", "video_signature", "capture_rate_fps"):
-        if not header.get(key):
-            problems.append(f"report.json extra.export.{key} missing")
+    with open(f"{out_dir}/export.json", encoding="utf-8") as f:
+        provenance = json.load(f)
+    for key in ("software", "project", "video", "video_signature", "capture_rate_fps",
+                "exported_utc"):
+        if not provenance.get(key):
+            problems.append(f"export.json {key} missing")
+    if "export" in report.get("extra", {}):
+        problems.append("report.json carries extra.export: provenance belongs in export.json")
 
     tables = {}
     for name in ("events", "strides", "limbs", "phases", "support", "bouts", "symmetry"):
@@ -33,7 +37,7 @@ def main(out_dir):
         tables[name] = pd.read_csv(path, comment="#")
         with open(path, encoding="utf-8") as f:
             head = f.read(2000)
-        for needle in ("# stridemark", "# project:", "# video_signature:", "capture_rate_fps"):
+        for needle in ("# stridemark", "# input:", "capture_rate_fps"):
             if needle not in head:
                 problems.append(f"{name}.csv header block lacks '{needle}'")
 

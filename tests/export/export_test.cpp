@@ -9,17 +9,21 @@
 #include <atomic>
 #include <chrono>
 #include <filesystem>
+#include <nlohmann/json.hpp>
 #include <regex>
 #include <string>
+#include <vector>
 
 #include "analysis/analyse.h"
 #include "common/error.h"
 #include "export_fixture.h"
 #include "formats/project_file.h"
+#include "stridemark/version.h"
 #include "ui/export/clip_compositor.h"
 #include "ui/export/clip_overlay.h"
 #include "ui/export/export_dialog.h"
 #include "ui/export/export_job.h"
+#include "video/frame_index.h"
 
 namespace fs = std::filesystem;
 using namespace stridemark;
@@ -143,6 +147,62 @@ TEST_F(ExportTest, ClipReportTablesAndFiguresFromTheCommandLine) {
 
   for (const fs::path& f : filesUnder(out)) {
     EXPECT_EQ(f.filename().string().rfind(".part-", 0), std::string::npos) << "left over: " << f;
+  }
+}
+
+// The export's report.json and tables are the very bytes `stridemark score` writes for the same
+// project, named the same way; the provenance is in export.json. Source: the score verb's own
+// output, run as a separate process, compared byte for byte with cmp(1).
+TEST(ExportSamples, ReportAndTablesAreTheBytesScoreWrites) {
+  const std::vector<std::string> tables = {"events",  "strides", "limbs",   "phases",
+                                           "support", "bouts",   "symmetry"};
+  for (const char* sample : {"dog-rehab-treadmill", "lab-hexapod", "paddock-gallop"}) {
+    SCOPED_TRACE(sample);
+    const fs::path work = freshFolder(std::string("sample-") + sample);
+    const fs::path project = fs::path(kSourceDir) / "samples" / sample / "trial.stridemark";
+    const std::string quoted = " '" + project.string() + "'";
+    // --json alone and --json with --csv take different paths through the score verb.
+    ASSERT_EQ(run(stridemarkBinary() + " score" + quoted + " --json '" +
+                  (work / "alone.json").string() + "'")
+                  .exitCode,
+              0);
+    ASSERT_EQ(run(stridemarkBinary() + " score" + quoted + " --json '" +
+                  (work / "score.json").string() + "' --csv '" + (work / "score").string() + "'")
+                  .exitCode,
+              0);
+    const CommandResult exported = run(stridemarkBinary() + " export" + quoted + " --out '" +
+                                       (work / "export").string() + "' --figures none");
+    ASSERT_EQ(exported.exitCode, 0) << exported.out;
+
+    const auto same = [](const fs::path& a, const fs::path& b) {
+      return run("cmp '" + a.string() + "' '" + b.string() + "'");
+    };
+    for (const char* score : {"alone.json", "score.json"}) {
+      const CommandResult r = same(work / score, work / "export" / "report.json");
+      EXPECT_EQ(r.exitCode, 0) << score << ": " << r.out;
+    }
+    for (const std::string& table : tables) {
+      const std::string name = table + ".csv";
+      const CommandResult r = same(work / "score" / name, work / "export" / "tables" / name);
+      EXPECT_EQ(r.exitCode, 0) << name << ": " << r.out;
+    }
+
+    // Source: the project file (read by core/formats) and the sample's video on disk.
+    const model::Project p = formats::readProjectFile(project);
+    ASSERT_TRUE(p.video.has_value());
+    const auto provenance = nlohmann::json::parse(readText(work / "export" / "export.json"));
+    EXPECT_EQ(provenance.value("schema", ""), "stridemark.export.v1");
+    EXPECT_EQ(provenance.value("software", ""), std::string("stridemark ") + kVersion);
+    EXPECT_EQ(provenance.value("project", ""), project.string());
+    EXPECT_EQ(provenance.value("video", ""), p.video->path);
+    EXPECT_EQ(provenance.value("video_signature", ""), p.video->signature);
+    EXPECT_EQ(provenance.value("video_signature_on_disk", ""),
+              video::signatureText(
+                  video::computeSignature((project.parent_path() / p.video->path).string())));
+    EXPECT_EQ(provenance.value("capture_rate_fps", ""), toString(p.annotation.captureRate));
+    // Common practice, no source: ISO 8601 UTC, second resolution.
+    static const std::regex utc(R"(\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ)");
+    EXPECT_TRUE(std::regex_match(provenance.value("exported_utc", ""), utc)) << provenance.dump();
   }
 }
 

@@ -192,6 +192,22 @@ TEST(Document, JournalFollowsEveryEditAndGoesAwayOnSave) {
   EXPECT_EQ(saved.annotation.events, doc.annotation().events);
 }
 
+// A document destroyed with unsaved edits (the desk quitting without its close dialog) leaves
+// the journal for recovery; its undo stack clearing itself must not reach the journal code
+// after the document's path is gone. Common practice, no source.
+TEST(Document, DestroyedWithUnsavedEditsKeepsTheJournal) {
+  QTemporaryDir dir;
+  QString journalFile;
+  {
+    ProjectDocument doc;
+    doc.reset(quadrupedProject(), dir.filePath(QStringLiteral("trial.stridemark")));
+    doc.addEvent({5, LF, EventKind::touchdown});
+    journalFile = doc.journalPath();
+    ASSERT_TRUE(QFile::exists(journalFile));
+  }
+  EXPECT_TRUE(QFile::exists(journalFile));
+}
+
 TEST(Document, JournalRoundTripKeepsEverything) {
   model::Project p = quadrupedProject();
   p.annotation.limbs = model::LimbSet::hexapod();

@@ -1,14 +1,18 @@
 // Tagging by simulated key presses in the real main window, checked against ground truth that
 // our synthetic generator wrote independently of the UI (events CSV read by core/formats).
 #include <gtest/gtest.h>
+#include <QDir>
+#include <QFile>
 #include <QFileInfo>
 #include <QImage>
 #include <QLineEdit>
 #include <QTemporaryDir>
 #include <QTest>
+#include <atomic>
 
 #include "formats/events_csv.h"
 #include "tests/ui/test_support.h"
+#include "ui/export/export_job.h"
 #include "ui/main_window.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
@@ -65,14 +69,34 @@ TEST(Tagging, WholeTrotTrialByKeyPressesReproducesGroundTruth) {
   int trots = 0;
   for (const auto& s : w.report()->strides) trots += s.gait == "trot";
   EXPECT_GT(trots, 0);
-  // The same painters export: every figure as SVG, PNG and PDF.
+  // The export's figure set and file names: every figure as SVG, PNG and PDF.
   QTemporaryDir out;
   ASSERT_TRUE(w.exportFiguresTo(out.path()));
-  for (const char* stem : {"gait_map", "phase_dial", "duty_per_stride", "footfall_diagram"}) {
+  for (const char* stem : {"footfall_diagram", "support_strip", "gait_map", "phase_dial",
+                           "stride_duty_factor", "stride_stance_swing"}) {
     for (const char* ext : {"svg", "png", "pdf"})
       EXPECT_GT(QFileInfo(out.filePath(QStringLiteral("%1.%2").arg(stem, ext))).size(), 500)
           << stem << "." << ext;
     EXPECT_FALSE(QImage(out.filePath(QStringLiteral("%1.png").arg(stem))).isNull());
+  }
+  // ... drawn exactly as `stridemark export` draws them from the saved project.
+  const QString project = dir.filePath(QStringLiteral("tagged.stridemark"));
+  ASSERT_TRUE(w.saveProjectAs(project));
+  exports::ExportOptions options;
+  options.projectPath = project.toStdString();
+  options.outDir = dir.filePath(QStringLiteral("export")).toStdString();
+  options.figureFormats = {exports::FigureFormat::png};
+  const std::atomic<bool> cancel{false};
+  exports::runExport(options, {}, cancel);
+  const QFileInfoList pngs = QDir(out.path()).entryInfoList({QStringLiteral("*.png")});
+  EXPECT_EQ(pngs.size(), 6);
+  for (const QFileInfo& png : pngs) {
+    QFile desk(png.filePath());
+    QFile exported(QString::fromStdString((options.outDir / "figures").string()) +
+                   QLatin1Char('/') + png.fileName());
+    ASSERT_TRUE(desk.open(QIODevice::ReadOnly) && exported.open(QIODevice::ReadOnly))
+        << png.fileName().toStdString();
+    EXPECT_EQ(desk.readAll(), exported.readAll()) << png.fileName().toStdString();
   }
   // The Viewer painted the frame the playhead is on (decoded off the UI thread).
   EXPECT_TRUE(test::waitUntil([&] { return w.viewer()->shownFrame() == w.playhead(); }));

@@ -28,7 +28,12 @@ ProjectDocument::ProjectDocument(QObject* parent) : QObject(parent) {
   });
 }
 
-ProjectDocument::~ProjectDocument() = default;
+ProjectDocument::~ProjectDocument() {
+  // The undo stack clears itself when destroyed, after projectPath_ (declared later) is gone:
+  // its indexChanged must not reach the journal handler then. Saving and discarding remove the
+  // journal; a document destroyed with unsaved edits keeps it for recovery.
+  disconnect(&undo_, nullptr, this, nullptr);
+}
 
 QString ProjectDocument::videoPath() const {
   if (!project_.video) return {};

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#include <optional>
 
 #include "analysis/analyse.h"
 #include "common/error.h"
@@ -56,40 +57,40 @@ void writeText(const fs::path& path, const std::string& text) {
   }
 }
 
-std::string videoSignature(const model::Project& p) {
-  return p.video && !p.video->signature.empty() ? p.video->signature : "none";
+using Json = nlohmann::ordered_json;
+
+// The signature of the video file on disk now (null when it is not there), so a reader can tell
+// whether the linked video is still the one that was scored.
+Json signatureOnDisk(const std::optional<fs::path>& video) {
+  std::error_code ec;
+  if (!video || !fs::is_regular_file(*video, ec)) return nullptr;
+  return video::signatureText(video::computeSignature(video->string()));
 }
 
-// The export's header block, added after the table's own first '#' line (software version).
-std::string withHeader(const std::string& table, const Context& c) {
-  std::string header = "# project: " + c.projectName + "\n";
-  header += "# video: " + (c.project.video ? c.project.video->path : std::string("none")) + "\n";
-  header += "# video_signature: " + videoSignature(c.project) + "\n";
-  header += "# exported_utc: " + c.exportedAt + "\n";
-  const std::size_t firstLineEnd = table.find('\n');
-  if (firstLineEnd == std::string::npos) return header + table;
-  return table.substr(0, firstLineEnd + 1) + header + table.substr(firstLineEnd + 1);
-}
-
-// The score verb's report JSON, with the export header under its "extra" key.
-std::string reportJsonWithHeader(const Context& c) {
-  nlohmann::ordered_json doc = nlohmann::ordered_json::parse(formats::reportJsonText(c.report));
-  nlohmann::ordered_json header;
-  header["software"] = std::string("stridemark ") + kVersion;
-  header["project"] = c.projectName;
-  header["video"] = c.project.video ? c.project.video->path : std::string();
-  header["video_signature"] = videoSignature(c.project);
-  header["capture_rate_fps"] = toString(c.report.fps);
-  header["exported_utc"] = c.exportedAt;
-  doc["extra"]["export"] = header;
+// The export's provenance. report.json and the tables stay the bytes `stridemark score` writes
+// for the same project; what only an export knows goes here.
+std::string exportJsonText(const Context& c, const std::optional<fs::path>& video) {
+  const std::optional<model::VideoLink>& link = c.project.video;
+  Json doc;
+  doc["schema"] = "stridemark.export.v1";
+  doc["software"] = std::string("stridemark ") + kVersion;
+  doc["project"] = c.options.projectPath.string();
+  doc["video"] = link ? Json(link->path) : Json(nullptr);
+  doc["video_signature"] = link && !link->signature.empty() ? Json(link->signature) : Json(nullptr);
+  doc["video_signature_on_disk"] = signatureOnDisk(video);
+  doc["capture_rate_fps"] = toString(c.report.fps);
+  doc["exported_utc"] = c.exportedAt;
   return doc.dump(2) + "\n";
 }
 
 void writeTables(const Context& c) {
   report(c, "tables", 0);
-  const formats::TableSource source{c.projectName};
+  // The bytes `stridemark score PROJECT --csv DIR --json OUT` writes for the same project
+  // named the same way: the tables' "# input:" line is the project path as given.
+  const formats::TableSource source{c.options.projectPath.string()};
   const model::Annotation& a = c.project.annotation;
   const analysis::Report& r = c.report;
+  // Same names and order as formats::writeTables, which writes to final names only.
   const std::vector<std::pair<std::string, std::string>> tables = {
       {"events.csv", formats::eventsTable(a, source)},
       {"strides.csv", formats::stridesTable(r, source)},
@@ -99,26 +100,18 @@ void writeTables(const Context& c) {
       {"bouts.csv", formats::boutsTable(r, source)},
       {"symmetry.csv", formats::symmetryTable(r, source)},
   };
-  for (const auto& [name, text] : tables) {
-    writeText(c.out.stage(fs::path("tables") / name), withHeader(text, c));
-  }
-  writeText(c.out.stage("report.json"), reportJsonWithHeader(c));
+  for (const auto& [name, text] : tables) writeText(c.out.stage(fs::path("tables") / name), text);
+  writeText(c.out.stage("report.json"), formats::reportJsonText(r));
   report(c, "tables", 1);
 }
 
 void writeFigures(const Context& c, const std::vector<NamedFigure>& figures) {
-  const std::size_t total = figures.size() * c.options.figureFormats.size();
-  std::size_t done = 0;
-  for (const NamedFigure& f : figures) {
-    for (const FigureFormat format : c.options.figureFormats) {
-      checkCancel(c);
-      const fs::path relative =
-          fs::path("figures") / (f.stem + "." + std::string(extensionOf(format)));
-      writeFigure(f.paint, f.size, format, QString::fromStdString(c.out.stage(relative).string()),
-                  f.title);
-      report(c, "figures", static_cast<double>(++done) / static_cast<double>(total));
-    }
-  }
+  writeFigureFiles(figures, c.options.figureFormats, c.out, "figures",
+                   [&c](std::size_t done, std::size_t total) {
+                     checkCancel(c);
+                     if (done > 0)
+                       report(c, "figures", static_cast<double>(done) / static_cast<double>(total));
+                   });
 }
 
 // Why there can be no clip, or nothing when the video is there.
@@ -178,13 +171,6 @@ ClipResult writeClip(const Context& c, const fs::path& video) {
       c.cancel);
 }
 
-analysis::Report analyseProject(const model::Project& project) {
-  analysis::AnalysisOptions options;
-  options.speedMs = project.trial.speedMs;
-  options.legLengthM = project.trial.legLengthM;
-  return analysis::analyse(project.annotation, options);
-}
-
 }  // namespace
 
 fs::path resolveVideoPath(const fs::path& projectPath, const std::string& linkedPath) {
@@ -196,7 +182,8 @@ fs::path resolveVideoPath(const fs::path& projectPath, const std::string& linked
 ExportOutcome runExport(const ExportOptions& options, const ExportProgress& progress,
                         const std::atomic<bool>& cancel) {
   const model::Project project = formats::readProjectFile(options.projectPath);
-  const analysis::Report analysed = analyseProject(project);
+  // The score verb's analysis: the trial card gives speed and leg length.
+  const analysis::Report analysed = analysis::analyse(project);
   if (options.from && options.to && *options.from > *options.to) {
     throw Error(ErrorCategory::format, "--from " + std::to_string(*options.from) +
                                            " is after --to " + std::to_string(*options.to) +
@@ -211,8 +198,12 @@ ExportOutcome runExport(const ExportOptions& options, const ExportProgress& prog
                   out,
                   progress,
                   cancel};
+  const std::optional<fs::path> video =
+      project.video ? std::optional(resolveVideoPath(options.projectPath, project.video->path))
+                    : std::nullopt;
   ExportOutcome outcome;
   writeTables(c);
+  writeText(out.stage("export.json"), exportJsonText(c, video));
   const std::vector<NamedFigure> figures = exportFigures(project.annotation, analysed);
   writeFigures(c, figures);
   if (options.report) {
@@ -225,10 +216,8 @@ ExportOutcome runExport(const ExportOptions& options, const ExportProgress& prog
   }
   if (options.clip) {
     checkCancel(c);
-    const fs::path video =
-        project.video ? resolveVideoPath(options.projectPath, project.video->path) : fs::path();
-    outcome.clipProblem = clipObstacle(c, video);
-    if (!outcome.clipProblem) outcome.clip = writeClip(c, video);
+    outcome.clipProblem = clipObstacle(c, video.value_or(fs::path()));
+    if (!outcome.clipProblem) outcome.clip = writeClip(c, *video);
   }
   checkCancel(c);
   outcome.written = out.commit();

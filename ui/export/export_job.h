@@ -1,9 +1,10 @@
 #pragma once
-// One export of a project: tables (tidy CSVs + report JSON, via core/formats), figures (SVG,
-// PNG at 300 dpi, PDF), the PDF report and the marked clip. Used by `stridemark export` and by
-// the Export dialog. Everything is staged under temporary names and renamed into place only
-// when the whole export succeeded; a failure or a cancel leaves no file behind.
-// Needs a QGuiApplication (the offscreen platform is enough) for fonts.
+// One export of a project: tables (tidy CSVs + report JSON, the very bytes `stridemark score`
+// writes), export.json (provenance: software, project, video and its signature, capture rate,
+// export time), figures (SVG, PNG at 300 dpi, PDF), the PDF report and the marked clip. Used by
+// `stridemark export` and by the Export dialog. Everything is staged under temporary names and
+// renamed into place only when the whole export succeeded; a failure or a cancel leaves no file
+// behind. Needs a QGuiApplication (the offscreen platform is enough) for fonts.
 #include <atomic>
 #include <cstdint>
 #include <filesystem>

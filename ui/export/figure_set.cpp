@@ -105,3 +105,35 @@ std::vector<NamedFigure> exportFigures(const model::Annotation& annotation,
 }
 
 }  // namespace stridemark::ui::exports
+
+namespace stridemark::ui::exports {
+
+std::string figureFileName(const NamedFigure& figure, FigureFormat format) {
+  return figure.stem + "." + std::string(extensionOf(format));
+}
+
+void writeFigureFiles(const std::vector<NamedFigure>& figures,
+                      const std::vector<FigureFormat>& formats, StagedOutput& out,
+                      const std::filesystem::path& folder, const FigureProgress& progress) {
+  const std::size_t total = figures.size() * formats.size();
+  std::size_t done = 0;
+  for (const NamedFigure& f : figures) {
+    for (const FigureFormat format : formats) {
+      if (progress) progress(done, total);
+      const std::filesystem::path staged = out.stage(folder / figureFileName(f, format));
+      writeFigure(f.paint, f.size, format, QString::fromStdString(staged.string()), f.title);
+      ++done;
+    }
+  }
+  if (progress) progress(done, total);
+}
+
+std::vector<std::filesystem::path> writeFigureFolder(const model::Annotation& annotation,
+                                                     const analysis::Report& report,
+                                                     const std::filesystem::path& folder) {
+  StagedOutput out(folder);
+  writeFigureFiles(exportFigures(annotation, report), kAllFigureFormats, out, {});
+  return out.commit();
+}
+
+}  // namespace stridemark::ui::exports

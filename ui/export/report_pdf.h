@@ -7,18 +7,9 @@
 
 #include "analysis/report.h"
 #include "model/annotation.h"
-#include "ui/export/figure_output.h"
+#include "ui/export/figure_set.h"
 
 namespace stridemark::ui::exports {
-
-// A figure as the export knows it: a file stem, a title, and the painter that draws it.
-struct NamedFigure {
-  std::string stem;  // "footfall_diagram" -> figures/footfall_diagram.svg
-  QString title;
-  QString caption;
-  FigurePaint paint;
-  FigureSize size;  // size when written as its own file
-};
 
 struct ReportSource {
   const model::Project* project = nullptr;
