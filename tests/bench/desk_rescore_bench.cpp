@@ -142,7 +142,7 @@ int main(int argc, char** argv) {
   const std::size_t strideCount = w.report()->strides.size();
 
   std::mt19937 rng(1);
-  std::vector<double> deskMs, paintedMs, commandMs, analyseMs, journalMs;
+  std::vector<double> deskMs, paintedMs, commandMs, analyseMs, journalMs, encodeMs;
   int notPainted = 0;
   for (int i = 0; i < edits; ++i) {
     const auto& events = doc.annotation().events;
@@ -180,6 +180,10 @@ int main(int argc, char** argv) {
     stridemark::ui::journal::write(dir.filePath(QStringLiteral("bench.smjournal")), doc.project(),
                                    doc.projectPath());
     journalMs.push_back(msBetween(j, Clock::now()));
+    const auto e = Clock::now();
+    const QByteArray encoded = stridemark::ui::journal::encode(doc.project(), doc.projectPath());
+    encodeMs.push_back(msBetween(e, Clock::now()));
+    if (encoded.isEmpty()) return 3;
   }
   app.afterRepaint = nullptr;
 
@@ -188,6 +192,7 @@ int main(int argc, char** argv) {
   const Stats command = statsOf(commandMs);
   const Stats alone = statsOf(analyseMs);
   const Stats journal = statsOf(journalMs);
+  const Stats encode = statsOf(encodeMs);
   // Source: issue 15 (re-score within one display frame: median <= 16 ms, p95 <= 33 ms).
   const bool medianOk = desk.median <= 16.0;
   const bool p95Ok = desk.p95 <= 33.0;
@@ -204,6 +209,8 @@ int main(int argc, char** argv) {
               command.p95);
   std::printf("  \"journal_write_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", journal.median,
               journal.p95);
+  std::printf("  \"journal_encode_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", encode.median,
+              encode.p95);
   std::printf("  \"analyse_alone_ms\": {\"median\": %.3f, \"p95\": %.3f},\n", alone.median,
               alone.p95);
   std::printf("  \"ratio_median_to_analyse\": %.3f,\n",
