@@ -1,6 +1,6 @@
 #pragma once
 // Scoring entry point: turns tags into every gait figure of the report (DESIGN §5-§6,
-// METHODS.md). Pure: same annotation and options, same report. Never throws for annotation
+// docs/methods.md). Pure: same annotation and options, same report. Never throws for annotation
 // problems (they go to Report::problems); throws stridemark::Error(analysis) only for
 // unusable options (e.g. a reference limb outside the limb set).
 #include <optional>
@@ -12,7 +12,7 @@
 namespace stridemark::analysis {
 
 struct AnalysisOptions {
-  // METHODS.md team decisions; configurable.
+  // docs/methods.md team decisions; configurable.
   double symmetryTolerance = 0.10;   // |contralateral phase - 0.5| allowed per girdle
   double asymmetricTau = 0.05;       // share of stride for "simultaneous" in §3.3
   int minTauFrames = 2;              // ... but never less than this many frames

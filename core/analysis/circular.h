@@ -1,5 +1,5 @@
 #pragma once
-// Circular statistics for phases (METHODS.md §8). Phases are in cycles; angles = 2 pi phase.
+// Circular statistics for phases (docs/methods.md §8). Phases are in cycles; angles = 2 pi phase.
 // When the mean resultant length is 0 the mean direction does not exist: `defined` is false and
 // the mean is NaN, so callers can say "undefined" instead of printing a silent NaN.
 #include <span>
@@ -64,7 +64,7 @@ double rayleighP(int n, double rBar);
 
 // Phase wrapped into [0, 1).
 double wrapPhase(double phase);
-// Centred form: phase if phase <= 0.5 else phase - 1, range (-0.5, 0.5] (METHODS §1.2).
+// Centred form: phase if phase <= 0.5 else phase - 1, range (-0.5, 0.5] (docs/methods.md §1.2).
 double centredPhase(double phase);
 // Shortest distance between two phases on the circle, in [0, 0.5].
 double circularDistance(double a, double b);

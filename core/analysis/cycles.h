@@ -1,6 +1,6 @@
 #pragma once
 // Per-limb cycles (touchdown -> next touchdown) and the checks on a limb's tag sequence
-// (METHODS.md §1.1, §1.3). Problems never abort: each is reported with frame, limb and what to
+// (docs/methods.md §1.1, §1.3). Problems never abort: each is reported with frame, limb and what to
 // do, and the frames it touches are listed so strides over them can be left out.
 #include <cstdint>
 #include <span>

@@ -1,5 +1,5 @@
 #pragma once
-// Support patterns (METHODS.md §5): which limbs are in stance, frame by frame, summarised as
+// Support patterns (docs/methods.md §5): which limbs are in stance, frame by frame, summarised as
 // the share of time with k limbs down and per named combination. Time where any limb's state is
 // unknown (before its first tag, after its last, hidden, or flagged) is not scored.
 //
