@@ -1,5 +1,5 @@
 #pragma once
-// Observer agreement (METHODS.md §9): intraclass correlations of an n targets x k raters table
+// Observer agreement (docs/methods.md §9): intraclass correlations of an n targets x k raters table
 // (Shrout & Fleiss 1979 forms) and Bland-Altman limits of agreement.
 #include <span>
 #include <vector>

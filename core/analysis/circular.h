@@ -33,7 +33,7 @@ double rayleighP(int n, double rBar);
 
 // Phase wrapped into [0, 1).
 double wrapPhase(double phase);
-// Centred form: phase if phase <= 0.5 else phase - 1, range (-0.5, 0.5] (METHODS §1.2).
+// Centred form: phase if phase <= 0.5 else phase - 1, range (-0.5, 0.5] (docs/methods.md §1.2).
 double centredPhase(double phase);
 // Shortest distance between two phases on the circle, in [0, 0.5].
 double circularDistance(double a, double b);

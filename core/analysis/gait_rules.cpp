@@ -142,7 +142,7 @@ std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double ta
 
 std::vector<GaitTemplate> coordinationTemplates(const model::LimbSet& limbs) {
   // Each template: left leg of segment s (0 = front) lands `lag` after the leg behind it, the
-  // right leg of the segment `contra` after the left one (METHODS §4.2, generalised to N pairs).
+  // right leg of the segment `contra` after the left one (docs/methods.md §4.2, for N pairs).
   const int pairs = limbs.pairs();
   struct Form {
     const char* gait;

@@ -56,10 +56,10 @@ struct QuadrupedPhases {
 struct AsymmetricalGait {
   std::string gait;                 // pronk, bound, half-bound, canter, transverse/rotary gallop
   std::optional<std::string> lead;  // leading forelimb "left"/"right" (second fore down)
-  double foreLag = 0, hindLag = 0, pairLag = 0;  // FL, HL, PL of METHODS §3.2, cycles
+  double foreLag = 0, hindLag = 0, pairLag = 0;  // FL, HL, PL of docs/methods.md §3.2, cycles
 };
 
-// The operational classifier of METHODS §3.3; `tau` in cycles of the stride.
+// The operational classifier of docs/methods.md §3.3; `tau` in cycles of the stride.
 AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& phases, double tau);
 
 // Biped: hop when the feet land together (within tau), walk/run when the right foot lands half a
@@ -85,8 +85,8 @@ struct IpsilateralWave {
   double lag = 0;                        // anterior minus posterior neighbour, cycles [0, 1)
   std::optional<std::string> direction;  // "direct" (back to front), "retrograde"
 };
-// Circular mean of the lag between neighbouring legs of a side (METHODS §4.3). Null when the
-// set has fewer than two segments or the lags cancel out. The direction is left out when the
+// Circular mean of the lag between neighbouring legs of a side (docs/methods.md §4.3). Null when
+// the set has fewer than two segments or the lags cancel out. The direction is left out when the
 // lag summed over the body is within `tolerance` of 0, or the lag is within it of half a cycle.
 std::optional<IpsilateralWave> ipsilateralWave(const model::LimbSet& limbs,
                                                std::span<const double> phases,

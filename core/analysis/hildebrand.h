@@ -1,5 +1,5 @@
 #pragma once
-// Hildebrand's symmetrical-gait measures (METHODS.md §2): the limb-phase band (scheme B, eight
+// Hildebrand's symmetrical-gait measures (docs/methods.md §2): the limb-phase band (scheme B, eight
 // 12.5 %-wide bands whose boundaries live in ONE table), the Cartmill et al. 2002 quadrant
 // (scheme A) and the footfall sequence. The symmetry gate is a gait rule (gait_rules.h).
 #include <optional>

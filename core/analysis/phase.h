@@ -1,5 +1,5 @@
 #pragma once
-// Relative phase of a limb to a reference stride (METHODS.md §1.2): the first touchdown of the
+// Relative phase of a limb to a reference stride (docs/methods.md §1.2): the first touchdown of the
 // limb in [start, end) as a fraction of the stride. Null when the window holds no touchdown;
 // null and flagged when it holds more than one (stride mismatch, stumble).
 #include <cstdint>

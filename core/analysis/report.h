@@ -76,7 +76,7 @@ struct StrideRecord {
   std::optional<std::string> waveDirection;  // "direct" / "retrograde"
   // Added by analysis: touchdowns of each limb inside the window (phase is null unless 1; more
   // than 1 flags a stride mismatch or stumble), the template gait's mean circular distance, and
-  // the asymmetrical lags of METHODS §3.2 (fore, hind, pair; cycles).
+  // the asymmetrical lags of docs/methods.md §3.2 (fore, hind, pair; cycles).
   std::vector<int> touchdownCount;
   std::optional<double> templateDistance;
   std::optional<double> foreLag, hindLag, pairLag;

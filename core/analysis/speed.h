@@ -1,5 +1,5 @@
 #pragma once
-// Speed-normalised measures (METHODS.md §6) and timing helpers (§1.3, §7.3).
+// Speed-normalised measures (docs/methods.md §6) and timing helpers (§1.3, §7.3).
 #include <cstdint>
 
 #include "common/rational.h"
@@ -30,7 +30,7 @@ struct AdvancedPlacement {
   double ms = 0;       // fore touchdown - hind touchdown (positive = hind first)
   double percent = 0;  // of the stride
 };
-// Diagonal advanced placement (METHODS §7.3) from frames at the capture rate.
+// Diagonal advanced placement (docs/methods.md §7.3) from frames at the capture rate.
 AdvancedPlacement advancedPlacement(std::int64_t hindTouchdown, std::int64_t foreTouchdown,
                                     std::int64_t strideFrames, Rational fps);
 

@@ -1,5 +1,5 @@
 #pragma once
-// Left/right symmetry measures (METHODS.md §7.1) and the left/right pairs of each limb set.
+// Left/right symmetry measures (docs/methods.md §7.1) and the left/right pairs of each limb set.
 #include <string>
 #include <vector>
 

@@ -22,7 +22,7 @@ struct PresetRow {
 };
 
 // Quadruped offsets are touchdown phases relative to LH (Hildebrand's reference).
-// Source: METHODS.md §2.5 (walk 0.25), §2.2 (trot 0.5, pace 0), §3.1 footfall orders
+// Source: docs/methods.md §2.5 (walk 0.25), §2.2 (trot 0.5, pace 0), §3.1 footfall orders
 // (transverse LH RH LF RF; rotary with opposite orders in the two pairs; canter: trailing hind,
 // diagonal pair together, lead fore), §3.3 classifier rules for half-bound / bound / pronk.
 const std::vector<PresetRow>& quadrupedRows() {
@@ -46,7 +46,7 @@ const std::vector<PresetRow>& quadrupedRows() {
   return rows;
 }
 
-// Source: METHODS.md §4.1 (walk DF > 0.5, run < 0.5, hop in phase, skip asymmetrical).
+// Source: docs/methods.md §4.1 (walk DF > 0.5, run < 0.5, hop in phase, skip asymmetrical).
 const std::vector<PresetRow>& bipedRows() {
   static const std::vector<PresetRow> rows = {
       {"walk", "walk", 0.60, 0.9, 0.7, {{"R", 0.5}}},
@@ -57,7 +57,7 @@ const std::vector<PresetRow>& bipedRows() {
   return rows;
 }
 
-// Source: METHODS.md §4.2 offsets (L3 = 0 based), shifted so that L1 (the reference) is 0.
+// Source: docs/methods.md §4.2 offsets (L3 = 0 based), shifted so that L1 (the reference) is 0.
 const std::vector<PresetRow>& hexapodRows() {
   static const std::vector<PresetRow> rows = {
       {"tripod",
@@ -101,7 +101,7 @@ GaitPattern fromRow(const LimbSet& limbs, const PresetRow& row) {
 
 // Multi-pair metachronal wave generalising the hexapod wave: each segment touches down 1/(2N)
 // of a cycle after the one behind it (a direct wave, back to front), the right side half a
-// cycle after the left. Source: METHODS.md §4.2 wave offsets (N = 3) and §4.3 wave direction.
+// cycle after the left. Source: docs/methods.md §4.2 wave offsets (N = 3) and §4.3 wave direction.
 GaitPattern metachronalWave(const LimbSet& limbs) {
   const int n = limbs.pairs();
   GaitPattern p;

@@ -1,7 +1,7 @@
 #pragma once
 // Gait patterns for the generator: per-limb duty factor and touchdown phase (relative to the
 // limb set's reference limb, in cycles), a stride frequency and how far each foot travels in
-// stance. Presets follow METHODS.md (§2.5, §3.1, §3.3, §4.1, §4.2).
+// stance. Presets follow docs/methods.md (§2.5, §3.1, §3.3, §4.1, §4.2).
 #include <optional>
 #include <string>
 #include <string_view>

@@ -128,7 +128,7 @@ Json scoreJson(const std::vector<std::string>& args) {
 }
 
 TEST(ScoreCli, QuadrupedTrot) {
-  // Source: METHODS.md check 14 — all DF 0.40, phase 0.50 -> trot (Schmitt et al. 2006 trot).
+  // Source: docs/methods.md check 14 — all DF 0.40, phase 0.50 -> trot (Schmitt et al. 2006 trot).
   TempFolder folder;
   writeText(folder / "trot.csv",
             steadyGaitCsv({{"LH", 0.0}, {"RF", 0.0}, {"RH", 0.5}, {"LF", 0.5}}, 100, 0.4, 6));
@@ -141,7 +141,7 @@ TEST(ScoreCli, QuadrupedTrot) {
 }
 
 TEST(ScoreCli, BipedWalk) {
-  // Source: METHODS.md team decision for bipeds — duty factor >= 0.5 -> walk.
+  // Source: docs/methods.md team decision for bipeds — duty factor >= 0.5 -> walk.
   TempFolder folder;
   writeText(folder / "biped.csv", steadyGaitCsv({{"L", 0.0}, {"R", 0.5}}, 80, 0.6, 5));
   const Json report = scoreJson({folder / "biped.csv", "--fps", "100", "--limbs", "biped"});
@@ -151,7 +151,7 @@ TEST(ScoreCli, BipedWalk) {
 }
 
 TEST(ScoreCli, HexapodTripod) {
-  // Source: METHODS.md check 20 — L1=R2=L3 at 0, R1=L2=R3 at 0.5, DF 0.5 -> tripod.
+  // Source: docs/methods.md check 20 — L1=R2=L3 at 0, R1=L2=R3 at 0.5, DF 0.5 -> tripod.
   TempFolder folder;
   writeText(
       folder / "hexapod.csv",
@@ -178,7 +178,7 @@ TEST(ScoreCli, MultiPairSet) {
 }
 
 TEST(ScoreCli, HandComputableTrial) {
-  // Source: METHODS.md checks 1 and 2 (definitions §1.1; Hildebrand limb phase per Usherwood &
+  // Source: docs/methods.md checks 1 and 2 (definitions §1.1; Hildebrand limb phase per Usherwood &
   // Self Davies 2017): LH TD 100, LO 160, TD 225 at 250 fps -> stride 0.500 s, stance 0.240 s,
   // duty factor 0.480; LF TD at 131 -> phase 0.248.
   TempFolder folder;
@@ -221,7 +221,7 @@ TEST(ScoreCli, ClipStartingAndEndingMidStanceIsNormal) {
 }
 
 TEST(ScoreCli, SpeedAndLegLengthGiveFroude) {
-  // Source: METHODS.md check 21 — v = 3.0 m/s, h = 0.90 m -> Fr = v^2 / (g h) = 1.01937.
+  // Source: docs/methods.md check 21 — v = 3.0 m/s, h = 0.90 m -> Fr = v^2 / (g h) = 1.01937.
   TempFolder folder;
   writeText(folder / "trot.csv",
             steadyGaitCsv({{"LH", 0.0}, {"RF", 0.0}, {"RH", 0.5}, {"LF", 0.5}}, 100, 0.4, 3));

@@ -63,7 +63,7 @@ TEST(Tagging, WholeTrotTrialByKeyPressesReproducesGroundTruth) {
   EXPECT_EQ(w.document()->annotation().events, expected);
 
   // The figures followed: the analysis of the tagged trial labels its strides as trot.
-  // Source: Hildebrand 1965 (METHODS.md §2.2) - limb phase near 50 % is a trot.
+  // Source: Hildebrand 1965 (docs/methods.md §2.2) - limb phase near 50 % is a trot.
   w.analysisRunner()->waitIdle();
   ASSERT_TRUE(test::waitUntil([&] { return w.report() && !w.report()->strides.empty(); }));
   int trots = 0;

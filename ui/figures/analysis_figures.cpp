@@ -16,7 +16,7 @@ struct Band {
   const char* shortName;
 };
 
-// METHODS.md §2.2 scheme B: eight 12.5 %-wide bands; pace wraps around 0/1.
+// docs/methods.md §2.2 scheme B: eight 12.5 %-wide bands; pace wraps around 0/1.
 constexpr std::array<Band, 9> kBands{{{0.0, 0.0625, "P"},
                                       {0.0625, 0.1875, "LS-LC"},
                                       {0.1875, 0.3125, "LS-SF"},

@@ -10,7 +10,7 @@
 namespace stridemark::ui::figures {
 
 // x = limb phase (0-1), y = hind duty factor (0-1). Shades the eight limb-phase bands
-// (METHODS.md §2.2, scheme B), marks duty factor 0.5 (walking/running) and plots each stride.
+// (docs/methods.md §2.2, scheme B), marks duty factor 0.5 (walking/running) and plots each stride.
 void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& report,
                   const FigureStyle& style);
 

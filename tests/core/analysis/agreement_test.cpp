@@ -8,7 +8,7 @@ namespace stridemark::analysis {
 namespace {
 
 TEST(Agreement, ShroutFleissTable) {
-  // Source: Shrout & Fleiss 1979 data via the psych package test file [src]; METHODS check 26:
+  // Source: Shrout & Fleiss 1979 data via psych package test file [src]; docs/methods.md check 26:
   // ICC(1,1) .166, (2,1) .290, (3,1) .715, (1,4) .443, (2,4) .620, (3,4) .909 (1e-3).
   const std::vector<std::vector<double>> table = {{9, 2, 5, 8}, {6, 1, 3, 2},  {8, 4, 6, 8},
                                                   {7, 1, 2, 6}, {10, 5, 6, 9}, {6, 2, 4, 7}};
@@ -19,7 +19,7 @@ TEST(Agreement, ShroutFleissTable) {
   EXPECT_NEAR(r.icc1k, 0.44280, 1e-3);
   EXPECT_NEAR(r.icc2k, 0.62005, 1e-3);
   EXPECT_NEAR(r.icc3k, 0.90932, 1e-3);
-  // [calc] mean squares, METHODS §9.2.
+  // [calc] mean squares, docs/methods.md §9.2.
   EXPECT_NEAR(r.msr, 11.2417, 1e-4);
   EXPECT_NEAR(r.msc, 32.4861, 1e-4);
   EXPECT_NEAR(r.mse, 1.0194, 1e-4);
@@ -27,7 +27,7 @@ TEST(Agreement, ShroutFleissTable) {
 }
 
 TEST(Agreement, ConsistencyVersusAbsoluteAgreement) {
-  // Source: McGraw & Wong via R rel docs [src]; METHODS check 27: pairs (2,4), (4,6), (6,8) ->
+  // Source: McGraw & Wong via R rel docs [src]; docs/methods.md check 27: (2,4), (4,6), (6,8) ->
   // consistency 1.000, absolute agreement 0.667.
   const IccResult r = intraclassCorrelation({{2, 4}, {4, 6}, {6, 8}});
   EXPECT_NEAR(r.icc31, 1.0, 1e-9);

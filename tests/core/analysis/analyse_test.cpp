@@ -63,7 +63,7 @@ TEST(Analyse, ReferenceLimbOverride) {
 }
 
 TEST(Analyse, PhaseSummaryAndStats) {
-  // Source: METHODS §8 circular statistics of a constant phase: R 1, circular SD 0.
+  // Source: docs/methods.md §8 circular statistics of a constant phase: R 1, circular SD 0.
   const Report r = analyse(testing::symmetricalQuadruped(0.6, 0.25, 1200, 8));
   const PhaseSummary& lf = r.phase[0];
   EXPECT_EQ(lf.n, 8);
@@ -117,7 +117,7 @@ TEST(Analyse, UnsortedEventsGiveTheSameReport) {
 }
 
 TEST(Analyse, ProjectOverloadUsesTrialCard) {
-  // Source: METHODS team decision: Fr = v^2 / (g h), g = 9.81.
+  // Source: docs/methods.md team decision: Fr = v^2 / (g h), g = 9.81.
   model::Project p;
   p.annotation = testing::symmetricalQuadruped(0.4, 0.5);
   p.trial.speedMs = 3.0;

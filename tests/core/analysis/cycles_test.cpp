@@ -28,7 +28,7 @@ void tag(model::Annotation& a, const char* limb, EventKind kind, std::int64_t fr
 }
 
 TEST(Cycles, StrideStanceSwingDutyFactorFrequency) {
-  // Source: METHODS check 1, definitions §1.1 [calc]: LH TD 100 and 225, LO 160 at 250 fps ->
+  // Source: docs/methods.md check 1, §1.1 [calc]: LH TD 100 and 225, LO 160 at 250 fps ->
   // T 0.500 s, stance 0.240 s, DF 0.480, f 2.0 Hz.
   model::Annotation a = quadruped();
   tag(a, "LH", TD, 100);

@@ -19,7 +19,7 @@ StrideRecord quadrupedStride(std::vector<LimbPattern> patterns) {
 }
 
 TEST(Gait, TransverseGallopRightLead) {
-  // Source: Biancardi & Minetti 2012; WikiVet lead convention [src]; METHODS check 19: order
+  // Source: Biancardi & Minetti 2012; WikiVet lead rule [src]; docs/methods.md check 19: order
   // LH, RH, LF, RF with clear gaps -> transverse gallop, right lead.
   const StrideRecord s = quadrupedStride({{0.40, 0.25}, {0.55, 0.25}, {0, 0.25}, {0.12, 0.25}});
   EXPECT_FALSE(s.symmetrical);
@@ -29,7 +29,7 @@ TEST(Gait, TransverseGallopRightLead) {
 }
 
 TEST(Gait, RotaryGallopRightForeLead) {
-  // Source: METHODS check 19: order RH, LH, LF, RF -> rotary gallop, right fore lead (left hind
+  // Source: docs/methods.md check 19: RH, LH, LF, RF -> rotary gallop, right fore lead (left hind
   // lead) - Biancardi & Minetti 2012; WikiVet [src].
   const StrideRecord s = quadrupedStride({{0.40, 0.25}, {0.55, 0.25}, {0.12, 0.25}, {0, 0.25}});
   EXPECT_EQ(s.gait, "rotary gallop");
@@ -37,14 +37,14 @@ TEST(Gait, RotaryGallopRightForeLead) {
 }
 
 TEST(Gait, LeftLeadTransverseGallop) {
-  // Source: mirror image of METHODS check 19 (order RH, LH, RF, LF) [calc].
+  // Source: mirror image of docs/methods.md check 19 (order RH, LH, RF, LF) [calc].
   const StrideRecord s = quadrupedStride({{0.55, 0.25}, {0.40, 0.25}, {0.12, 0.25}, {0, 0.25}});
   EXPECT_EQ(s.gait, "transverse gallop");
   EXPECT_EQ(*s.lead, "left");
 }
 
 TEST(Gait, Canter) {
-  // Source: METHODS §3.1 canter: trailing hind alone, then lead hind + trailing fore together,
+  // Source: docs/methods.md §3.1 canter: trailing hind alone, then lead hind + trailing fore,
   // then lead fore [src: 3 beats, diagonal together; pairing mem]. Right lead.
   const StrideRecord s = quadrupedStride({{0.25, 0.3}, {0.45, 0.3}, {0, 0.3}, {0.25, 0.3}});
   EXPECT_EQ(s.gait, "canter");
@@ -52,7 +52,7 @@ TEST(Gait, Canter) {
 }
 
 TEST(Gait, HalfBoundBoundPronk) {
-  // From memory (METHODS §3.1): half-bound = hind feet together, fore apart; bound = both pairs
+  // From memory (docs/methods.md §3.1): half-bound = hinds together, fores apart; bound = both
   // together; pronk = all four together.
   const StrideRecord half = quadrupedStride({{0.45, 0.2}, {0.6, 0.2}, {0, 0.2}, {0, 0.2}});
   EXPECT_EQ(half.gait, "half-bound");
@@ -67,7 +67,7 @@ TEST(Gait, HalfBoundBoundPronk) {
 }
 
 TEST(Gait, TauNeverBelowTwoFrames) {
-  // Source: METHODS §3.3 [choice]: tau never less than 2 frames. At 20 frames per stride a
+  // Source: docs/methods.md §3.3 [choice]: tau never less than 2 frames. At 20 frames per stride a
   // 1-frame gap between the hind feet is still "together" (bound, not gallop).
   const Report r = analyse(
       idealTrain(LimbSet::quadruped(), {{0.5, 0.2}, {0.5, 0.2}, {0, 0.2}, {0.05, 0.2}}, 20, 4));
@@ -75,7 +75,7 @@ TEST(Gait, TauNeverBelowTwoFrames) {
 }
 
 TEST(Gait, Biped) {
-  // Source: METHODS team decisions: walk (DF >= 0.5), run (< 0.5), hop (in phase), skip
+  // Source: docs/methods.md team decisions: walk (DF >= 0.5), run (< 0.5), hop (in phase), skip
   // (asymmetrical); human walking stance about 60 % (teaching sources [src]).
   const LimbSet biped = LimbSet::biped();
   EXPECT_EQ(analyse(idealTrain(biped, {{0, 0.6}, {0.5, 0.6}}, 1200, 3)).strides[1].gait, "walk");
@@ -87,7 +87,7 @@ TEST(Gait, Biped) {
 }
 
 TEST(Gait, HexapodTripod) {
-  // Source: METHODS check 20 [calc]: L1 = R2 = L3 = 0, R1 = L2 = R3 = 0.5, DF 0.5 -> "tripod",
+  // Source: docs/methods.md check 20 [calc]: L1=R2=L3=0, R1=L2=R3=0.5, DF 0.5 -> "tripod",
   // 3 legs in stance 100 %. Hexapod order L1 R1 L2 R2 L3 R3.
   const Report r = analyse(idealTrain(
       LimbSet::hexapod(), {{0, .5}, {.5, .5}, {.5, .5}, {0, .5}, {0, .5}, {.5, .5}}, 1200, 4));
@@ -100,8 +100,8 @@ TEST(Gait, HexapodTripod) {
 }
 
 TEST(Gait, HexapodWave) {
-  // Source: METHODS check 20 [calc]: L3 = 0, L2 = 1/6, L1 = 2/6, R3 = 3/6, R2 = 4/6, R1 = 5/6,
-  // DF 5/6 -> "wave", 5 legs 100 %; METHODS §4.3: back-to-front wave = "direct".
+  // Source: docs/methods.md check 20 [calc]: L3=0, L2=1/6, L1=2/6, R3=3/6, R2=4/6, R1=5/6,
+  // DF 5/6 -> "wave", 5 legs 100 %; docs/methods.md §4.3: back-to-front wave = "direct".
   const double d = 5.0 / 6.0;
   const Report r = analyse(idealTrain(
       LimbSet::hexapod(), {{2. / 6, d}, {5. / 6, d}, {1. / 6, d}, {4. / 6, d}, {0, d}, {3. / 6, d}},
@@ -114,7 +114,7 @@ TEST(Gait, HexapodWave) {
 }
 
 TEST(Gait, HexapodTetrapod) {
-  // Source: METHODS §4.2 [mem + calc]: L3 = 0, L2 = 1/3, L1 = 2/3, R1 = 0, R3 = 1/3, R2 = 2/3;
+  // Source: docs/methods.md §4.2 [mem + calc]: L3=0, L2=1/3, L1=2/3, R1=0, R3=1/3, R2=2/3;
   // DF 2/3 -> four legs in stance at every instant.
   const double d = 2.0 / 3.0;
   const Report r = analyse(
@@ -127,7 +127,7 @@ TEST(Gait, HexapodTetrapod) {
 }
 
 TEST(Gait, MultiPairRetrogradeWave) {
-  // Source: METHODS §4.3 [mem, verify]: a wave running front to back is "retrograde". Eight
+  // Source: docs/methods.md §4.3 [mem, verify]: a wave running front to back is "retrograde". Eight
   // pairs, left leg of segment s at s/16, right half a cycle later.
   const LimbSet set = LimbSet::multiPair(8);
   std::vector<LimbPattern> patterns(16);
@@ -178,7 +178,7 @@ TEST(Gait, MultiPairTripodLikeAlternation) {
 }
 
 TEST(Gait, SymmetricalLabelsFromBand) {
-  // Source: METHODS team decisions [choice]: band trot -> trot, pace -> pace, else walk/amble.
+  // Source: docs/methods.md team decisions: band trot -> trot, pace -> pace, else walk/amble.
   EXPECT_EQ(symmetricalQuadrupedGait("trot", 0.7), "trot");
   EXPECT_EQ(symmetricalQuadrupedGait("pace", 0.3), "pace");
   EXPECT_EQ(symmetricalQuadrupedGait("lateral-sequence single-foot", 0.5), "walk");

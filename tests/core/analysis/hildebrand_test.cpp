@@ -13,7 +13,7 @@ namespace {
 
 using testing::symmetricalQuadruped;
 
-// A symmetrical stride with its gait and both classification schemes (METHODS §2.2).
+// A symmetrical stride with its gait and both classification schemes (docs/methods.md §2.2).
 void expectSymmetricalStride(const StrideRecord& s, const std::string& gait,
                              const std::string& quadrant, const std::string& band,
                              const std::string& sequence) {
@@ -25,7 +25,7 @@ void expectSymmetricalStride(const StrideRecord& s, const std::string& gait,
 }
 
 TEST(Hildebrand, LateralSequenceWalk) {
-  // Source: METHODS check 17, Cartmill et al. 2002 quadrants [src]: hind DF 0.62, phase 0.20 ->
+  // Source: docs/methods.md check 17, Cartmill 2002 quadrants [src]: hind DF 0.62, phase 0.20 ->
   // scheme A "LSLC" walk, scheme B "LS single-foot" walk [choice on src definitions].
   const Report r = analyse(symmetricalQuadruped(0.62, 0.20));
   const StrideRecord& s = r.strides.at(2);
@@ -40,8 +40,8 @@ TEST(Hildebrand, LateralSequenceWalk) {
 }
 
 TEST(Hildebrand, LateralSequenceDiagonalCoupletsWalk) {
-  // Source: METHODS §2.2 scheme A, Cartmill et al. 2002 [src]: 25 < D < 50 -> "LSDC"; scheme B
-  // band [31.25, 43.75) -> "LS diagonal couplets" [mem + choice]; METHODS §2.4 [src]: fore DF
+  // Source: docs/methods.md §2.2 scheme A, Cartmill 2002 [src]: 25 < D < 50 -> "LSDC"; scheme B
+  // band [31.25,43.75) -> "LS diagonal couplets" [mem+choice]; docs/methods.md §2.4 [src]: fore DF
   // 60 % puts the LSDC optimum at D = 40. Hind DF 0.60 >= 0.5 -> a walk (DESIGN §5 vocabulary).
   const StrideRecord s = analyse(symmetricalQuadruped(0.60, 0.40)).strides.at(2);
   expectSymmetricalStride(s, "walk", "LSDC", "lateral-sequence diagonal couplets", "lateral");
@@ -49,13 +49,13 @@ TEST(Hildebrand, LateralSequenceDiagonalCoupletsWalk) {
 }
 
 TEST(Hildebrand, DiagonalSequenceWalk) {
-  // Source: METHODS check 17: hind DF 0.62, phase 0.60 -> "DSDC" walk, "DS diagonal couplets".
+  // Source: docs/methods.md check 17: hind DF 0.62, phase 0.60 -> DSDC walk, "DS diagonal couplets"
   const StrideRecord s = analyse(symmetricalQuadruped(0.62, 0.60)).strides.at(2);
   expectSymmetricalStride(s, "walk", "DSDC", "diagonal-sequence diagonal couplets", "diagonal");
 }
 
 TEST(Hildebrand, RunningTrot) {
-  // Source: METHODS check 17: DF 0.45, phase 0.50 -> "running trot" (trot band, DF < 0.5).
+  // Source: docs/methods.md check 17: DF 0.45, phase 0.50 -> "running trot" (trot band, DF < 0.5).
   const StrideRecord s = analyse(symmetricalQuadruped(0.45, 0.50)).strides.at(2);
   EXPECT_EQ(s.gait, "trot");
   EXPECT_EQ(*s.band, "trot");
@@ -64,7 +64,7 @@ TEST(Hildebrand, RunningTrot) {
 }
 
 TEST(Hildebrand, SymmetryGate) {
-  // Source: Schmitt et al. 2006 10 % criterion [src]; METHODS check 18.
+  // Source: Schmitt et al. 2006 10 % criterion [src]; docs/methods.md check 18.
   EXPECT_TRUE(isSymmetrical(0.58, 0.50, 0.10));
   EXPECT_FALSE(isSymmetrical(0.62, 0.50, 0.10));
   // The same through analyse: RH at 0.58 (symmetrical) and 0.62 (not) of the LH stride.
@@ -76,7 +76,7 @@ TEST(Hildebrand, SymmetryGate) {
 }
 
 TEST(Hildebrand, BandTableEdgesAndWrap) {
-  // Source: METHODS §2.2 scheme B [mem + choice]: 12.5 %-wide bands, pace wraps round 0.
+  // Source: docs/methods.md §2.2 scheme B [mem + choice]: 12.5 %-wide bands, pace wraps round 0.
   EXPECT_EQ(hildebrandBand(0.97), "pace");
   EXPECT_EQ(hildebrandBand(0.03), "pace");
   EXPECT_EQ(hildebrandBand(0.0625), "lateral-sequence lateral couplets");
@@ -91,7 +91,7 @@ TEST(Hildebrand, BandTableEdgesAndWrap) {
 }
 
 TEST(Hildebrand, CartmillOptimaOnQuadrants) {
-  // Source: Cartmill et al. 2002 optimal-support relations [src, abstract]; METHODS §2.4 check
+  // Source: Cartmill 2002 optimal-support relations [src, abstract]; docs/methods.md §2.4 check
   // [calc]: hind DF 60 % -> DSDC optimum D = 60 and LSLC optimum D = 10; fore DF 60 % -> LSDC
   // optimum D = 40. Each optimum falls in the quadrant its relation belongs to.
   EXPECT_EQ(*cartmillQuadrant(0.60), "DSDC");

@@ -1,4 +1,4 @@
-// Symmetry, speed and timing measures against METHODS.md check values.
+// Symmetry, speed and timing measures against docs/methods.md check values.
 #include <gtest/gtest.h>
 
 #include "analysis/analyse.h"
@@ -10,30 +10,30 @@ namespace stridemark::analysis {
 namespace {
 
 TEST(Speed, FroudeNumber) {
-  // Source: METHODS check 21 [calc]: v 3.0 m/s, h 0.90 m -> Fr 1.01937, sqrt 1.00964.
+  // Source: docs/methods.md check 21 [calc]: v 3.0 m/s, h 0.90 m -> Fr 1.01937, sqrt 1.00964.
   EXPECT_NEAR(froudeNumber(3.0, 0.90), 1.01937, 1e-5);
   EXPECT_NEAR(dimensionlessSpeed(3.0, 0.90), 1.00964, 1e-5);
 }
 
 TEST(Speed, WalkTrotTransitionSpeeds) {
-  // Source: Griffin et al. 2004 (1.6-2.3 m/s at Fr about 0.35) [src] + [calc]; METHODS check 22.
+  // Source: Griffin 2004 (1.6-2.3 m/s at Fr about 0.35) [src] + [calc]; docs/methods.md check 22.
   EXPECT_NEAR(speedAtFroude(0.35, 0.7), 1.55, 0.005);
   EXPECT_NEAR(speedAtFroude(0.35, 1.4), 2.19, 0.005);
 }
 
 TEST(Speed, AlexanderSpeedAndStrideFits) {
-  // Source: Alexander 1976 via fossilhunters [src] + [calc]; METHODS check 23: stride 2.8 m,
+  // Source: Alexander 1976 via fossilhunters [src] +[calc]; docs/methods.md check 23: stride 2.8 m,
   // hip 1.4 m -> 2.95 m/s; Fr 1 -> lambda/h 2.30 (1976 form) or 1.855 (1991 fit).
   EXPECT_NEAR(alexanderSpeed(2.8, 1.4), 2.95, 0.01);
   EXPECT_NEAR(relativeStrideAlexander1976(1.0), 2.30, 1e-9);
   EXPECT_NEAR(relativeStrideAlexander1991(1.0), 1.855, 0.001);
-  // The 1976 speed formula is algebraically lambda/h = 2.3 Fr^0.3 [calc, METHODS §6.2].
+  // The 1976 speed formula is algebraically lambda/h = 2.3 Fr^0.3 [calc, docs/methods.md §6.2].
   const double u = alexanderSpeed(2.8, 1.4);
   EXPECT_NEAR(relativeStrideAlexander1976(froudeNumber(u, 1.4)), 2.0, 0.01);
 }
 
 TEST(Symmetry, RobinsonRatioMinBasedAndAngle) {
-  // Source: METHODS check 24: Robinson 1987 form [src], medicalalgorithms AI [src], Zifchock
+  // Source: docs/methods.md check 24: Robinson 1987 [src], medicalalgorithms AI [src], Zifchock
   // 2008 symmetry angle [mem formula]: R 110, L 100 -> SI 9.5238 %, ratio 1.10, AI 10.0 %,
   // SA 3.029 %.
   EXPECT_NEAR(symmetryIndex(110, 100), 9.5238, 1e-4);
@@ -43,7 +43,7 @@ TEST(Symmetry, RobinsonRatioMinBasedAndAngle) {
 }
 
 TEST(Symmetry, ReportUsesRightMinusLeft) {
-  // Source: METHODS team decision: Robinson SI, positive when the right limb's value is larger.
+  // Source: docs/methods.md team decision: Robinson SI, positive when the right value is larger.
   // RH stance 660 frames vs LH 600 of 1200 -> SI = 60 / 630 * 100.
   const model::Annotation a = testing::idealTrain(
       model::LimbSet::quadruped(), {{0.25, 0.6}, {0.75, 0.6}, {0, 0.5}, {0.5, 0.55}}, 1200, 4);
@@ -63,7 +63,7 @@ TEST(Symmetry, PairNamesPerLimbSet) {
 }
 
 TEST(Timing, DiagonalAdvancedPlacement) {
-  // Source: METHODS check 25 [choice/src convention]: hind TD 1000 ms, diagonal fore TD 1012 ms,
+  // Source: docs/methods.md check 25 [choice/src]: hind TD 1000 ms, diagonal fore TD 1012 ms,
   // stride 700 ms -> +12 ms, +1.714 % (positive = hind first).
   const AdvancedPlacement dap = advancedPlacement(1000, 1012, 700, Rational{1000, 1});
   EXPECT_NEAR(dap.ms, 12.0, 1e-12);
@@ -71,7 +71,7 @@ TEST(Timing, DiagonalAdvancedPlacement) {
 }
 
 TEST(Timing, DapOnTrotStrides) {
-  // Source: METHODS §7.3 [choice]: DAP = TD fore - TD hind of each diagonal, positive = hind
+  // Source: docs/methods.md §7.3 [choice]: DAP = TD fore - TD hind per diagonal, positive = hind
   // first. Fores land 12 frames after their diagonal hinds at 1000 fps, stride 700 frames.
   const model::Annotation a =
       testing::idealTrain(model::LimbSet::quadruped(),
@@ -84,7 +84,7 @@ TEST(Timing, DapOnTrotStrides) {
 }
 
 TEST(Timing, DrevemoTrot) {
-  // Source: Drevemo et al. 1980 [src] + [calc]; METHODS check 29: T 455 ms, stance F 100 ms,
+  // Source: Drevemo 1980 [src] + [calc]; docs/methods.md check 29: T 455 ms, stance F 100 ms,
   // H 177 ms -> DF 0.2198 / 0.3890; stride length 5.45 m -> speed 11.98 m/s.
   const model::Annotation a = testing::idealTrain(
       model::LimbSet::quadruped(),
@@ -104,7 +104,7 @@ TEST(Timing, DrevemoTrot) {
 }
 
 TEST(Timing, QuantisationBound) {
-  // Source: METHODS check 30 [calc]: fps 250, T 0.5 s, DF 0.4 -> max DF error 0.0112.
+  // Source: docs/methods.md check 30 [calc]: fps 250, T 0.5 s, DF 0.4 -> max DF error 0.0112.
   EXPECT_NEAR(dutyFactorQuantisationBound(250, 0.5, 0.4), 0.0112, 1e-12);
   // Realised: touchdown/lift-off times rounded to frames never move DF by more than the bound.
   const double fps = 250, t0 = 0.0031, stride = 0.5, beta = 0.4;

@@ -13,7 +13,7 @@ namespace {
 
 TEST(Phase, HildebrandLimbPhase) {
   // Source: Hildebrand phase definition (Usherwood & Self Davies 2017) [src def, calc];
-  // METHODS check 2: LH stride 100-225, LF touchdown 131 -> 0.248 (exact).
+  // docs/methods.md check 2: LH stride 100-225, LF touchdown 131 -> 0.248 (exact).
   const std::vector<std::int64_t> lf{131};
   const WindowPhase wp = phaseInWindow(lf, 100, 225);
   ASSERT_TRUE(wp.phase);
@@ -21,7 +21,7 @@ TEST(Phase, HildebrandLimbPhase) {
 }
 
 TEST(Phase, LateTouchdownAndCentredForm) {
-  // Source: METHODS check 3 [calc]: target touchdown at 222 -> 0.976, centred -0.024.
+  // Source: docs/methods.md check 3 [calc]: target touchdown at 222 -> 0.976, centred -0.024.
   const std::vector<std::int64_t> target{222};
   const WindowPhase wp = phaseInWindow(target, 100, 225);
   ASSERT_TRUE(wp.phase);
@@ -30,7 +30,7 @@ TEST(Phase, LateTouchdownAndCentredForm) {
 }
 
 TEST(Phase, NoTouchdownInWindowIsNull) {
-  // Source: METHODS §1.2/§1.3 [choice]: null when the limb has no touchdown in the window.
+  // Source: docs/methods.md §1.2/§1.3 [choice]: null when the limb has no touchdown in the window.
   const std::vector<std::int64_t> target{50, 225, 300};
   const WindowPhase wp = phaseInWindow(target, 100, 225);
   EXPECT_EQ(wp.touchdowns, 0);
@@ -38,7 +38,7 @@ TEST(Phase, NoTouchdownInWindowIsNull) {
 }
 
 TEST(Phase, TwoTouchdownsAreFlaggedAndNull) {
-  // Source: METHODS §1.3 [choice]: two touchdowns in one reference stride -> flag, undefined.
+  // Source: docs/methods.md §1.3 [choice]: two touchdowns in a reference stride -> flag, undefined.
   const std::vector<std::int64_t> target{120, 180};
   const WindowPhase wp = phaseInWindow(target, 100, 225);
   EXPECT_TRUE(wp.ambiguous());

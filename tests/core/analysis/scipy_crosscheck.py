@@ -6,7 +6,7 @@ Usage: /usr/bin/python3 scipy_crosscheck.py PATH-TO-circular_probe [SEED]
 Generates seeded random phase sets (cycles), including clusters that wrap round 0/1 and
 near-uniform sets, feeds them to the probe and compares with scipy.stats.circmean / circstd /
 circvar (scipy >= 1.8: circvar = 1 - R) to 1e-9, and the Rayleigh p-value with an independent
-implementation of Zar's formula (Zar 1999 eq. 27.4, as quoted in METHODS.md §8.1).
+implementation of Zar's formula (Zar 1999 eq. 27.4, as quoted in docs/methods.md §8.1).
 """
 import json
 import math

@@ -23,7 +23,7 @@ const StrideRecord& middleStride(const Report& r) {
 }
 
 TEST(Support, ThreeFeetAlwaysAtDf075Phase025) {
-  // Source: Usherwood & Smith 2018 movie S1 legend [src] + [calc]; METHODS check 13: DF 0.75,
+  // Source: Usherwood & Smith 2018 movie S1 [src] + [calc]; docs/methods.md check 13: DF 0.75,
   // phase 0.25 -> tripedal support 100 % of the stride, four tripods 25 % each (§5 table).
   const Report r = analyse(symmetricalQuadruped(0.75, 0.25));
   const StrideRecord& s = middleStride(r);
@@ -36,7 +36,7 @@ TEST(Support, ThreeFeetAlwaysAtDf075Phase025) {
 }
 
 TEST(Support, RunningTrotHasTwoSuspensions) {
-  // Source: METHODS check 14 [calc; trot definition src Schmitt 2006]: DF 0.40, phase 0.50 ->
+  // Source: docs/methods.md check 14 [calc; trot def. src Schmitt 2006]: DF 0.40, phase 0.50 ->
   // 80 % diagonal bipedal, 20 % suspension in two 10 % intervals; a trot.
   const Report r = analyse(symmetricalQuadruped(0.40, 0.50));
   const StrideRecord& s = middleStride(r);
@@ -84,7 +84,7 @@ TEST(Support, WindowsOverUnknownEdgesAndTheWholeTrial) {
 }
 
 TEST(Support, WalkingTrotHasQuadrupedalSupport) {
-  // Source: METHODS check 15 [calc]: DF 0.60, phase 0.50 -> 80 % diagonal bipedal, 20 % all four.
+  // Source: docs/methods.md check 15 [calc]: DF 0.60, phase 0.50 -> 80 % diagonal, 20 % all four.
   const StrideRecord s = middleStride(analyse(symmetricalQuadruped(0.60, 0.50)));
   EXPECT_DOUBLE_EQ(s.supportByCount[2], 0.8);
   EXPECT_DOUBLE_EQ(s.supportByCount[4], 0.2);
@@ -93,7 +93,7 @@ TEST(Support, WalkingTrotHasQuadrupedalSupport) {
 }
 
 TEST(Support, TripedalShareIsFourDfMinusTwo) {
-  // Source: METHODS check 16 [calc identity (4 DF - 2)]: DF 0.65 with only 2/3-foot phases ->
+  // Source: docs/methods.md check 16 [calc: 4 DF - 2]: DF 0.65 with only 2/3-foot phases ->
   // tripedal 60 %, bipedal 40 %.
   for (double phase : {0.25, 0.2, 0.3}) {
     const StrideRecord s = middleStride(analyse(symmetricalQuadruped(0.65, phase)));
@@ -109,7 +109,7 @@ struct TableRow {
 };
 
 TEST(Support, MethodsSupportTable) {
-  // Source: METHODS §5 table of computed support fractions for symmetrical gaits [calc].
+  // Source: docs/methods.md §5 table of computed support fractions for symmetrical gaits [calc].
   const std::vector<TableRow> rows = {
       {0.50, 0.50, {{2, 1.0}}, {{"diagonal LH+RF", 0.5}, {"diagonal RH+LF", 0.5}}},
       {0.50, 0.00, {{2, 1.0}}, {{"lateral LH+LF", 0.5}, {"lateral RH+RF", 0.5}}},
@@ -137,7 +137,7 @@ TEST(Support, MethodsSupportTable) {
 }
 
 TEST(Support, MeanLimbsInStanceEqualsSumOfDutyFactors) {
-  // Source: METHODS §5 identity [calc]: time-averaged number of limbs in stance = sum of DFs.
+  // Source: docs/methods.md §5 identity [calc]: mean number of limbs in stance = sum of DFs.
   const model::Annotation a = testing::idealTrain(
       model::LimbSet::quadruped(), {{0.3, 0.55}, {0.8, 0.65}, {0.0, 0.7}, {0.5, 0.6}}, 1200, 5);
   const Report r = analyse(a);

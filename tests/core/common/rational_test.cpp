@@ -27,7 +27,7 @@ TEST(Rational, RejectsNonRatesWithTheTextInTheMessage) {
   }
 }
 
-// Source: METHODS.md §1.3, t = frame / fps.
+// Source: docs/methods.md §1.3, t = frame / fps.
 TEST(Rational, FramesToSecondsIsExactForIntegerRates) {
   EXPECT_DOUBLE_EQ(framesToSeconds(125, {250, 1}), 0.5);
   EXPECT_EQ(secondsToFrame(0.5, {250, 1}), 125);

@@ -27,7 +27,7 @@ analysis::Report checkOneReport() {
 }
 
 TEST(ReportJson, HandComputableTrialComesOutRight) {
-  // Source: METHODS.md checks 1 and 2 (see trial_fixture.h).
+  // Source: docs/methods.md checks 1 and 2 (see trial_fixture.h).
   const nlohmann::json j = nlohmann::json::parse(reportJsonText(checkOneReport()));
   EXPECT_EQ(j["schema"], "stridemark.report.v1");
   EXPECT_EQ(j["fps"], 250);

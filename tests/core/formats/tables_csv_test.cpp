@@ -12,7 +12,7 @@ namespace {
 
 TEST(TablesCsv, EveryTableLoadsInPandasWithUnitsAndValues) {
   // Reference: pandas.read_csv(comment='#') from Debian's python3-pandas.
-  // Values: METHODS.md checks 1 and 2 (see trial_fixture.h).
+  // Values: docs/methods.md checks 1 and 2 (see trial_fixture.h).
   const model::Annotation annotation = testing::checkOneTrial();
   const analysis::Report report = analysis::analyse(annotation);
   testing::TempFolder folder;

@@ -1,6 +1,6 @@
 #pragma once
 // A hand-computable quadruped trial for the formats tests.
-// Source: METHODS.md suggested checks 1 and 2 (definitions §1.1, Hildebrand phase per
+// Source: docs/methods.md suggested checks 1 and 2 (definitions §1.1, Hildebrand phase per
 // Usherwood & Self Davies 2017): LH TD 100, LO 160, TD 225 at 250 fps -> stride 0.500 s,
 // stance 0.240 s, duty factor 0.480; LF TD at 131 -> limb phase 0.248.
 // Every limb repeats a 125-frame stride with a 60-frame stance; LF, RH, RF touch down

@@ -49,7 +49,7 @@ TEST(Samples, EventsRegenerateByteForByte) {
 }
 
 // Scoring each committed sample finds every gait of its schedule as a bout, with no annotation
-// problems. Labels: METHODS.md team decisions (the same the preset tests check).
+// problems. Labels: docs/methods.md team decisions (the same the preset tests check).
 TEST(Samples, ScoringFindsEveryScheduledGait) {
   const fs::path samples = fs::path(STRIDEMARK_SOURCE_DIR) / "samples";
   int checked = 0;
