@@ -5,7 +5,7 @@
 
 namespace stridemark::cli {
 
-// Exit codes (DESIGN §5): 0 success, 1 bad input, 2 usage error, 3 internal failure.
+// Exit codes (contract in CHANGELOG.md): 0 success, 1 bad input, 2 usage error, 3 internal failure.
 inline constexpr int kExitOk = 0;
 inline constexpr int kExitBadInput = 1;
 inline constexpr int kExitUsage = 2;

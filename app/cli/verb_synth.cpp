@@ -1,4 +1,4 @@
-// `stridemark synth`: writes a synthetic clip with exact ground truth (DESIGN §5).
+// `stridemark synth`: writes a synthetic clip with exact ground truth (contract in CHANGELOG.md).
 #include <cstdio>
 #include <iostream>
 #include <memory>

@@ -1,6 +1,6 @@
 #pragma once
 // The result of scoring one annotation: everything `stridemark score` writes as
-// stridemark.report.v1 (DESIGN §5) and everything the workstation's docks show.
+// stridemark.report.v1 (contract in CHANGELOG.md) and everything the workstation's docks show.
 // Per-limb vectors are indexed by limb index in the annotation's LimbSet.
 // Analysis fills this (core/analysis); formats writes and reads it (core/formats).
 #include <cstdint>

@@ -1,5 +1,5 @@
 #pragma once
-// The events CSV (DESIGN §5): the interchange file of touchdown / lift-off tags.
+// The events CSV (contract in CHANGELOG.md): the interchange file of touchdown / lift-off tags.
 //
 //   # fps: 240            optional header comments: capture rate, limb set, reference limb
 //   # limbs: quadruped

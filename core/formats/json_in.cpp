@@ -75,7 +75,7 @@ JsonIn JsonIn::at(std::string_view key) const {
   const auto it = value_->find(key);
   if (it == value_->end()) {
     JsonIn(*value_, file_, path_ + "/" + pointerToken(key))
-        .fail("missing — add this key (see DESIGN §5 for the layout)");
+        .fail("missing — add this key (see CHANGELOG.md for the layout)");
   }
   return JsonIn(*it, file_, path_ + "/" + pointerToken(key));
 }

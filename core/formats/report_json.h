@@ -1,8 +1,8 @@
 #pragma once
-// The report JSON, schema stridemark.report.v1, exactly as DESIGN §5. Numbers that are
+// The report JSON, schema stridemark.report.v1, as listed in CHANGELOG.md. Numbers that are
 // undefined (NaN in analysis::Report) are written as null.
 //
-// Additions beyond DESIGN §5 live under one top-level key, "extra":
+// Additions beyond that list live under one top-level key, "extra":
 //   caution, fps_exact (rational text), phase.<limb>.{angular_deviation, rayleigh_z},
 //   hildebrand.quadrant, support_by_combination, symmetry.stride_s, symmetry.ratio.<measure>,
 //   speed.dimensionless_speed, transitions[{from_gait, to_gait, frame, stride}],

@@ -1,5 +1,5 @@
 #pragma once
-// Limb sets (DESIGN §4): which limbs an animal has, their labels, sides and girdles.
+// Limb sets: which limbs an animal has, their labels, sides and girdles.
 #include <optional>
 #include <string>
 #include <string_view>

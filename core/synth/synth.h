@@ -1,5 +1,5 @@
 #pragma once
-// Synthetic gait clips with exact ground truth (DESIGN §2 synth). One call writes an output
+// Synthetic gait clips with exact ground truth. One call writes an output
 // folder: the video (H.264 MP4 or MJPEG AVI), the ground-truth events CSV, a project file that
 // links both, and a manifest JSON with every parameter.
 #include <cstdint>

@@ -1,4 +1,4 @@
-// End-to-end tests of `stridemark score` (DESIGN §5 command-line and report contract).
+// End-to-end tests of `stridemark score` (the command-line and report contracts in CHANGELOG.md).
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -31,8 +31,9 @@ void expectStat(const Json& stat, const std::string& where) {
   for (const char* key : {"mean", "sd", "cv"}) EXPECT_TRUE(isNumberOrNull(stat[key])) << where;
 }
 
-// Checks a report against DESIGN §5 "Report JSON": exact keys and nesting, null (never NaN)
-// for undefined numbers, fractions in [0, 1], phases in [0, 1). Additions only under "extra".
+// Checks a report against the "Report JSON" contract (CHANGELOG.md): exact keys and nesting, null
+// (never NaN) for undefined numbers, fractions in [0, 1], phases in [0, 1). Additions only under
+// "extra".
 void expectDesignReport(const Json& report, const std::vector<std::string>& labels) {
   Keys top{"schema",  "fps",   "limb_set", "reference_limb", "limbs",    "strides", "phase",
            "support", "bouts", "symmetry", "speed",          "problems", "extra"};
@@ -199,7 +200,8 @@ TEST(ScoreCli, HandComputableTrial) {
 }
 
 TEST(ScoreCli, TimeColumnAndHeaderComments) {
-  // frame = round(time_s x capture rate) - DESIGN §5; 0.4 s x 250 = 100, 0.9 s x 250 = 225.
+  // frame = round(time_s x capture rate), our events CSV contract; 0.4 s x 250 = 100, 0.9 s x 250 =
+  // 225.
   TempFolder folder;
   writeText(folder / "times.csv",
             "# fps: 250\nlimb,event,time_s\nLH,touchdown,0.4\nLH,liftoff,0.64\nLH,touchdown,0.9\n");
@@ -210,7 +212,8 @@ TEST(ScoreCli, TimeColumnAndHeaderComments) {
 }
 
 TEST(ScoreCli, ClipStartingAndEndingMidStanceIsNormal) {
-  // DESIGN §5: a first lift-off or a last touchdown is normal, not an error.
+  // Our contract (CHANGELOG.md, events CSV): a first lift-off or a last touchdown is normal, not an
+  // error.
   TempFolder folder;
   writeText(folder / "mid.csv",
             "limb,event,frame\nLH,liftoff,10\nLH,touchdown,100\nLH,liftoff,160\n"

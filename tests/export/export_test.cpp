@@ -102,7 +102,7 @@ TEST_F(ExportTest, ClipReportTablesAndFiguresFromTheCommandLine) {
     const std::string text = run("pdftotext -f " + std::to_string(page) + " -l " +
                                  std::to_string(page) + " '" + pdf.string() + "' -")
                                  .out;
-    // The clinical caution on every page footer (common.md, DESIGN §10).
+    // The clinical caution on every page footer .
     EXPECT_NE(text.find("examination by a licensed veterinarian"), std::string::npos)
         << "page " << page << ":\n"
         << text;

@@ -2,7 +2,7 @@
 // Writes one figure, drawn by a ui/figures painter, as SVG, PNG (300 dpi) or PDF.
 // Painters draw in a logical coordinate system of CSS pixels (96 per inch) and use pixel-size
 // fonts; each output scales that system to its own resolution, so text keeps its size in
-// millimetres everywhere (Qt 6.4's QPdfWriter blows point-size fonts up ~4x, see DESIGN §8a).
+// millimetres everywhere (Qt 6.4's QPdfWriter blows point-size fonts up ~4x).
 #include <QRectF>
 #include <QString>
 #include <functional>

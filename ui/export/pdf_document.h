@@ -3,7 +3,7 @@
 // tables and figures flow down the page and break onto new pages; every page gets the same
 // footer (the clinical caution, the software version, the page number).
 // Coordinates are logical CSS pixels (96 per inch) with pixel-size fonts: Qt 6.4's QPdfWriter
-// draws point-size fonts ~4x too large under a scaled painter (DESIGN §8a).
+// draws point-size fonts ~4x too large under a scaled painter.
 #include <QFont>
 #include <QPainter>
 #include <QPdfWriter>

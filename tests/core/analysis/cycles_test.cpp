@@ -46,7 +46,8 @@ TEST(Cycles, StrideStanceSwingDutyFactorFrequency) {
 }
 
 TEST(Cycles, MidStanceStartAndEndAreNotProblems) {
-  // Source: DESIGN §5: a first lift-off or a last touchdown is normal.
+  // Source: our contract (CHANGELOG.md, events CSV): a first lift-off or a last touchdown is
+  // normal.
   model::Annotation a = quadruped();
   tag(a, "LH", LO, 10);
   tag(a, "LH", TD, 100);

@@ -42,7 +42,7 @@ TEST(Hildebrand, LateralSequenceWalk) {
 TEST(Hildebrand, LateralSequenceDiagonalCoupletsWalk) {
   // Source: docs/methods.md §2.2 scheme A, Cartmill 2002 [src]: 25 < D < 50 -> "LSDC"; scheme B
   // band [31.25,43.75) -> "LS diagonal couplets" [mem+choice]; docs/methods.md §2.4 [src]: fore DF
-  // 60 % puts the LSDC optimum at D = 40. Hind DF 0.60 >= 0.5 -> a walk (DESIGN §5 vocabulary).
+  // 60 % puts the LSDC optimum at D = 40. Hind DF 0.60 >= 0.5 -> a walk (CHANGELOG.md vocabulary).
   const StrideRecord s = analyse(symmetricalQuadruped(0.60, 0.40)).strides.at(2);
   expectSymmetricalStride(s, "walk", "LSDC", "lateral-sequence diagonal couplets", "lateral");
   EXPECT_NEAR(*s.limbPhase, 0.40, 1e-12);

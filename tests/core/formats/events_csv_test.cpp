@@ -69,7 +69,7 @@ TEST(EventsCsv, OptionsOverrideHeaderComments) {
 }
 
 TEST(EventsCsv, TimeColumnRoundsToNearestFrame) {
-  // frame = round(time_s x capture rate) - DESIGN §5.
+  // frame = round(time_s x capture rate) (CHANGELOG.md, events CSV).
   // 0.5 s x 250 = 125; 0.1019 s x 250 = 25.475 -> 25; 0.1021 x 250 = 25.525 -> 26.
   EventsCsvOptions options;
   options.captureRate = Rational{250, 1};

@@ -7,7 +7,7 @@
 namespace stridemark::model {
 namespace {
 
-// Source: DESIGN.md §4 limb-set table (labels, order, default reference limb).
+// Our limb-set contract (CHANGELOG.md, events CSV): labels, order, default reference limb.
 TEST(LimbSet, QuadrupedLabelsOrderAndReference) {
   const auto q = LimbSet::quadruped();
   ASSERT_EQ(q.size(), 4);

@@ -52,7 +52,7 @@ model::Annotation truthOf(const LimbSet& limbs, const GaitSegment& segment, Rati
 
 class PresetTruth : public ::testing::TestWithParam<Case> {};
 
-// Source: DESIGN §6 / docs/methods.md §1.1-1.2 (duty factor = stance/stride; phase = touchdown lag
+// Source: docs/methods.md §1.1-1.2 (duty factor = stance/stride; phase = touchdown lag
 // over the reference stride); tolerance one frame of the stride (docs/methods.md §1.3).
 // Labels: docs/methods.md team decisions (§2.2 bands, §3.3 classifier, §4.1, §4.2 templates).
 TEST_P(PresetTruth, ScoresAsRequested) {

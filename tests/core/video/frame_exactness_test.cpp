@@ -1,5 +1,5 @@
 // Every frame of each awkward clip, forwards, backwards and shuffled, against ffmpeg.
-// Source of truth: `ffmpeg -f framemd5` of the same file (DESIGN §7; issue 3 item 8).
+// Source of truth: `ffmpeg -f framemd5` of the same file (issue 3 item 8).
 #include <gtest/gtest.h>
 
 #include <algorithm>

@@ -145,7 +145,7 @@ TEST_F(IndexTest, ProbeWarnsAboutVariableFrameRate) {
 }
 
 TEST_F(IndexTest, ProbeWarnsAboutACoarseTimeBase) {
-  // Matroska stores 1 ms timestamps: at 1000 fps that is one tick per frame (DESIGN §8a).
+  // Matroska stores 1 ms timestamps: at 1000 fps that is one tick per frame.
   testing::makeClip(testing::clipNamed("h264_1000fps.mp4"));
   const std::string mkv = testing::makeClip(
       {"h264_1000fps.mkv", "-i " + testing::clipFolder() + "/h264_1000fps.mp4 -c copy"});
