@@ -4,9 +4,10 @@
 #include <QCommandLineParser>
 #include <QSettings>
 
+#include "common/caution.h"
 #include "stridemark/version.h"
-#include "ui/app/palettes.h"
 #include "ui/main_window.h"
+#include "ui/session/palettes.h"
 
 int main(int argc, char** argv) {
   QApplication app(argc, argv);
@@ -14,9 +15,11 @@ int main(int argc, char** argv) {
   QApplication::setApplicationName(QStringLiteral("stridemark-desk"));
   QApplication::setApplicationVersion(QString::fromLatin1(stridemark::kVersion));
   QCommandLineParser parser;
-  parser.setApplicationDescription(QStringLiteral(
-      "Stridemark workstation: step through video, tag footfalls, see the gait live.\n"
-      "Measurements support, and never replace, examination by a licensed veterinarian."));
+  parser.setApplicationDescription(
+      QStringLiteral("Stridemark workstation: step through video, tag footfalls, see the gait "
+                     "live.\n") +
+      QString::fromUtf8(stridemark::kCaution.data(),
+                        static_cast<qsizetype>(stridemark::kCaution.size())));
   parser.addHelpOption();
   parser.addVersionOption();
   parser.addPositionalArgument(QStringLiteral("file"),

@@ -6,8 +6,8 @@
 #include <algorithm>
 #include <numeric>
 
+#include "common/caution.h"
 #include "common/error.h"
-#include "ui/export/caution.h"
 
 namespace stridemark::ui::exports {
 
@@ -72,7 +72,7 @@ void PdfDocument::drawFooter() {
   painter_.setFont(small);
   const QRectF caution(body_.left(), top + 3, body_.width(), kFooterHeight * 0.55);
   painter_.drawText(caution, Qt::AlignLeft | Qt::AlignTop | Qt::TextWordWrap,
-                    QString::fromUtf8(kClinicalCaution));
+                    QString::fromUtf8(kCaution.data(), static_cast<qsizetype>(kCaution.size())));
   painter_.setFont(font(kSmallPx));
   const QRectF line(body_.left(), top + 3 + kFooterHeight * 0.55, body_.width(), kSmallPx * 1.6);
   painter_.drawText(line, Qt::AlignLeft | Qt::AlignVCenter, footerLeft_);
