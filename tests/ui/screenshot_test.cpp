@@ -9,8 +9,8 @@
 
 #include "tests/support/process.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/palettes.h"
 #include "ui/main_window.h"
+#include "ui/session/palettes.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
 
