@@ -170,10 +170,11 @@ TagKeyDialog::TagKeyDialog(const TagKeyMap& keys, QWidget* parent) : QDialog(par
       edits_[i]->setKeySequence(QKeySequence(defaults.keyFor(static_cast<int>(i))));
   });
   auto* layout = new QVBoxLayout(this);
-  auto* rule = new QLabel(tr("One plain key per limb (no modifiers). These keys belong to "
-                             "commands (%1): %2.")
-                              .arg(menuPath(ActionId::keyBindings),
-                                   KeyBindings::load().plainKeyNames().join(QStringLiteral(", "))));
+  auto* rule =
+      new QLabel(tr("One plain key per limb (no modifiers). These keys belong to "
+                    "commands (%1): %2.")
+                     .arg(menuPath(ActionId::keyBindings),
+                          KeyBindings::load().plainKeyNames().join(QStringLiteral("  ·  "))));
   rule->setWordWrap(true);
   layout->addWidget(rule);
   layout->addLayout(form);
