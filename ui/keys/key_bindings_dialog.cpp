@@ -39,12 +39,7 @@ KeyBindingsDialog::KeyBindingsDialog(const KeyBindings& bindings, const TagKeyMa
   scroll->setWidgetResizable(true);
   error_ = new QLabel;
   error_->setWordWrap(true);
-  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel |
-                                       QDialogButtonBox::RestoreDefaults);
-  connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
-  connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
-  connect(buttons->button(QDialogButtonBox::RestoreDefaults), &QPushButton::clicked, this,
-          &KeyBindingsDialog::restoreDefaults);
+  auto* buttons = keyDialogButtons(this, [this] { restoreDefaults(); });
   auto* layout = new QVBoxLayout(this);
   auto* rule =
       new QLabel(tr("Click a field and press the new key; Escape cancels the dialog. "

@@ -1,6 +1,9 @@
 #include "ui/keys/shortcut_edit.h"
 
+#include <QDialog>
+#include <QDialogButtonBox>
 #include <QKeyEvent>
+#include <QPushButton>
 
 namespace stridemark::ui {
 
@@ -35,6 +38,16 @@ void ShortcutEdit::keyPressEvent(QKeyEvent* event) {
     return;
   }
   QKeySequenceEdit::keyPressEvent(event);
+}
+
+QDialogButtonBox* keyDialogButtons(QDialog* dialog, std::function<void()> restoreDefaults) {
+  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel |
+                                       QDialogButtonBox::RestoreDefaults);
+  QObject::connect(buttons, &QDialogButtonBox::accepted, dialog, &QDialog::accept);
+  QObject::connect(buttons, &QDialogButtonBox::rejected, dialog, &QDialog::reject);
+  QObject::connect(buttons->button(QDialogButtonBox::RestoreDefaults), &QPushButton::clicked,
+                   dialog, std::move(restoreDefaults));
+  return buttons;
 }
 
 }  // namespace stridemark::ui

@@ -2,6 +2,10 @@
 // A key-sequence field that leaves Escape to its dialog (cancel) and Tab to focus moves,
 // instead of recording them as keys.
 #include <QKeySequenceEdit>
+#include <functional>
+
+class QDialog;
+class QDialogButtonBox;
 
 namespace stridemark::ui {
 
@@ -14,5 +18,8 @@ class ShortcutEdit : public QKeySequenceEdit {
   bool event(QEvent* event) override;
   void keyPressEvent(QKeyEvent* event) override;
 };
+
+// OK, Cancel and Restore defaults for a dialog of key fields, wired to the dialog.
+QDialogButtonBox* keyDialogButtons(QDialog* dialog, std::function<void()> restoreDefaults);
 
 }  // namespace stridemark::ui

@@ -160,11 +160,7 @@ TagKeyDialog::TagKeyDialog(const TagKeyMap& keys, QWidget* parent) : QDialog(par
   }
   error_ = new QLabel;
   error_->setWordWrap(true);
-  auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel |
-                                       QDialogButtonBox::RestoreDefaults);
-  connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
-  connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
-  connect(buttons->button(QDialogButtonBox::RestoreDefaults), &QPushButton::clicked, this, [this] {
+  auto* buttons = keyDialogButtons(this, [this] {
     const TagKeyMap defaults(keys_.limbs());
     for (std::size_t i = 0; i < edits_.size(); ++i)
       edits_[i]->setKeySequence(QKeySequence(defaults.keyFor(static_cast<int>(i))));
