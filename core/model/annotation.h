@@ -16,7 +16,7 @@ namespace stridemark::model {
 
 enum class EventKind { touchdown, liftoff };
 
-std::string_view eventWord(EventKind kind);                     // "touchdown" / "liftoff"
+std::string_view eventWord(EventKind kind);                      // "touchdown" / "liftoff"
 std::optional<EventKind> parseEventWord(std::string_view word);  // exact lower-case words
 
 struct Event {
@@ -64,21 +64,29 @@ struct Annotation {
   bool inStance(int limb, std::int64_t frame) const;
 };
 
+// A treadmill belt's speed from a frame on (docs/methods.md §12).
+struct SpeedStep {
+  std::int64_t fromFrame = 0;
+  double ms = 0;
+  friend bool operator==(const SpeedStep&, const SpeedStep&) = default;
+};
+
 struct TrialCard {
   std::string subject;
   std::string species;
   std::string condition;
   std::string observer;
   std::string notes;
-  std::optional<double> speedMs;      // belt or ground speed, m/s
-  std::string speedSource = "belt";   // "belt" or "ground"
-  std::optional<double> legLengthM;   // hip height / leg length used for Froude, m
+  std::optional<double> speedMs;        // belt or ground speed, m/s (from the start)
+  std::vector<SpeedStep> speedChanges;  // later speeds, ascending by frame
+  std::string speedSource = "belt";     // "belt" or "ground"
+  std::optional<double> legLengthM;     // hip height / leg length used for Froude, m
   friend bool operator==(const TrialCard&, const TrialCard&) = default;
 };
 
 struct VideoLink {
-  std::string path;        // as saved: relative to the project file when possible
-  std::string signature;   // size + hash of first and last MiB (core/video)
+  std::string path;       // as saved: relative to the project file when possible
+  std::string signature;  // size + hash of first and last MiB (core/video)
   std::int64_t frameCount = 0;
   Rational fileRate{0, 1};  // what the container claims
   friend bool operator==(const VideoLink&, const VideoLink&) = default;

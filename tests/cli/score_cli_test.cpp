@@ -35,9 +35,10 @@ void expectStat(const Json& stat, const std::string& where) {
 // (never NaN) for undefined numbers, fractions in [0, 1], phases in [0, 1). Additions only under
 // "extra".
 void expectDesignReport(const Json& report, const std::vector<std::string>& labels) {
-  Keys top{"schema",  "fps",   "limb_set", "reference_limb", "limbs",    "strides", "phase",
-           "support", "bouts", "symmetry", "speed",          "problems", "extra"};
-  if (report["limb_set"] == "quadruped") top.insert("hildebrand");
+  Keys top{"schema",  "fps",      "limb_set", "reference_limb", "limbs",
+           "strides", "phase",    "support",  "bouts",          "symmetry",
+           "speed",   "problems", "extra",    "by_gait",        "mixed_gaits"};
+  if (report["limb_set"] == "quadruped") top.insert({"hildebrand", "dap"});
   EXPECT_EQ(keysOf(report), top);
   EXPECT_EQ(report["schema"], "stridemark.report.v1");
   EXPECT_TRUE(report["fps"].is_number());
@@ -54,13 +55,13 @@ void expectDesignReport(const Json& report, const std::vector<std::string>& labe
   }
   EXPECT_EQ(keysOf(report["phase"]), limbKeys);
   const std::set<std::string> gaits{
-      "walk",          "amble",      "trot",     "pace",  "canter",      "transverse gallop",
-      "rotary gallop", "half-bound", "bound",    "pronk", "run",         "hop",
-      "skip",          "tripod",     "tetrapod", "wave",  "unclassified"};
+      "walk",          "amble",      "trot",     "pace",  "canter",       "transverse gallop",
+      "rotary gallop", "half-bound", "bound",    "pronk", "run",          "hop",
+      "skip",          "tripod",     "tetrapod", "wave",  "unclassified", "transition"};
   for (const Json& stride : report["strides"]) {
-    Keys keys{"start_frame", "end_frame", "duration_s", "duty_factor", "phase",
-              "gait",        "band",      "sequence",   "symmetrical", "aerial"};
-    if (!stride["symmetrical"].get<bool>()) keys.insert("lead");
+    Keys keys{"start_frame", "end_frame", "duration_s",  "duty_factor", "phase",  "gait",
+              "band",        "sequence",  "symmetrical", "aerial",      "steady", "bout"};
+    if (!stride["symmetrical"].get<bool>()) keys.insert({"lead", "hind_lead"});
     EXPECT_EQ(keysOf(stride), keys);
     EXPECT_EQ(keysOf(stride["duty_factor"]), limbKeys);
     EXPECT_EQ(keysOf(stride["phase"]), limbKeys);
@@ -76,7 +77,7 @@ void expectDesignReport(const Json& report, const std::vector<std::string>& labe
                 stride["sequence"] == "diagonal");
   }
   if (report.contains("hildebrand") && !report["hildebrand"].is_null()) {
-    EXPECT_EQ(keysOf(report["hildebrand"]), (Keys{"duty_factor", "limb_phase", "band"}));
+    EXPECT_EQ(keysOf(report["hildebrand"]), (Keys{"n", "duty_factor", "limb_phase", "band"}));
   }
   double supportSum = 0;
   for (auto it = report["support"].begin(); it != report["support"].end(); ++it) {
@@ -86,10 +87,22 @@ void expectDesignReport(const Json& report, const std::vector<std::string>& labe
   if (!report["support"].empty()) {
     EXPECT_NEAR(supportSum, 1.0, 1e-9);
   }
+  // Source: issue 16 / docs/methods.md §11: each SUMMARY member has the shape of the
+  // trial-level member of the same name.
+  const auto expectSummary = [&](const Json& summary) {
+    EXPECT_EQ(keysOf(summary), (Keys{"strides", "limbs", "phase", "hildebrand", "support",
+                                     "symmetry", "speed", "dap"}));
+    EXPECT_EQ(keysOf(summary["limbs"]), limbKeys);
+    EXPECT_EQ(keysOf(summary["phase"]), limbKeys);
+    EXPECT_EQ(keysOf(summary["symmetry"]), keysOf(report["symmetry"]));
+  };
   for (const Json& bout : report["bouts"]) {
     EXPECT_EQ(keysOf(bout),
-              (Keys{"gait", "first_stride", "last_stride", "start_frame", "end_frame"}));
+              (Keys{"gait", "first_stride", "last_stride", "start_frame", "end_frame", "summary"}));
+    expectSummary(bout["summary"]);
   }
+  for (const auto& [gait, summary] : report["by_gait"].items()) expectSummary(summary);
+  EXPECT_EQ(report["mixed_gaits"].get<bool>(), report["by_gait"].size() > 1);
   EXPECT_EQ(keysOf(report["symmetry"]), (Keys{"stance_s", "swing_s", "duty_factor"}));
   if (!report["speed"].is_null()) {
     EXPECT_EQ(keysOf(report["speed"]),
@@ -219,7 +232,11 @@ TEST(ScoreCli, ClipStartingAndEndingMidStanceIsNormal) {
             "limb,event,frame\nLH,liftoff,10\nLH,touchdown,100\nLH,liftoff,160\n"
             "LH,touchdown,225\nLH,liftoff,285\nLH,touchdown,350\n");
   const Json report = scoreJson({folder / "mid.csv", "--fps", "250"});
-  EXPECT_TRUE(report["problems"].empty()) << report["problems"];
+  // Only the untagged limbs are problems (docs/methods.md §1.5), never LH's mid-stance ends.
+  for (const Json& problem : report["problems"]) {
+    EXPECT_NE(problem["limb"], "LH") << problem;
+    EXPECT_NE(problem["message"].get<std::string>().find("has no tags"), std::string::npos);
+  }
   EXPECT_EQ(report["limbs"]["LH"]["strides"], 2);
 }
 
