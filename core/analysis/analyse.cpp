@@ -103,12 +103,23 @@ void sortProblems(std::vector<Problem>& problems) {
   });
 }
 
+// Strides a person excluded keep their label and place (so bouts stay whole) but are left
+// out of every summary.
+void markExclusions(const model::Annotation& annotation, std::vector<StrideRecord>& strides) {
+  for (const model::StrideExclusion& x : annotation.excluded) {
+    const auto it = std::lower_bound(
+        strides.begin(), strides.end(), x.startFrame,
+        [](const StrideRecord& s, std::int64_t frame) { return s.startFrame < frame; });
+    if (it != strides.end() && it->startFrame == x.startFrame) it->excluded = x.reason;
+  }
+}
+
 // Strides the trial's summaries use: steady and not transitions (unclassified strides still
 // give the limbs they have, so a trial tagged on some limbs only is measured).
 std::vector<int> trialMembers(const std::vector<StrideRecord>& strides) {
   std::vector<int> members;
   for (std::size_t i = 0; i < strides.size(); ++i)
-    if (strides[i].steady && strides[i].gait != "transition")
+    if (strides[i].steady && strides[i].gait != "transition" && !strides[i].excluded)
       members.push_back(static_cast<int>(i));
   return members;
 }
@@ -176,6 +187,7 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.cycles = allCycles(scan);
   checkStrideTimes(report, scan.problems);
 
+  markExclusions(annotation, report.strides);
   report.bouts = findBouts(report.strides, options.minBoutStrides);
   report.transitions = findTransitions(report.bouts, report.strides);
   const SummaryInputs in{annotation.limbs, annotation.captureRate, reference,

@@ -99,7 +99,7 @@ std::vector<int> summarisedMembers(const std::vector<StrideRecord>& strides, con
   std::vector<int> members;
   for (int i = bout.firstStride; i <= bout.lastStride; ++i) {
     const StrideRecord& s = strides[static_cast<std::size_t>(i)];
-    if (s.gait == bout.gait && s.steady) members.push_back(i);
+    if (s.gait == bout.gait && s.steady && !s.excluded) members.push_back(i);
   }
   return members;
 }

@@ -12,7 +12,7 @@ namespace stridemark::analysis {
 // Relabels transition strides and sets each stride's `bout`.
 std::vector<Bout> findBouts(std::vector<StrideRecord>& strides, int minStrides = 2);
 
-// The strides of a bout that its statistics use: steady and classified.
+// The strides of a bout that its statistics use: steady, classified and not excluded.
 std::vector<int> summarisedMembers(const std::vector<StrideRecord>& strides, const Bout& bout);
 
 // A transition joins two bouts of different gaits when only strides lie between them.

@@ -67,6 +67,7 @@ struct StrideRecord {
   bool complete = false;
   bool steady = true;
   std::optional<std::string> note;       // why the stride is unclassified or left out of summaries
+  std::optional<std::string> excluded;   // a person's reason for leaving it out of statistics
   int bout = -1;                         // index into Report::bouts, -1 when in none
   bool aerial = false;                   // a whole-body suspension inside the stride
   std::optional<double> hindDutyFactor;  // Hildebrand y (quadrupeds)

@@ -137,6 +137,7 @@ void writeStrideExtra(JsonOut& out, const analysis::StrideRecord& s) {
   out.key("complete");
   out.boolean(s.complete);
   text("note", s.note);
+  text("excluded", s.excluded);
   out.endObject();
 }
 

@@ -95,6 +95,7 @@ void readStrideExtra(const JsonIn& in, analysis::StrideRecord& stride) {
   stride.foreContralateral = number("fore_contralateral");
   if (const auto complete = in.find("complete")) stride.complete = complete->boolean();
   stride.note = textOrNull(in, "note");
+  stride.excluded = textOrNull(in, "excluded");
 }
 
 std::map<std::string, double> readNumberMap(const JsonIn& in) {

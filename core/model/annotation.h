@@ -48,13 +48,22 @@ struct FrameRange {
 };
 
 // What analysis consumes: a limb set, a capture rate and the tags.
+// A reference stride a person left out of the statistics, keyed by the frame it starts on
+// (the reference limb's touchdown); it stays visible, with its reason.
+struct StrideExclusion {
+  std::int64_t startFrame = 0;
+  std::string reason;
+  friend bool operator==(const StrideExclusion&, const StrideExclusion&) = default;
+};
+
 struct Annotation {
   LimbSet limbs = LimbSet::quadruped();
   Rational captureRate{240, 1};
   int referenceLimb = LimbSet::quadruped().defaultReference();
   std::vector<Event> events;  // kept sorted (see Event ordering) by normalize()
   std::vector<HiddenSpan> hidden;
-  std::optional<FrameRange> clip;  // frames that exist in the video, when known
+  std::optional<FrameRange> clip;         // frames that exist in the video, when known
+  std::vector<StrideExclusion> excluded;  // ascending by start frame
 
   void normalize();  // sort events and hidden spans
   // Events of one limb in frame order (the vector must be normalized).

@@ -271,8 +271,10 @@ void problemsAndExclusions(PdfDocument& doc, const Report& r) {
   QStringList lines;
   for (std::size_t i = 0; i < r.strides.size(); ++i) {
     const analysis::StrideRecord& s = r.strides[i];
-    if (s.gait != "unclassified" && s.gait != "transition" && s.steady) continue;
-    const QString why = s.note ? qs(*s.note) : qs(s.gait);
+    if (s.gait != "unclassified" && s.gait != "transition" && s.steady && !s.excluded) continue;
+    const QString why = s.excluded ? QStringLiteral("excluded by the scorer: ") + qs(*s.excluded)
+                        : s.note   ? qs(*s.note)
+                                   : qs(s.gait);
     lines << QStringLiteral("Stride %1 (frames %2–%3, %4): %5.")
                  .arg(i + 1)
                  .arg(s.startFrame)

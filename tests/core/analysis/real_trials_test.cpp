@@ -240,5 +240,25 @@ TEST(RealTrials, DiagonalAdvancedPlacementPerDiagonal) {
   EXPECT_NEAR(r.dap->lhRfPercent.mean, 1.5, 1e-9);
 }
 
+TEST(RealTrials, AnExcludedStrideStaysVisibleButLeavesTheStatistics) {
+  // Issue 16 item 6 (our rule): an excluded stride keeps its place and label, carries its
+  // reason, and no summary counts it. Stride 2 of a trot gets a longer LH stance.
+  model::Annotation a = testing::symmetricalQuadruped(0.4, 0.5);
+  for (model::Event& e : a.events)
+    if (e.limb == LH && e.frame == 1000 + 2 * 1200 + 480) e.frame += 60;
+  const Report before = analyse(a);
+  a.excluded.push_back({1000 + 2 * 1200, "the dog looked back at the handler"});
+  const Report r = analyse(a);
+  ASSERT_EQ(r.strides.size(), before.strides.size());
+  EXPECT_EQ(r.strides[2].gait, before.strides[2].gait);
+  ASSERT_TRUE(r.strides[2].excluded);
+  EXPECT_EQ(*r.strides[2].excluded, "the dog looked back at the handler");
+  EXPECT_EQ(r.limbSummary[LH].dutyFactor.n, before.limbSummary[LH].dutyFactor.n - 1);
+  EXPECT_NEAR(r.limbSummary[LH].dutyFactor.mean, 0.4, 1e-12);
+  EXPECT_GT(before.limbSummary[LH].dutyFactor.mean, 0.4);
+  EXPECT_EQ(r.bouts.size(), 1u);  // the bout stays whole
+  EXPECT_EQ(r.bouts[0].summary.strides, before.bouts[0].summary.strides - 1);
+}
+
 }  // namespace
 }  // namespace stridemark::analysis
