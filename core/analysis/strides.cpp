@@ -93,11 +93,15 @@ class StrideBuilder {
     s.ownCycle.assign(n, std::nullopt);
     firsts_.assign(n, std::nullopt);
     firstCycles_.assign(n, nullptr);
+    // A limb landing with the reference limb (a trot's diagonal partner) would land on either
+    // side of the window's start as the tags jitter by a frame or two, and so be counted 0 or
+    // 2 times: the window opens `lead` frames early (our choice: the simultaneity tolerance).
+    const std::int64_t lead = leadFrames(s.endFrame - s.startFrame);
     for (std::size_t i = 0; i < n; ++i) {
       const LimbTrack& t = tracks_[i];
-      const WindowPhase wp = phaseInWindow(t.touchdowns, s.startFrame, s.endFrame);
+      const WindowPhase wp = phaseInWindow(t.touchdowns, s.startFrame - lead, s.endFrame - lead);
       s.touchdownCount[i] = wp.touchdowns;
-      s.phase[i] = wp.phase;
+      if (wp.phase) s.phase[i] = wrapPhase(relativePhase(*wp.first, s.startFrame, s.endFrame));
       firsts_[i] = wp.first;
       if (!wp.first) continue;
       const LimbCycle* cycle = cycleStartingAt(t, *wp.first);
@@ -108,13 +112,20 @@ class StrideBuilder {
     }
   }
 
+  std::int64_t leadFrames(std::int64_t strideFrames) const {
+    const auto share =
+        static_cast<std::int64_t>(settings_.tolerances.tau * static_cast<double>(strideFrames));
+    return std::min(std::max<std::int64_t>(share, settings_.minTauFrames), strideFrames / 4);
+  }
+
   // Phase of `target` in the cycle of `base` that starts first in the stride; falls back to the
   // difference of their phases in the reference stride when that cycle is not usable.
   std::optional<double> pairPhase(const StrideRecord& s, int base, int target) const {
     if (const LimbCycle* c = firstCycles_[static_cast<std::size_t>(base)]) {
+      const std::int64_t lead = leadFrames(c->strideFrames());
       const WindowPhase wp =
-          phaseInWindow(track(target).touchdowns, c->touchdown, c->nextTouchdown);
-      if (wp.phase) return wp.phase;
+          phaseInWindow(track(target).touchdowns, c->touchdown - lead, c->nextTouchdown - lead);
+      if (wp.phase) return wrapPhase(relativePhase(*wp.first, c->touchdown, c->nextTouchdown));
       if (wp.ambiguous()) return std::nullopt;
     }
     const auto& pb = s.phase[static_cast<std::size_t>(base)];

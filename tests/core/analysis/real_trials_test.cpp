@@ -3,6 +3,7 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <random>
 #include <set>
 
 #include "analysis/analyse.h"
@@ -73,6 +74,32 @@ TEST(RealTrials, HiddenFootMakesTheStrideUnclassifiedNotAGallop) {
     }
   }
   EXPECT_EQ(r.bouts.size(), 1u);  // the unclassified stride does not end the trot bout
+}
+
+TEST(RealTrials, ADiagonalPartnerLandingAFrameEarlyStillCounts) {
+  // Our choice (docs/methods.md §1.5): a trot's diagonal partner lands with the reference limb,
+  // a frame or two either side as tags jitter; it must count once per stride, never 0 or 2
+  // times (which would leave half the strides unclassified).
+  std::mt19937 random(16);
+  std::uniform_int_distribution<int> jitter(-2, 2);
+  model::Annotation a;
+  a.captureRate = Rational{250, 1};
+  a.referenceLimb = LH;
+  const double offset[] = {0.5, 0.0, 0.0, 0.5};
+  for (int k = 0; k < 40; ++k)
+    for (int limb = 0; limb < 4; ++limb) {
+      const std::int64_t td = 100 + k * 100 + static_cast<std::int64_t>(offset[limb] * 100) +
+                              (limb == LH ? 0 : jitter(random));
+      a.events.push_back({td, limb, EventKind::touchdown});
+      a.events.push_back({td + 40, limb, EventKind::liftoff});
+    }
+  a.normalize();
+  const Report r = analyse(a);
+  ASSERT_EQ(r.strides.size(), 39u);
+  for (const StrideRecord& s : r.strides) {
+    EXPECT_EQ(s.gait, "trot") << s.startFrame << " " << s.note.value_or("");
+    EXPECT_EQ(s.touchdownCount[RF], 1) << s.startFrame;
+  }
 }
 
 TEST(RealTrials, LabelsDoNotDependOnTheReferenceLimb) {
