@@ -2,18 +2,28 @@
 // The workstation window: Viewer and Footfall lanes in the centre, analysis docks around them,
 // transport and tag keys on the keyboard. All edits go through the ProjectDocument; analysis
 // reruns on a worker after each edit; frames come from the video engine without blocking.
+//
+// One class, its definitions split by concern: main_window.cpp (wiring and saved window
+// state), main_window_docks.cpp, main_window_menus.cpp (actions made from ui/keys/action_table),
+// main_window_open.cpp and main_window_save.cpp (file and session: open, recover, save,
+// journal), main_window_proxy.cpp (stepping proxy status), main_window_transport.cpp (play,
+// step, seek), main_window_tagging.cpp (tag keys, hidden spans), main_window_display.cpp
+// (report, title, status), main_window_export.cpp and main_window_settings.cpp.
 #include <QElapsedTimer>
 #include <QMainWindow>
 #include <QStringList>
 #include <QTimer>
 #include <cstdint>
+#include <functional>
+#include <map>
 #include <memory>
 #include <optional>
 
 #include "analysis/report.h"
-#include "ui/app/analysis_runner.h"
-#include "ui/app/video_source.h"
 #include "ui/document/project_document.h"
+#include "ui/keys/key_bindings.h"
+#include "ui/session/analysis_runner.h"
+#include "ui/session/video_source.h"
 #include "ui/widgets/tag_keys.h"
 
 class QAction;
@@ -47,8 +57,16 @@ class MainWindow : public QMainWindow {
   bool saveProjectAs(const QString& path);
   // Gait map, Phase dial, duty plot and footfall diagram as SVG, PNG and PDF in `dir`.
   bool exportFiguresTo(const QString& dir);
+
+  // The window's command for `id` of the action table (nullptr before the menus exist).
+  QAction* action(ActionId id) const;
   // File > Export… (Ctrl+E); exposed for tests.
-  QAction* exportAction() const { return exportAction_; }
+  QAction* exportAction() const { return action(ActionId::exportProject); }
+  QAction* hiddenSpanAction() const { return action(ActionId::markHiddenSpans); }
+  QAction* stepOnProxyAction() const { return action(ActionId::stepOnProxy); }
+  const KeyBindings& keyBindings() const { return bindings_; }
+  // Help > Keyboard cheat sheet, for the bindings and tag keys in force.
+  QString cheatSheetHtml() const;
 
   void seek(std::int64_t frame);
   std::int64_t playhead() const { return playhead_; }
@@ -57,7 +75,6 @@ class MainWindow : public QMainWindow {
   bool tagLimb(int limb, bool opposite = false);
   // Marks these hidden spans as one undoable edit (Edit > Mark hidden span for limbs…).
   bool markHiddenSpans(const std::vector<model::HiddenSpan>& spans);
-  QAction* hiddenSpanAction() const { return hiddenSpanAction_; }
 
   ProjectDocument* document() { return &doc_; }
   AnalysisRunner* analysisRunner() { return &runner_; }
@@ -74,7 +91,6 @@ class MainWindow : public QMainWindow {
   // Settings > Frame cache: the budget for decoded frames, saved, applied to the open video at
   // once, and the stepping proxy offered if the new budget is too small for its keyframe spacing.
   void setFrameCacheBudget(std::size_t bytes);
-  QAction* stepOnProxyAction() const { return stepOnProxyAction_; }
   QPushButton* proxyCancelButton() const { return proxyCancel_; }
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
 
@@ -85,45 +101,68 @@ class MainWindow : public QMainWindow {
   void dropEvent(QDropEvent* event) override;
 
  private:
+  // Wiring and window state (main_window.cpp).
+  void connectDocument();
+  void restoreSettings();
+  // Docks (main_window_docks.cpp).
   void buildDocks();
+  // Menus and actions from the action table (main_window_menus.cpp).
   void buildActions();
-  QAction* addAction(QMenu* menu, const QString& text, const QKeySequence& key,
-                     std::function<void()> slot);
-  void onAnnotationChanged();
-  void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);
-  void onFrame(qint64 frame, const QImage& image);
+  QAction* makeAction(const ActionSpec& spec);
+  std::function<void()> handlerFor(ActionId id);
+  void connectToggles();
+  void insertViewToggles();
+  void applyKeyBindings();
+  void addRecent(const QString& path);
+  void rebuildRecentMenu();
+  // Opening (main_window_open.cpp).
+  void openDialog();
+  std::optional<model::Project> offerRecovery(const QString& journalFile);
+  bool openVideoForProject(const QString& projectPath);
   void attachVideo(std::unique_ptr<VideoSource> video);
+  void connectVideo();
+  // Saving (main_window_save.cpp).
+  bool maybeSave();
+  bool save();
+  bool saveAsDialog();
+  // Stepping proxy status (main_window_proxy.cpp).
   void buildProxyStatus();
   void showProxyProgress(bool on);
   void connectProxySignals();
   void cancelProxyBuild();
-  bool openVideoForProject(const QString& projectPath);
-  std::optional<model::Project> offerRecovery(const QString& journalFile);
-  bool maybeSave();
-  bool save();
-  bool saveAsDialog();
+  // Transport (main_window_transport.cpp).
+  void onFrame(qint64 frame, const QImage& image);
   void stepBy(std::int64_t delta);
   void jumpToEvent(int direction);
+  void togglePlayback(int direction);
   void startPlayback(int direction);
   void stopPlayback();
   void playTick();
   void changeSpeed(int direction);
   void goToDialog();
+  void bigStepDialog();
+  QString speedText() const;  // "1/4×"
+  // Tagging (main_window_tagging.cpp).
   void toggleHiddenSpan();
   void hiddenSpanDialog();
   void selectLimb(int limb);
+  void reloadTagKeysIfLimbsChanged();
+  // Display (main_window_display.cpp).
+  void onAnnotationChanged();
+  void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);
   void updateTitle();
   void updateStatus();
-  void addRecent(const QString& path);
-  void rebuildRecentMenu();
+  // Export (main_window_export.cpp). File > Export…: saves first when needed, then opens the
+  // Export dialog on the project file.
+  void exportFigures();
+  bool saveBeforeExport();
+  void openExport();
+  // Settings and dialogs (main_window_settings.cpp).
   void setTheme(bool dark);
   void editTrialCard();
   void editTagKeys();
+  void editKeyBindings();
   void editFrameCacheBudget();
-  void exportFigures();
-  // File > Export…: saves first when needed, then opens the Export dialog on the project file.
-  bool saveBeforeExport();
-  void openExport();
 
   ProjectDocument doc_;
   AnalysisRunner runner_;
@@ -132,6 +171,7 @@ class MainWindow : public QMainWindow {
   std::shared_ptr<const analysis::Report> report_;
   std::uint64_t shownRevision_ = 0;
   TagKeyMap keys_;
+  KeyBindings bindings_;
 
   Viewer* viewer_ = nullptr;
   FootfallLanes* lanes_ = nullptr;
@@ -145,12 +185,7 @@ class MainWindow : public QMainWindow {
   QLabel* status_ = nullptr;
   QMenu* recentMenu_ = nullptr;
   QMenu* viewMenu_ = nullptr;
-  QAction* autoAdvanceAction_ = nullptr;
-  QAction* exportAction_ = nullptr;
-  QAction* darkAction_ = nullptr;
-  QAction* stepOnProxyAction_ = nullptr;
-  QAction* hiddenSpanAction_ = nullptr;
-  QAction* cancelProxyAction_ = nullptr;
+  std::map<ActionId, QAction*> actions_;
   QProgressBar* proxyBar_ = nullptr;
   QPushButton* proxyCancel_ = nullptr;
 

@@ -6,8 +6,8 @@
 
 #include "common/caution.h"
 #include "stridemark/version.h"
-#include "ui/app/palettes.h"
 #include "ui/main_window.h"
+#include "ui/session/palettes.h"
 
 int main(int argc, char** argv) {
   QApplication app(argc, argv);

@@ -1,7 +1,7 @@
 // Desk re-scoring after an edit on a long trial (issue 15): a treadmill trot of 2,500 strides
 // (~20,000 events at 240 fps, ~21 minutes) open in the real main window; each edit moves one
 // event by one frame through the desk's undo command (ProjectDocument::moveEvents, as a drag
-// does), and the desk re-scores on its worker thread (ui/app/analysis_runner.h). Measured per
+// does), and the desk re-scores on its worker thread (ui/session/analysis_runner.h). Measured per
 // edit: from the edit to the report being in the desk (MainWindow has taken it and handed it to
 // every panel: the "finished" signal, after the window's own slot), and, for information, to
 // the end of the repaint that shows it. The reference, measured after each edit in the same run
@@ -26,7 +26,7 @@
 #include "synth/gait.h"
 #include "synth/timeline.h"
 #include "tests/bench/repaint_probe.h"
-#include "ui/app/analysis_runner.h"
+#include "ui/session/analysis_runner.h"
 #include "ui/document/journal.h"
 #include "ui/document/project_document.h"
 #include "ui/main_window.h"

@@ -5,7 +5,7 @@
 // which is what a step costs before any widget is involved. Prints JSON.
 // A desk step ends when the repaint that drew the frame has finished (all widgets painted, the
 // window flushed); work the desk queues behind the repaint, such as making the picture of the
-// next frame ahead (ui/app/video_source.h), is not latency and is not counted. How many steps
+// next frame ahead (ui/session/video_source.h), is not latency and is not counted. How many steps
 // were answered with a picture made ahead is printed as desk_steps_made_ahead.
 // "Holding" presses the key at an auto-repeat rate (30 per second, as X11 and macOS repeat
 // fast keys); the unpaced runs (next press as soon as the frame is painted) are printed too.

@@ -1,4 +1,4 @@
-// Pictures made ahead in the direction of travel (ui/app/video_source): a step that continues
+// Pictures made ahead in the direction of travel (ui/session/video_source): a step that continues
 // the last one is answered at once with the next frame's picture, which must be exactly the
 // frame asked for (checked against the ffmpeg CLI's decode) and never a stale one after a
 // jump or a change of display size.
@@ -11,7 +11,7 @@
 #include "tests/support/process.h"
 #include "tests/ui/frame_reference.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/video_source.h"
+#include "ui/session/video_source.h"
 
 namespace stridemark::ui {
 namespace {

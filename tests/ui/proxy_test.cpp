@@ -17,8 +17,8 @@
 #include "tests/support/process.h"
 #include "tests/ui/frame_reference.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/video_source.h"
 #include "ui/main_window.h"
+#include "ui/session/video_source.h"
 #include "ui/widgets/viewer.h"
 
 namespace stridemark::ui {

@@ -10,7 +10,7 @@
 
 #include "synth/synth.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/guarded.h"
+#include "ui/session/guarded.h"
 
 namespace stridemark::ui::test {
 

@@ -8,8 +8,8 @@
 
 #include "formats/project_file.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/video_source.h"
 #include "ui/main_window.h"
+#include "ui/session/video_source.h"
 
 namespace stridemark::ui {
 namespace {

@@ -1,16 +1,22 @@
 // Screenshots of the main window with a scored sample in the light and dark palettes, written
 // to the build folder for people to look at, with checks that catch a blank or unthemed window.
 #include <gtest/gtest.h>
+#include <QApplication>
 #include <QCoreApplication>
 #include <QDir>
 #include <QImage>
+#include <QPainter>
 #include <QSet>
 #include <QTemporaryDir>
+#include <QTextBrowser>
+#include <QTextDocument>
+#include <QTimer>
 
 #include "tests/support/process.h"
 #include "tests/ui/test_support.h"
-#include "ui/app/palettes.h"
+#include "ui/keys/action_table.h"
 #include "ui/main_window.h"
+#include "ui/session/palettes.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
 
@@ -83,6 +89,45 @@ int distinctColours(const QImage& image) {
   for (int y = 0; y < image.height(); y += 3)
     for (int x = 0; x < image.width(); x += 3) colours.insert(image.pixel(x, y));
   return static_cast<int>(colours.size());
+}
+
+// The dialog a window action opens, grabbed from inside its own event loop and closed.
+QImage shootDialogOf(QAction* action, const QString& name, QString* text = nullptr) {
+  QImage shot;
+  QTimer::singleShot(200, [&] {
+    auto* dialog = QApplication::activeModalWidget();
+    if (!dialog) return;
+    shot = dialog->grab().toImage();
+    if (auto* browser = dialog->findChild<QTextBrowser*>(); browser && text) {
+      *text = browser->toPlainText();
+      // The whole sheet in one picture, not only what the dialog shows before scrolling.
+      auto* doc = browser->document();
+      QImage whole(doc->size().toSize(), QImage::Format_RGB32);
+      whole.fill(Qt::white);
+      QPainter painter(&whole);
+      doc->drawContents(&painter);
+      whole.save(screenshotDir() + QStringLiteral("/whole-") + name);
+    }
+    shot.save(screenshotDir() + QLatin1Char('/') + name);
+    dialog->close();
+  });
+  action->trigger();
+  return shot;
+}
+
+TEST(Screenshots, CheatSheetAndKeyDialogs) {
+  QDir().mkpath(screenshotDir());
+  MainWindow w;
+  w.show();
+  QString text;
+  const QImage sheet =
+      shootDialogOf(w.action(ActionId::cheatSheet), QStringLiteral("cheat-sheet.png"), &text);
+  ASSERT_FALSE(sheet.isNull()) << "Help > Keyboard cheat sheet opened no dialog";
+  EXPECT_GT(distinctColours(sheet), 20);
+  EXPECT_TRUE(text.contains(QStringLiteral("Footfall lanes"))) << text.toStdString();
+  EXPECT_FALSE(
+      shootDialogOf(w.action(ActionId::keyBindings), QStringLiteral("key-bindings.png")).isNull());
+  EXPECT_FALSE(shootDialogOf(w.action(ActionId::tagKeys), QStringLiteral("tag-keys.png")).isNull());
 }
 
 // High-DPI: QT_SCALE_FACTOR must be set before the QApplication exists, so the window is drawn

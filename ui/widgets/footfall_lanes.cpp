@@ -4,11 +4,13 @@
 #include <QFontMetricsF>
 #include <QMouseEvent>
 #include <QPainter>
+#include <QStringList>
 #include <QWheelEvent>
 #include <algorithm>
 #include <cmath>
 
 #include "ui/document/project_document.h"
+#include "ui/keys/action_table.h"
 
 namespace stridemark::ui {
 
@@ -21,9 +23,13 @@ constexpr double kAxisAllowance = 30;  // the time axis under the lanes (figures
 
 FootfallLanes::FootfallLanes(ProjectDocument* doc, QWidget* parent) : QWidget(parent), doc_(doc) {
   setAccessibleName(tr("Footfall lanes"));
-  setAccessibleDescription(
-      tr("One lane per limb: stance bars and event ticks. Click to seek, drag a tick to move "
-         "it, Ctrl+click to select several, Ctrl+wheel to zoom."));
+  // The gestures as the cheat sheet lists them (ui/keys/action_table.cpp).
+  QStringList gestures;
+  for (const auto& g : gestureTable())
+    if (g.place == Place::lanes)
+      gestures << gestureText(g) + QStringLiteral(": ") + gestureEffect(g);
+  setAccessibleDescription(tr("One lane per limb: stance bars and event ticks. %1.")
+                               .arg(gestures.join(QStringLiteral("; "))));
   setFocusPolicy(Qt::StrongFocus);
   updateMetrics();
   setMouseTracking(false);

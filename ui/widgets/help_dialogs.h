@@ -1,13 +1,9 @@
 #pragma once
-// Keyboard cheat sheet and the about box (with the clinical caution).
+// The about box, with the caution (core/common/caution.h). The cheat sheet lives in ui/keys.
 class QWidget;
 
 namespace stridemark::ui {
 
-class TagKeyMap;
-
-void showCheatSheet(QWidget* parent, const TagKeyMap& keys);
 void showAbout(QWidget* parent);
-extern const char* const kClinicalCautionText;
 
 }  // namespace stridemark::ui

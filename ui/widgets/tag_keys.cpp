@@ -11,6 +11,9 @@
 #include <algorithm>
 
 #include "ui/figures/figure_style.h"
+#include "ui/keys/action_table.h"
+#include "ui/keys/key_bindings.h"
+#include "ui/keys/shortcut_edit.h"
 
 namespace stridemark::ui {
 
@@ -65,30 +68,8 @@ void TagKeyMap::save() const {
 }
 
 bool TagKeyMap::isReserved(int key) {
-  switch (key) {
-    case Qt::Key_Left:
-    case Qt::Key_Right:
-    case Qt::Key_Up:
-    case Qt::Key_Down:
-    case Qt::Key_Space:
-    case Qt::Key_Home:
-    case Qt::Key_End:
-    case Qt::Key_Delete:
-    case Qt::Key_Backspace:
-    case Qt::Key_Escape:
-    case Qt::Key_Tab:
-    case Qt::Key_Return:
-    case Qt::Key_Enter:
-    case Qt::Key_BracketLeft:
-    case Qt::Key_BracketRight:
-    case Qt::Key_Comma:
-    case Qt::Key_Period:
-    case Qt::Key_Plus:
-    case Qt::Key_Minus:
-      return true;
-    default:
-      return key == 0 || key == Qt::Key_unknown;
-  }
+  // The keys of the commands in force (see ui/keys/action_table.cpp) and of dialogs.
+  return isDialogKey(key) || KeyBindings::load().usesPlainKey(key);
 }
 
 bool TagKeyMap::bind(int limb, int key) {
@@ -123,8 +104,11 @@ void TagKeyLegend::setKeys(const TagKeyMap& keys) {
     desc << tr("%1: %2").arg(QString::fromStdString(keys.limbs().label(i)),
                              TagKeyMap::keyText(keys.keyFor(i)));
   setAccessibleDescription(desc.join(QStringLiteral(", ")));
-  setToolTip(tr("Tag keys (press to mark touchdown in swing, lift-off in stance): ") +
-             desc.join(QStringLiteral(", ")));
+  QStringList uses;
+  for (const auto& use : tagKeyUses())
+    uses << modifierText(use.modifiers) + tr("key: %1").arg(tagKeyEffect(use));
+  setToolTip(
+      tr("Tag keys: %1.\n%2").arg(desc.join(QStringLiteral(", ")), uses.join(QLatin1Char('\n'))));
   updateGeometry();
   update();
 }
@@ -168,7 +152,7 @@ TagKeyDialog::TagKeyDialog(const TagKeyMap& keys, QWidget* parent) : QDialog(par
   setWindowTitle(tr("Tag keys"));
   auto* form = new QFormLayout;
   for (int i = 0; i < keys.limbs().size(); ++i) {
-    auto* edit = new QKeySequenceEdit(QKeySequence(keys.keyFor(i)));
+    auto* edit = new ShortcutEdit(QKeySequence(keys.keyFor(i)));
     const auto label = QString::fromStdString(keys.limbs().label(i));
     edit->setAccessibleName(tr("Tag key for %1").arg(label));
     form->addRow(label, edit);
@@ -186,9 +170,13 @@ TagKeyDialog::TagKeyDialog(const TagKeyMap& keys, QWidget* parent) : QDialog(par
       edits_[i]->setKeySequence(QKeySequence(defaults.keyFor(static_cast<int>(i))));
   });
   auto* layout = new QVBoxLayout(this);
-  layout->addWidget(
-      new QLabel(tr("One plain key per limb (no modifiers). Arrows, space, "
-                    "Home/End, brackets, comma and period belong to the transport.")));
+  auto* rule =
+      new QLabel(tr("One plain key per limb (no modifiers). These keys belong to "
+                    "commands (%1): %2.")
+                     .arg(menuPath(ActionId::keyBindings),
+                          KeyBindings::load().plainKeyNames().join(QStringLiteral("  ·  "))));
+  rule->setWordWrap(true);
+  layout->addWidget(rule);
   layout->addLayout(form);
   layout->addWidget(error_);
   layout->addWidget(buttons);

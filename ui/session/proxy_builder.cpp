@@ -1,4 +1,4 @@
-#include "ui/app/proxy_builder.h"
+#include "ui/session/proxy_builder.h"
 
 #include <QDir>
 #include <QFile>

@@ -1,4 +1,4 @@
-#include "ui/app/analysis_runner.h"
+#include "ui/session/analysis_runner.h"
 
 #include <QMetaObject>
 #include <exception>

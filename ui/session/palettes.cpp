@@ -1,4 +1,4 @@
-#include "ui/app/palettes.h"
+#include "ui/session/palettes.h"
 
 #include <QApplication>
 #include <QStyleFactory>

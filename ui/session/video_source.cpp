@@ -1,4 +1,4 @@
-#include "ui/app/video_source.h"
+#include "ui/session/video_source.h"
 
 #include <QCoreApplication>
 #include <QCryptographicHash>
@@ -12,7 +12,7 @@
 #include <cstdlib>
 
 #include "common/error.h"
-#include "ui/app/proxy_builder.h"
+#include "ui/session/proxy_builder.h"
 #include "video/intra_proxy.h"
 
 namespace stridemark::ui {

@@ -1,4 +1,4 @@
-#include "ui/app/guarded.h"
+#include "ui/session/guarded.h"
 
 #include <QMessageBox>
 #include <exception>

@@ -1,0 +1,58 @@
+// The analysis docks around the Viewer and the lanes, and where each starts.
+#include <QDockWidget>
+#include <QUndoView>
+
+#include "ui/figures/analysis_figures.h"
+#include "ui/main_window.h"
+#include "ui/widgets/figure_view.h"
+#include "ui/widgets/report_panels.h"
+#include "ui/widgets/stride_sheet.h"
+
+namespace stridemark::ui {
+
+void MainWindow::buildDocks() {
+  auto dock = [this](const QString& title, const QString& name, QWidget* w,
+                     Qt::DockWidgetArea area) {
+    auto* d = new QDockWidget(title, this);
+    d->setObjectName(name);
+    d->setWidget(w);
+    addDockWidget(area, d);
+    return d;
+  };
+  sheet_ = new StrideSheet;
+  connect(sheet_, &StrideSheet::seekRequested, this, [this](qint64 f) { seek(f); });
+  gaitMap_ = new FigureView(tr("Gait map"), figures::paintGaitMap);
+  phaseDial_ = new FigureView(tr("Phase dial"), figures::paintPhaseDial);
+  dutyPlot_ = new FigureView(tr("Duty factor per stride"), figures::paintStrideDutyPlot);
+  checks_ = new ChecksList;
+  connect(checks_, &ChecksList::seekRequested, this, [this](qint64 f) {
+    if (f >= 0) seek(f);
+  });
+  connect(checks_, &ChecksList::limbRequested, this, &MainWindow::selectLimb);
+  summary_ = new SummaryView;
+  legend_ = new TagKeyLegend;
+  auto* undoView = new QUndoView(doc_.undoStack());
+  undoView->setAccessibleName(tr("Edit history"));
+
+  // Right: Gait map above, Phase dial and Summary tabbed below it.
+  dock(tr("Gait map"), QStringLiteral("dockGaitMap"), gaitMap_, Qt::RightDockWidgetArea);
+  auto* pd =
+      dock(tr("Phase dial"), QStringLiteral("dockPhaseDial"), phaseDial_, Qt::RightDockWidgetArea);
+  auto* sm = dock(tr("Summary"), QStringLiteral("dockSummary"), summary_, Qt::RightDockWidgetArea);
+  tabifyDockWidget(pd, sm);
+  pd->raise();
+  // Bottom: Stride sheet with the duty plot, Checks with the edit history.
+  auto* ss =
+      dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheet_, Qt::BottomDockWidgetArea);
+  auto* ck = dock(tr("Checks"), QStringLiteral("dockChecks"), checks_, Qt::BottomDockWidgetArea);
+  auto* dp = dock(tr("Duty per stride"), QStringLiteral("dockDutyPlot"), dutyPlot_,
+                  Qt::BottomDockWidgetArea);
+  auto* hv = dock(tr("History"), QStringLiteral("dockHistory"), undoView, Qt::BottomDockWidgetArea);
+  tabifyDockWidget(ss, dp);
+  tabifyDockWidget(ck, hv);
+  ss->raise();
+  ck->raise();
+  dock(tr("Tag keys"), QStringLiteral("dockTagKeys"), legend_, Qt::LeftDockWidgetArea);
+}
+
+}  // namespace stridemark::ui

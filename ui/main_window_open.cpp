@@ -1,0 +1,175 @@
+// Opening a video or a project: the recovery offer for a crashed session's journal, finding a
+// moved video by its signature, and attaching the video to the Viewer and the lanes.
+#include <QDirIterator>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QMessageBox>
+#include <QStatusBar>
+
+#include "common/error.h"
+#include "formats/project_file.h"
+#include "ui/document/project_io.h"
+#include "ui/main_window.h"
+#include "ui/main_window_files.h"
+#include "ui/session/guarded.h"
+#include "ui/widgets/footfall_lanes.h"
+#include "ui/widgets/viewer.h"
+
+namespace stridemark::ui {
+
+namespace {
+
+// A moved video: look for a file with the same signature near the project.
+QString findMovedVideo(const QString& projectDir, const model::VideoLink& link) {
+  if (link.signature.empty()) return {};
+  const auto dash = link.signature.find('-');
+  const qint64 size = QString::fromStdString(link.signature.substr(0, dash)).toLongLong();
+  QDirIterator it(projectDir, QDir::Files, QDirIterator::Subdirectories);
+  int visited = 0;
+  while (it.hasNext() && visited++ < 5000) {
+    const QString candidate = it.next();
+    if (QFileInfo(candidate).size() != size) continue;
+    try {
+      if (video::signatureText(video::computeSignature(candidate.toStdString())) == link.signature)
+        return candidate;
+    } catch (const Error&) {
+      // Unreadable candidate: keep looking.
+    }
+  }
+  return {};
+}
+
+}  // namespace
+
+void MainWindow::openDialog() {
+  if (!maybeSave()) return;
+  const QString path = QFileDialog::getOpenFileName(
+      this, tr("Open video or project"), QString(),
+      tr("Projects and videos (*.stridemark *.mp4 *.mov *.avi *.mkv *.m4v);;All files (*)"));
+  if (!path.isEmpty()) openPath(path);
+}
+
+bool MainWindow::openPath(const QString& path) {
+  return isProjectFile(path) ? openProject(path) : openVideo(path);
+}
+
+std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFile) {
+  std::optional<model::Project> journalled;
+  const bool readable = runGuarded(this, tr("Recover unsaved work"),
+                                   [&] { journalled = ProjectDocument::readJournal(journalFile); });
+  if (!readable || !journalled) return std::nullopt;
+  bool recover = recovery_ == RecoveryPolicy::recover;
+  if (recovery_ == RecoveryPolicy::ask) {
+    const auto answer = QMessageBox::question(
+        this, tr("Recover unsaved work"),
+        tr("Stridemark found unsaved tags from a session that ended unexpectedly (%1 events).\n"
+           "Recover them? Choosing No discards the journal.")
+            .arg(journalled->annotation.events.size()),
+        QMessageBox::Yes | QMessageBox::No, QMessageBox::Yes);
+    recover = answer == QMessageBox::Yes;
+  }
+  if (!recover) {
+    QFile::remove(journalFile);
+    return std::nullopt;
+  }
+  return journalled;
+}
+
+bool MainWindow::openVideo(const QString& path) {
+  std::unique_ptr<VideoSource> source;
+  if (!runGuarded(this, tr("Open video"),
+                  [&] { source = std::make_unique<VideoSource>(path, videoOptions_); }))
+    return false;
+  stopPlayback();
+  model::Project project;
+  project.annotation.limbs = doc_.annotation().limbs;
+  project.annotation.referenceLimb = project.annotation.limbs.defaultReference();
+  const auto& info = source->info();
+  project.annotation.captureRate = info.captureRate.valid() ? info.captureRate : Rational{30, 1};
+  project.annotation.clip = model::FrameRange{0, info.frameCount - 1};
+  project.video = source->link();
+  const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path));
+  doc_.reset(journalled ? *journalled : project, QString(), journalled.has_value());
+  attachVideo(std::move(source));
+  addRecent(path);
+  return true;
+}
+
+bool MainWindow::openProject(const QString& path) {
+  model::Project project;
+  if (!runGuarded(this, tr("Open project"), [&] { project = loadProjectFile(path); })) return false;
+  stopPlayback();
+  const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path));
+  doc_.reset(journalled ? *journalled : project, path, journalled.has_value());
+  attachVideo(nullptr);
+  openVideoForProject(path);
+  addRecent(path);
+  return true;
+}
+
+bool MainWindow::openVideoForProject(const QString& projectPath) {
+  if (!doc_.project().video) return false;
+  QString videoPath = doc_.videoPath();
+  if (!QFileInfo::exists(videoPath)) {
+    // Moved: look for the same file (by signature) near the project, else ask the user.
+    videoPath = findMovedVideo(QFileInfo(projectPath).absolutePath(), *doc_.project().video);
+    if (videoPath.isEmpty() && recovery_ == RecoveryPolicy::ask) {
+      QMessageBox::information(
+          this, tr("Video not found"),
+          tr("The video %1 was not found. Please locate it.").arg(doc_.videoPath()));
+      videoPath = QFileDialog::getOpenFileName(this, tr("Locate the video"),
+                                               QFileInfo(projectPath).absolutePath());
+    }
+    if (videoPath.isEmpty()) {
+      statusBar()->showMessage(
+          tr("Video not found: %1 (tags are still editable)").arg(doc_.videoPath()));
+      return false;
+    }
+  }
+  std::unique_ptr<VideoSource> source;
+  if (!runGuarded(this, tr("Open video"),
+                  [&] { source = std::make_unique<VideoSource>(videoPath, videoOptions_); }))
+    return false;
+  attachVideo(std::move(source));
+  return true;
+}
+
+void MainWindow::attachVideo(std::unique_ptr<VideoSource> video) {
+  video_ = std::move(video);
+  showProxyProgress(false);
+  viewer_->setFrame(-1, QImage());
+  if (video_) {
+    connectVideo();
+  } else {
+    viewer_->setPlaceholder(tr("No video: tags can still be edited in the Footfall lanes."));
+    viewer_->setSourceSize({});
+    const auto& clip = doc_.annotation().clip;
+    const auto count = clip ? clip->last + 1 : 0;
+    viewer_->setFrameCount(count);
+    lanes_->setFrameCount(count);
+  }
+  playhead_ = -1;
+  seek(0);
+  updateTitle();
+  if (video_) {
+    video_->setStepOnProxy(action(ActionId::stepOnProxy)->isChecked());
+    if (video_->startProxyIfAdvised() && video_->proxyBuilding()) showProxyProgress(true);
+  }
+}
+
+void MainWindow::connectVideo() {
+  connect(video_.get(), &VideoSource::frameReady, this, &MainWindow::onFrame);
+  connect(video_.get(), &VideoSource::frameFailed, this, [this](qint64 f, const QString& m) {
+    statusBar()->showMessage(tr("Frame %1: %2").arg(f).arg(m), 8000);
+  });
+  connectProxySignals();
+  // Pictures are made at the Viewer's fitted size (see Viewer::displayPixels).
+  connect(viewer_, &Viewer::displayPixelsChanged, video_.get(),
+          [this](QSize pixels, qreal ratio) { video_->setDisplaySize(pixels, ratio); });
+  viewer_->setSourceSize(QSize(video_->info().width, video_->info().height));
+  video_->setDisplaySize(viewer_->displayPixels(), viewer_->devicePixelRatioF());
+  viewer_->setFrameCount(video_->frameCount());
+  lanes_->setFrameCount(video_->frameCount());
+}
+
+}  // namespace stridemark::ui
