@@ -124,21 +124,41 @@ std::vector<int> trialMembers(const std::vector<StrideRecord>& strides) {
   return members;
 }
 
-void summariseBouts(Report& report, const SummaryInputs& in) {
-  std::map<std::string, std::vector<int>> byGait;
+// Summaries of the same strides are the same: a gait seen in one bout, or a trial of one
+// gait, copies the summary instead of making it again (the desk re-scores after every edit).
+struct Summaries {
+  std::vector<int> members;
+  const Summary* summary = nullptr;
+};
+
+std::map<std::string, Summaries> summariseBouts(Report& report, const SummaryInputs& in) {
+  std::map<std::string, std::vector<int>> members;
+  std::map<std::string, int> boutsOf;
   for (Bout& bout : report.bouts) {
-    const std::vector<int> members = summarisedMembers(report.strides, bout);
-    bout.summary = summariseStrides(report.strides, members, in);
-    std::vector<int>& all = byGait[bout.gait];
-    all.insert(all.end(), members.begin(), members.end());
+    const std::vector<int> own = summarisedMembers(report.strides, bout);
+    bout.summary = summariseStrides(report.strides, own, in);
+    std::vector<int>& all = members[bout.gait];
+    all.insert(all.end(), own.begin(), own.end());
+    ++boutsOf[bout.gait];
   }
-  for (auto& [gait, members] : byGait)
-    report.byGait[gait] = summariseStrides(report.strides, members, in);
+  std::map<std::string, Summaries> out;
+  for (auto& [gait, all] : members) {
+    const auto single = std::find_if(report.bouts.begin(), report.bouts.end(),
+                                     [&](const Bout& b) { return b.gait == gait; });
+    report.byGait[gait] = boutsOf[gait] == 1 ? single->summary
+                                             : summariseStrides(report.strides, all, in);
+    out[gait] = {std::move(all), &report.byGait[gait]};
+  }
   report.mixedGaits = report.byGait.size() > 1;
+  return out;
 }
 
-void summariseTrial(Report& report, const SummaryInputs& in, const AnalysisOptions& options) {
-  Summary trial = summariseStrides(report.strides, trialMembers(report.strides), in);
+void summariseTrial(Report& report, const SummaryInputs& in, const AnalysisOptions& options,
+                    const std::map<std::string, Summaries>& byGait) {
+  const std::vector<int> members = trialMembers(report.strides);
+  Summary trial = byGait.size() == 1 && byGait.begin()->second.members == members
+                      ? *byGait.begin()->second.summary
+                      : summariseStrides(report.strides, members, in);
   report.limbSummary = std::move(trial.limbs);
   report.phase = std::move(trial.phase);
   report.hildebrand = std::move(trial.hildebrand);
@@ -192,8 +212,8 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   report.transitions = findTransitions(report.bouts, report.strides);
   const SummaryInputs in{annotation.limbs, annotation.captureRate, reference,
                          speedSchedule(options), options.legLengthM};
-  summariseBouts(report, in);
-  summariseTrial(report, in, options);
+  const auto byGait = summariseBouts(report, in);
+  summariseTrial(report, in, options, byGait);
   report.problems = std::move(scan.problems);
   sortProblems(report.problems);
   return report;

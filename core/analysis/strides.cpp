@@ -282,8 +282,11 @@ std::vector<StrideRecord> buildStrides(const model::Annotation& annotation, int 
                                        std::vector<Problem>& problems) {
   const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
   StrideBuilder builder(annotation, scan, support, settings);
+  const std::vector<LimbCycle>& reference =
+      scan.tracks[static_cast<std::size_t>(referenceLimb)].cycles;
   std::vector<StrideRecord> strides;
-  for (const LimbCycle& cycle : scan.tracks[static_cast<std::size_t>(referenceLimb)].cycles) {
+  strides.reserve(reference.size());  // records are large: no regrowth
+  for (const LimbCycle& cycle : reference) {
     if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
     std::optional<Problem> problem;
     strides.push_back(builder.build(cycle, problem));

@@ -1,6 +1,7 @@
 #include "analysis/tag_checks.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdio>
 #include <string>
@@ -8,11 +9,14 @@
 namespace stridemark::analysis {
 namespace {
 
-double median(std::vector<double> values) {
-  std::sort(values.begin(), values.end());
-  const std::size_t n = values.size();
+// Median of a few values (at most a dozen here), sorted in place.
+template <typename Values>
+double median(Values& values, std::size_t n) {
+  std::sort(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(n));
   return n % 2 ? values[n / 2] : 0.5 * (values[n / 2 - 1] + values[n / 2]);
 }
+
+constexpr std::size_t kMaxNeighbours = 16;
 
 std::string fixed(double value, int decimals) {
   char text[32];
@@ -51,38 +55,36 @@ void reportUntagged(const model::Annotation& annotation, int referenceLimb, Cycl
   }
 }
 
-// Durations of the up to `n` cycles on each side of cycle i.
-std::vector<double> neighbourDurations(const std::vector<LimbCycle>& cycles, std::size_t i, int n) {
-  std::vector<double> out;
-  const std::size_t from = i >= static_cast<std::size_t>(n) ? i - static_cast<std::size_t>(n) : 0;
-  const std::size_t to = std::min(cycles.size(), i + 1 + static_cast<std::size_t>(n));
-  for (std::size_t j = from; j < to; ++j)
-    if (j != i) out.push_back(static_cast<double>(cycles[j].strideFrames()));
-  return out;
-}
-
 void reportSuspiciousCycles(const model::Annotation& annotation, int limb, LimbTrack& track,
                             const TagCheckSettings& settings, std::vector<Problem>& problems) {
   const std::vector<LimbCycle>& cycles = track.cycles;
+  const auto side = static_cast<std::size_t>(
+      std::clamp(settings.neighbours, 1, static_cast<int>(kMaxNeighbours / 2)));
   std::vector<bool> suspicious(cycles.size(), false);
+  std::array<double, kMaxNeighbours> around{};
   for (std::size_t i = 0; i < cycles.size(); ++i) {
-    const std::vector<double> around = neighbourDurations(cycles, i, settings.neighbours);
-    if (around.size() < 2) continue;
-    const double ratio = static_cast<double>(cycles[i].strideFrames()) / median(around);
+    std::size_t n = 0;
+    for (std::size_t j = i >= side ? i - side : 0; j < std::min(cycles.size(), i + 1 + side); ++j)
+      if (j != i) around[n++] = static_cast<double>(cycles[j].strideFrames());
+    if (n < 2) continue;
+    // The median lies between the least and the greatest neighbour: within the limits of both,
+    // the cycle is fine whatever the median is (the common case; no sort needed).
+    const double d = static_cast<double>(cycles[i].strideFrames());
+    const auto [least, most] = std::minmax_element(around.begin(), around.begin() + n);
+    if (d <= settings.longCycle * *least && d >= settings.shortCycle * *most) continue;
+    const double ratio = d / median(around, n);
+    if (ratio <= settings.longCycle && ratio >= settings.shortCycle) continue;
+    suspicious[i] = true;
     const std::string what = annotation.limbs.label(limb) + " cycle " +
                              frames(cycles[i].touchdown, cycles[i].nextTouchdown) + " is " +
                              fixed(ratio, 1) + "x its neighbours: ";
-    if (ratio > settings.longCycle) {
-      problems.push_back({cycles[i].touchdown, limb,
-                          what + "a touchdown may be missing - step through these frames and "
-                                 "tag it (the cycle is left out of the statistics)"});
-      suspicious[i] = true;
-    } else if (ratio < settings.shortCycle) {
-      problems.push_back({cycles[i].touchdown, limb,
-                          what + "an extra tag or a stumble - check these tags (the cycle is "
-                                 "left out of the statistics)"});
-      suspicious[i] = true;
-    }
+    problems.push_back(
+        {cycles[i].touchdown, limb,
+         what + (ratio > settings.longCycle
+                     ? "a touchdown may be missing - step through these frames and tag it (the "
+                       "cycle is left out of the statistics)"
+                     : "an extra tag or a stumble - check these tags (the cycle is left out of "
+                       "the statistics)")});
   }
   std::vector<LimbCycle> kept;
   for (std::size_t i = 0; i < cycles.size(); ++i)
@@ -115,9 +117,9 @@ std::optional<std::pair<double, double>> dutyAround(const DutyRun& run, std::int
   const std::size_t after = std::min<std::size_t>(run.duty.size() - split, 5);
   if (before < 3 || after < 3) return std::nullopt;
   const auto at = [&](std::size_t from, std::size_t count) {
-    return median(
-        std::vector<double>(run.duty.begin() + static_cast<std::ptrdiff_t>(from),
-                            run.duty.begin() + static_cast<std::ptrdiff_t>(from + count)));
+    std::array<double, 5> values{};
+    std::copy_n(run.duty.begin() + static_cast<std::ptrdiff_t>(from), count, values.begin());
+    return median(values, count);
   };
   return std::pair{at(split - before, before), at(split, after)};
 }
