@@ -115,7 +115,14 @@ void summariseSupport(const std::vector<StrideRecord>& strides, const std::vecto
     total += frames;
     for (std::size_t k = 0; k < s.supportByCount.size() && k < byCount.size(); ++k)
       byCount[k] += s.supportByCount[k] * frames;
-    for (const auto& [name, share] : s.supportByCombination) byCombination[name] += share * frames;
+    // Strides mostly show the same combinations, in the same (sorted) order: each lookup
+    // starts where the last one ended.
+    auto hint = byCombination.begin();
+    for (const auto& [name, share] : s.supportByCombination) {
+      hint = byCombination.try_emplace(hint, name, 0.0);
+      hint->second += share * frames;
+      ++hint;
+    }
   }
   if (total == 0) return;
   for (double& share : byCount) share /= total;

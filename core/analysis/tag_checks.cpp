@@ -137,6 +137,13 @@ std::optional<SwappedTags> findSwappedTags(const std::vector<LimbTrack>& tracks,
   std::optional<SwappedTags> best;
   std::size_t bestIndex = 0;
   for (std::size_t i = 3; i + 3 <= run.duty.size(); ++i) {
+    // Both medians lie within the range of the cycles around the split: a range narrower than
+    // the change a swap makes settles it without sorting (the common, steady case).
+    const auto from = run.duty.begin() + static_cast<std::ptrdiff_t>(i >= 5 ? i - 5 : 0);
+    const auto to =
+        run.duty.begin() + static_cast<std::ptrdiff_t>(std::min(run.duty.size(), i + 5));
+    const auto [least, most] = std::minmax_element(from, to);
+    if (*most - *least < kSwapChange) continue;
     const auto around = dutyAround(run, run.touchdowns[i]);
     if (!around) continue;
     const auto [before, after] = *around;
