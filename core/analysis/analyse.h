@@ -12,11 +12,14 @@ namespace stridemark::analysis {
 
 struct AnalysisOptions {
   // Our choices (docs/methods.md §2.3, §3.3); configurable.
-  double symmetryTolerance = 0.10;   // |contralateral phase - 0.5| allowed per girdle
-  double asymmetricTau = 0.05;       // share of stride for "simultaneous" in §3.3
-  int minTauFrames = 2;              // ... but never less than this many frames
-  std::optional<int> referenceLimb;  // overrides Annotation::referenceLimb
-  std::optional<double> speedMs;     // overrides TrialCard speed
+  double symmetryTolerance = 0.10;             // |contralateral phase - 0.5| allowed per girdle
+  double asymmetricTau = 0.05;                 // share of stride for "simultaneous" in §3.3
+  int minTauFrames = 2;                        // ... but never less than this many frames
+  std::optional<int> referenceLimb;            // overrides Annotation::referenceLimb
+  std::optional<double> speedMs;               // overrides TrialCard speed (from the start)
+  std::vector<model::SpeedStep> speedChanges;  // later speeds; with speedMs, override the card's
+  int minBoutStrides = 2;                      // strides of one gait that make a bout (§11)
+  double steadyTolerance = 0.15;     // each limb's cycle within this share of the stride (§1.5)
   std::optional<double> legLengthM;  // overrides TrialCard leg length
 };
 

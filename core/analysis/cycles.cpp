@@ -195,8 +195,8 @@ class LimbScanner {
     return status;
   }
 
-  // A cycle runs from a touchdown to the next one when no pair between them is bad. Its
-  // lift-off counts only when it is the one tag between them and no hidden span covers it.
+  // A cycle runs from a touchdown to the next one when no pair between them is bad and no
+  // hidden span lies between them; its lift-off is the one tag between them.
   void buildCycles(const std::vector<Tag>& tags, const std::vector<PairStatus>& status) {
     std::size_t next = 0;
     for (std::size_t i = 0; i < tags.size(); ++i) {
@@ -208,9 +208,10 @@ class LimbScanner {
                                      status.begin() + static_cast<std::ptrdiff_t>(next),
                                      [](PairStatus s) { return s != PairStatus::bad; });
       if (!clean) continue;
+      // A hidden span inside may hold a touchdown: the cycle is unknown, never double-length.
+      if (overlapsHidden(hidden_, tags[i].frame, tags[next].frame)) continue;
       LimbCycle cycle{limb_, tags[i].frame, tags[next].frame, std::nullopt};
-      if (next == i + 2 && !overlapsHidden(hidden_, tags[i].frame, tags[next].frame))
-        cycle.liftoff = tags[i + 1].frame;
+      if (next == i + 2) cycle.liftoff = tags[i + 1].frame;
       track_.cycles.push_back(cycle);
     }
   }

@@ -43,11 +43,17 @@ bool isSymmetrical(double hindContralateral, double foreContralateral, double to
          circularDistance(foreContralateral, 0.5) <= tolerance + kEdgeTolerance;
 }
 
-void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs,
-                          std::optional<double> hindContralateral,
-                          std::optional<double> foreContralateral, const GaitTolerances& tol) {
-  if (hindContralateral && foreContralateral &&
-      isSymmetrical(*hindContralateral, *foreContralateral, tol.symmetry)) {
+void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs, double meanDutyFactor,
+                          const GaitTolerances& tol) {
+  const auto at = [&](int limb) { return *s.phase[static_cast<std::size_t>(limb)]; };
+  const QuadrupedPhases p{at(limbs.lf), at(limbs.rf), at(limbs.lh), at(limbs.rh)};
+  s.hindContralateral = wrapPhase(p.rh - p.lh);
+  s.foreContralateral = wrapPhase(p.rf - p.lf);
+  const AsymmetricalGait lags = classifyAsymmetrical(p, tol.tau + tol.margin);
+  s.foreLag = lags.foreLag;
+  s.hindLag = lags.hindLag;
+  s.pairLag = lags.pairLag;
+  if (isSymmetrical(*s.hindContralateral, *s.foreContralateral, tol.symmetry + tol.margin)) {
     s.symmetrical = true;
     if (!s.limbPhase || !s.hindDutyFactor) return;
     s.band = hildebrandBand(*s.limbPhase);
@@ -56,23 +62,22 @@ void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs,
     s.gait = symmetricalQuadrupedGait(*s.band, *s.hindDutyFactor);
     return;
   }
-  const auto at = [&](int limb) { return s.phase[static_cast<std::size_t>(limb)]; };
-  if (!at(limbs.lf) || !at(limbs.rf) || !at(limbs.lh) || !at(limbs.rh)) return;
-  const AsymmetricalGait g =
-      classifyAsymmetrical({*at(limbs.lf), *at(limbs.rf), *at(limbs.lh), *at(limbs.rh)}, tol.tau);
-  s.gait = g.gait;
-  s.lead = g.lead;
-  s.foreLag = g.foreLag;
-  s.hindLag = g.hindLag;
-  s.pairLag = g.pairLag;
+  s.symmetrical = false;
+  if (meanDutyFactor >= 0.5 && !s.aerial) {  // an uneven walk, not a gallop (§3.3 step 2)
+    s.gait = "walk";
+    return;
+  }
+  s.gait = lags.gait;
+  s.lead = lags.lead;
+  s.hindLead = lags.hindLead;
 }
 
-void labelBipedStride(StrideRecord& s, std::optional<double> rightRelLeft,
-                      std::optional<double> meanDutyFactor, const GaitTolerances& tol) {
-  if (!rightRelLeft || !meanDutyFactor) return;
-  s.symmetrical = circularDistance(*rightRelLeft, 0.5) <= tol.symmetry + kEdgeTolerance;
-  s.gait = bipedGait(*rightRelLeft, *meanDutyFactor, tol.tau, tol.symmetry);
-  if (s.gait == "skip") s.lead = *rightRelLeft < 0.5 ? "right" : "left";
+void labelBipedStride(StrideRecord& s, double rightRelLeft, double meanDutyFactor,
+                      const GaitTolerances& tol) {
+  s.symmetrical = circularDistance(rightRelLeft, 0.5) <= tol.symmetry + tol.margin + kEdgeTolerance;
+  s.gait = bipedGait(rightRelLeft, meanDutyFactor, s.aerial, tol.tau + tol.margin,
+                     tol.symmetry + tol.margin);
+  if (s.gait == "skip") s.lead = rightRelLeft < 0.5 ? "right" : "left";
 }
 
 void labelMultiPairStride(StrideRecord& s, const model::LimbSet& limbs, const GaitTolerances& tol) {
@@ -113,13 +118,18 @@ AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& p, double tau) {
   out.pairLag = wrapPhase(hind.firstPhase - fore.firstPhase);
   const bool foreTogether = fore.lag < tau;
   const bool hindTogether = hind.lag < tau;
+  if (!foreTogether) out.lead = sideName(fore.second);
+  if (!hindTogether) out.hindLead = sideName(hind.second);
   if (foreTogether && hindTogether) {
     out.gait = circularDistance(hind.firstPhase, fore.firstPhase) < tau ? "pronk" : "bound";
     return out;
   }
-  out.lead = sideName(fore.second);
   if (hindTogether) {
     out.gait = "half-bound";
+    return out;
+  }
+  if (foreTogether) {  // forefeet together, hindfeet apart: no gait of §3.1 looks like this
+    out.gait = "unclassified";
     return out;
   }
   const double leadHind = phaseOf(hind.second, p.lh, p.rh);
@@ -132,11 +142,12 @@ AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& p, double tau) {
   return out;
 }
 
-std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double tau,
+std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, bool aerial, double tau,
                       double symmetryTolerance) {
-  if (circularDistance(rightPhaseRelLeft, 0.0) < tau) return "hop";
   if (circularDistance(rightPhaseRelLeft, 0.5) <= symmetryTolerance + kEdgeTolerance)
     return meanDutyFactor >= 0.5 ? "walk" : "run";
+  if (meanDutyFactor >= 0.5 && !aerial) return "walk";  // uneven walk (§3.3 step 2)
+  if (circularDistance(rightPhaseRelLeft, 0.0) < tau) return "hop";
   return "skip";
 }
 

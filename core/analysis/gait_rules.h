@@ -18,6 +18,7 @@ struct GaitTolerances {
   double symmetry = 0.10;  // |contralateral phase - 0.5| allowed per girdle (§2.3)
   double tau = 0.05;       // "simultaneous" in §3.3, already raised to the minimum frames
   double wave = 0.05;      // ipsilateral wave direction threshold (§4.3)
+  double margin = 0;       // half a frame, in cycles of the stride (§3.3 step 9)
 };
 
 // Schmitt et al. 2006 gate: both girdles' contralateral phases within `tolerance` of 0.5.
@@ -28,17 +29,19 @@ struct QuadrupedLimbs {
   int lf = 0, rf = 1, lh = 2, rh = 3;
 };
 
-// Labels a quadruped stride from its phases (s.phase), Hildebrand point (s.limbPhase,
-// s.hindDutyFactor) and the contralateral phase of each girdle: gait, band, quadrant, sequence,
-// symmetry, lead and the asymmetrical lags.
-void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs,
-                          std::optional<double> hindContralateral,
-                          std::optional<double> foreContralateral, const GaitTolerances& tol);
+// Labels a complete quadruped stride (docs/methods.md §3.3) from its phases (s.phase, all in
+// the reference window), its Hildebrand point (s.limbPhase, s.hindDutyFactor), its suspension
+// (s.aerial) and the mean duty factor of the four limbs: symmetrical gaits by §2, an uneven
+// walking stride as an asymmetrical walk, running asymmetrical strides by §3.3. Fills gait,
+// band, quadrant, sequence, symmetry, leads, the contralateral phases and the lags.
+void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs, double meanDutyFactor,
+                          const GaitTolerances& tol);
 
-// Labels a biped stride from the right foot's phase in the left foot's cycle and the mean duty
-// factor of the two.
-void labelBipedStride(StrideRecord& s, std::optional<double> rightRelLeft,
-                      std::optional<double> meanDutyFactor, const GaitTolerances& tol);
+// Labels a complete biped stride from the right foot's phase after the left (reference window),
+// the mean duty factor of the two feet and its suspension: walk or run when symmetrical, an
+// uneven walk as an asymmetrical walk, then hop (feet together) or skip.
+void labelBipedStride(StrideRecord& s, double rightRelLeft, double meanDutyFactor,
+                      const GaitTolerances& tol);
 
 // Labels a hexapod or multi-pair stride by the nearest coordination template, with the
 // ipsilateral wave; needs every limb's phase.
@@ -56,15 +59,17 @@ struct QuadrupedPhases {
 struct AsymmetricalGait {
   std::string gait;                 // pronk, bound, half-bound, canter, transverse/rotary gallop
   std::optional<std::string> lead;  // leading forelimb "left"/"right" (second fore down)
+  std::optional<std::string> hindLead;  // leading hindlimb; null when the hind pair lands together
   double foreLag = 0, hindLag = 0, pairLag = 0;  // FL, HL, PL of docs/methods.md §3.2, cycles
 };
 
-// The operational classifier of docs/methods.md §3.3; `tau` in cycles of the stride.
+// The operational classifier of docs/methods.md §3.3 (steps 3-7) for running strides; `tau` in
+// cycles of the stride, margin included. A pair within tau has no lead.
 AsymmetricalGait classifyAsymmetrical(const QuadrupedPhases& phases, double tau);
 
 // Biped: hop when the feet land together (within tau), walk/run when the right foot lands half a
 // stride after the left (within symmetryTolerance; walk when mean DF >= 0.5), else skip.
-std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, double tau,
+std::string bipedGait(double rightPhaseRelLeft, double meanDutyFactor, bool aerial, double tau,
                       double symmetryTolerance);
 
 // Template touchdown offsets per limb (limb-set order) for hexapods and multi-pair sets.

@@ -59,15 +59,28 @@ struct StrideRecord {
   std::optional<std::string> band;      // Hildebrand band (symmetrical quadruped strides)
   std::optional<std::string> quadrant;  // Cartmill et al. 2002 quadrant (LSLC, LSDC, DSDC, DSLC)
   std::optional<std::string> sequence;  // "lateral" / "diagonal"
-  std::optional<std::string> lead;      // "left" / "right" for asymmetrical strides
+  std::optional<std::string> lead;      // leading forelimb "left" / "right" (asymmetrical)
+  std::optional<std::string> hindLead;  // leading hindlimb; null when the pair lands together
   bool symmetrical = false;
+  // Complete (docs/methods.md §1.5): every limb has one touchdown in the window and its own
+  // cycle is tagged; steady: every limb's own cycle is within the tolerance of this stride.
+  bool complete = false;
+  bool steady = true;
+  std::optional<std::string> note;       // why the stride is unclassified or left out of summaries
+  std::optional<std::string> excluded;   // a person's reason for leaving it out of statistics
+  int bout = -1;                         // index into Report::bouts, -1 when in none
   bool aerial = false;                   // a whole-body suspension inside the stride
   std::optional<double> hindDutyFactor;  // Hildebrand y (quadrupeds)
   std::optional<double> limbPhase;       // Hildebrand x (quadrupeds)
-  // Diagonal advanced placement, mean of the LH-RF and RH-LF pairs, in ms computed from frames
-  // at the capture rate and in % of the stride (positive = hind first); trot strides only.
+  // Diagonal advanced placement (docs/methods.md §7.3), trot strides only: fore touchdown minus
+  // hind touchdown of each diagonal (positive = hind first), in ms from frames at the capture
+  // rate and in % of the stride; dapMs/dapPercent are the mean of the two diagonals.
+  std::optional<double> dapLhRfMs, dapRhLfMs, dapLhRfPercent, dapRhLfPercent;
   std::optional<double> dapMs;
   std::optional<double> dapPercent;
+  // Contralateral phases of the girdles in the reference window (hind: RH after LH; fore: RF
+  // after LF), the numbers the symmetry gate reads; they show an uneven walk's unevenness.
+  std::optional<double> hindContralateral, foreContralateral;
   // Support: share of the stride with k limbs in stance (index k), and per combination label.
   std::vector<double> supportByCount;
   std::map<std::string, double> supportByCombination;
@@ -78,6 +91,8 @@ struct StrideRecord {
   // than 1 flags a stride mismatch or stumble), the template gait's mean circular distance, and
   // the asymmetrical lags of docs/methods.md §3.2 (fore, hind, pair; cycles).
   std::vector<int> touchdownCount;
+  // Per limb: its own cycle that starts in the window, when valid (what summaries describe).
+  std::vector<std::optional<LimbCycle>> ownCycle;
   std::optional<double> templateDistance;
   std::optional<double> foreLag, hindLag, pairLag;
 };
@@ -93,6 +108,7 @@ struct PhaseSummary {
 };
 
 struct HildebrandSummary {
+  int n = 0;                       // symmetrical strides with a Hildebrand point
   double dutyFactor = kUndefined;  // mean hind-limb duty factor
   double limbPhase = kUndefined;   // circular mean of LF relative to LH
   std::string band;
@@ -105,14 +121,6 @@ struct Transition {
   std::string toGait;
   std::int64_t frame = 0;  // start frame of the new bout
   int stride = 0;          // index of the new bout's first stride
-};
-
-struct Bout {
-  std::string gait;
-  int firstStride = 0;  // indices into Report::strides
-  int lastStride = 0;
-  std::int64_t startFrame = 0;
-  std::int64_t endFrame = 0;
 };
 
 // Robinson symmetry index per left/right pair; key = pair name ("fore", "hind", "pair",
@@ -148,6 +156,35 @@ struct SpeedSummary {
   std::optional<double> relativeStrideLength;  // stride length / leg length
 };
 
+// Diagonal advanced placement over strides (docs/methods.md §7.3; positive = hind first).
+struct DapSummary {
+  Stat lhRfMs, rhLfMs, lhRfPercent, rhLfPercent;
+  double meanMs = kUndefined;        // mean of the two diagonals' means
+  double differenceMs = kUndefined;  // LH-RF mean minus RH-LF mean: a left-right sign
+};
+
+// Every summary of a set of strides (a bout, a gait, the trial), docs/methods.md §11.
+struct Summary {
+  int strides = 0;
+  std::vector<LimbSummary> limbs;  // per limb: its cycles that start in the strides' windows
+  std::vector<PhaseSummary> phase;
+  std::optional<HildebrandSummary> hildebrand;  // quadrupeds only
+  std::vector<double> support;                  // share of the strides' time with k in stance
+  std::map<std::string, double> supportByCombination;
+  Symmetry symmetry;
+  std::optional<SpeedSummary> speed;
+  std::optional<DapSummary> dap;  // quadrupeds with trot strides
+};
+
+struct Bout {
+  std::string gait;
+  int firstStride = 0;  // indices into Report::strides
+  int lastStride = 0;
+  std::int64_t startFrame = 0;
+  std::int64_t endFrame = 0;
+  Summary summary;
+};
+
 struct Problem {
   std::int64_t frame = 0;
   std::optional<int> limb;
@@ -165,8 +202,11 @@ struct Report {
   std::optional<HildebrandSummary> hildebrand;  // quadrupeds only
   std::vector<double> support;                  // share of scored time with k limbs in stance
   std::map<std::string, double> supportByCombination;
+  std::optional<DapSummary> dap;
   std::vector<Bout> bouts;
-  std::vector<Transition> transitions;  // added by analysis
+  std::map<std::string, Summary> byGait;  // over all bouts of each gait
+  bool mixedGaits = false;                // bouts of more than one gait
+  std::vector<Transition> transitions;    // added by analysis
   Symmetry symmetry;
   std::optional<SpeedSummary> speed;
   std::vector<Problem> problems;

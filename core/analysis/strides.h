@@ -15,11 +15,14 @@ namespace stridemark::analysis {
 struct StrideSettings {
   GaitTolerances tolerances;  // tau is the share of a stride; raised per stride to minTauFrames
   int minTauFrames = 2;
+  double steadyTolerance = 0.15;  // each limb's cycle within this share of the stride (§1.5)
 };
 
-// Strides of every reference cycle that touches no annotation problem, in order.
+// Strides of every reference cycle that touches no annotation problem, in order. Incomplete
+// strides are "unclassified", with a note and, where a tag is missing, a problem.
 std::vector<StrideRecord> buildStrides(const model::Annotation& annotation, int referenceLimb,
                                        const CycleScan& scan, const SupportTimeline& support,
-                                       const StrideSettings& settings);
+                                       const StrideSettings& settings,
+                                       std::vector<Problem>& problems);
 
 }  // namespace stridemark::analysis

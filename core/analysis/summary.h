@@ -1,26 +1,39 @@
 #pragma once
-// Report-level summaries built from cycles and strides: per-limb statistics, per-limb phase
-// statistics, the Hildebrand point, left/right symmetry and speed measures.
+// Summaries of a set of strides (docs/methods.md §11): per-limb statistics of each limb's own
+// cycle in the strides, phase statistics, the Hildebrand point, support shares, left/right
+// symmetry, speed and DAP. The same function summarises a bout, a gait and the trial.
 #include <optional>
 #include <vector>
 
-#include "analysis/cycles.h"
 #include "analysis/report.h"
+#include "model/annotation.h"
 
 namespace stridemark::analysis {
 
-// Stride, stance, swing (seconds) and duty factor per limb over its valid cycles.
-std::vector<LimbSummary> summariseLimbs(const std::vector<LimbTrack>& tracks, Rational fps);
+using model::SpeedStep;
 
-// Circular statistics of each limb's phase over the strides where it is defined.
-std::vector<PhaseSummary> summarisePhases(int limbCount, const std::vector<StrideRecord>& strides);
+struct SummaryInputs {
+  const model::LimbSet& limbs;
+  Rational fps;
+  int referenceLimb = 0;
+  std::vector<SpeedStep> speed;  // ascending; empty without a speed
+  std::optional<double> legLengthM;
+};
 
-// Mean hind duty factor and circular-mean limb phase of the symmetrical strides; null if none.
-std::optional<HildebrandSummary> summariseHildebrand(const std::vector<StrideRecord>& strides);
+// Summary of strides[i] for each i in `members` (ascending).
+Summary summariseStrides(const std::vector<StrideRecord>& strides, const std::vector<int>& members,
+                         const SummaryInputs& in);
+
+// Stride, stance, swing (seconds) and duty factor of the given cycles of one limb.
+LimbSummary summariseCycles(const std::vector<LimbCycle>& cycles, Rational fps);
 
 // Robinson SI and R/L ratio per left/right pair from the limbs' mean values.
 Symmetry summariseSymmetry(const model::LimbSet& limbs,
                            const std::vector<LimbSummary>& limbSummary);
+
+// Time-weighted mean speed over frames [first, end) of a schedule; null when it is empty.
+std::optional<double> meanSpeed(const std::vector<SpeedStep>& speed, std::int64_t first,
+                                std::int64_t end);
 
 // Null without a speed; Froude and relative stride length need the leg length too.
 std::optional<SpeedSummary> summariseSpeed(std::optional<double> speedMs,

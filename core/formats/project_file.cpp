@@ -15,6 +15,13 @@ Json optionalNumber(const std::optional<double>& value) {
   return value ? Json(*value) : Json(nullptr);
 }
 
+Json speedChangesJson(const std::vector<model::SpeedStep>& changes) {
+  Json list = Json::array();
+  for (const model::SpeedStep& step : changes)
+    list.push_back({{"from_frame", step.fromFrame}, {"m_s", step.ms}});
+  return list;
+}
+
 Json trialJson(const model::TrialCard& trial) {
   return Json{{"subject", trial.subject},
               {"species", trial.species},
@@ -22,6 +29,7 @@ Json trialJson(const model::TrialCard& trial) {
               {"observer", trial.observer},
               {"notes", trial.notes},
               {"speed_m_s", optionalNumber(trial.speedMs)},
+              {"speed_changes", speedChangesJson(trial.speedChanges)},
               {"speed_source", trial.speedSource},
               {"leg_length_m", optionalNumber(trial.legLengthM)}};
 }
@@ -75,6 +83,37 @@ std::optional<double> positiveOrNull(const JsonIn& object, std::string_view key)
   return number;
 }
 
+// The belt's later speeds (docs/methods.md §12): each from a frame after the previous one, a
+// speed of 0 m/s or more, and only after a speed from the start (speed_m_s).
+std::vector<model::SpeedStep> readSpeedChanges(const JsonIn& in, bool hasStartSpeed) {
+  std::vector<model::SpeedStep> changes;
+  for (std::size_t i = 0; i < in.arraySize(); ++i) {
+    const JsonIn item = in.at(i);
+    const JsonIn frame = item.at("from_frame");
+    model::SpeedStep step;
+    step.fromFrame = frame.integer();
+    if (step.fromFrame <= 0) {
+      frame.fail("expected a frame after 0 (the speed from frame 0 is speed_m_s), got " +
+                 std::to_string(step.fromFrame));
+    }
+    if (!changes.empty() && step.fromFrame <= changes.back().fromFrame) {
+      frame.fail("frame " + std::to_string(step.fromFrame) + " does not follow frame " +
+                 std::to_string(changes.back().fromFrame) +
+                 " — list speed changes in ascending frame order");
+    }
+    const JsonIn speed = item.at("m_s");
+    step.ms = speed.number();
+    if (!(step.ms >= 0)) speed.fail("expected a speed of 0 m/s or more");
+    changes.push_back(step);
+  }
+  if (!changes.empty() && !hasStartSpeed) {
+    in.fail(
+        "speed changes without a speed from the start — set trial speed_m_s, or remove the "
+        "changes");
+  }
+  return changes;
+}
+
 model::TrialCard readTrial(const JsonIn& in) {
   model::TrialCard trial;
   trial.subject = textOr(in, "subject");
@@ -83,6 +122,8 @@ model::TrialCard readTrial(const JsonIn& in) {
   trial.observer = textOr(in, "observer");
   trial.notes = textOr(in, "notes");
   trial.speedMs = positiveOrNull(in, "speed_m_s");
+  if (const auto changes = in.find("speed_changes"))
+    trial.speedChanges = readSpeedChanges(*changes, trial.speedMs.has_value());
   trial.speedSource = textOr(in, "speed_source", "belt");
   if (trial.speedSource != "belt" && trial.speedSource != "ground") {
     in.at("speed_source").fail("expected \"belt\" or \"ground\"");

@@ -7,6 +7,9 @@
 //     "trial": {...}, "video": null | {...}, "events": [{"limb","event","frame"}...],
 //     "hidden": [{"limb","first","last"}...] }
 //
+// The trial card's belt speed is "speed_m_s" from the start plus optional "speed_changes":
+// [{"from_frame": F, "m_s": V}...] (docs/methods.md §12); files without the key still read.
+//
 // Older layouts are brought up to date one version at a time by projectMigrations(). Saves are
 // atomic (write a temporary file beside the target, fsync, rename over).
 #include <filesystem>

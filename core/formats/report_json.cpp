@@ -29,13 +29,14 @@ void writeFps(JsonOut& out, Rational fps) {
   }
 }
 
-void writeLimbs(JsonOut& out, const Report& report) {
+void writeLimbs(JsonOut& out, const model::LimbSet& limbs,
+                const std::vector<analysis::LimbSummary>& summaries) {
   out.beginObject();
-  for (int i = 0; i < report.limbs.size(); ++i) {
+  for (int i = 0; i < limbs.size(); ++i) {
     const auto index = static_cast<std::size_t>(i);
     const analysis::LimbSummary summary =
-        index < report.limbSummary.size() ? report.limbSummary[index] : analysis::LimbSummary{};
-    out.key(report.limbs.label(i));
+        index < summaries.size() ? summaries[index] : analysis::LimbSummary{};
+    out.key(limbs.label(i));
     out.beginObject();
     out.key("strides");
     out.integer(summary.strides);
@@ -89,6 +90,16 @@ void writeStride(JsonOut& out, const Report& report, const analysis::StrideRecor
   if (!s.symmetrical) {
     out.key("lead");
     out.stringOrNull(s.lead);
+    out.key("hind_lead");
+    out.stringOrNull(s.hindLead);
+  }
+  out.key("steady");
+  out.boolean(s.steady);
+  out.key("bout");
+  if (s.bout >= 0) {
+    out.integer(s.bout);
+  } else {
+    out.null();
   }
   out.endObject();
 }
@@ -111,22 +122,33 @@ void writeStrideExtra(JsonOut& out, const analysis::StrideRecord& s) {
   number("limb_phase", s.limbPhase);
   number("dap_ms", s.dapMs);
   number("dap_percent", s.dapPercent);
+  number("dap_lh_rf_ms", s.dapLhRfMs);
+  number("dap_rh_lf_ms", s.dapRhLfMs);
+  number("dap_lh_rf_percent", s.dapLhRfPercent);
+  number("dap_rh_lf_percent", s.dapRhLfPercent);
+  number("hind_contralateral", s.hindContralateral);
+  number("fore_contralateral", s.foreContralateral);
   number("ipsilateral_lag", s.ipsilateralLag);
   text("wave_direction", s.waveDirection);
   number("fore_lag", s.foreLag);
   number("hind_lag", s.hindLag);
   number("pair_lag", s.pairLag);
   number("template_distance", s.templateDistance);
+  out.key("complete");
+  out.boolean(s.complete);
+  text("note", s.note);
+  text("excluded", s.excluded);
   out.endObject();
 }
 
-void writePhase(JsonOut& out, const Report& report) {
+void writePhase(JsonOut& out, const model::LimbSet& limbs,
+                const std::vector<analysis::PhaseSummary>& phases) {
   out.beginObject();
-  for (int i = 0; i < report.limbs.size(); ++i) {
+  for (int i = 0; i < limbs.size(); ++i) {
     const auto index = static_cast<std::size_t>(i);
     const analysis::PhaseSummary phase =
-        index < report.phase.size() ? report.phase[index] : analysis::PhaseSummary{};
-    out.key(report.limbs.label(i));
+        index < phases.size() ? phases[index] : analysis::PhaseSummary{};
+    out.key(limbs.label(i));
     out.beginObject();
     out.key("n");
     out.integer(phase.n);
@@ -152,12 +174,103 @@ void writeNumberMap(JsonOut& out, const std::map<std::string, double>& values) {
   out.endObject();
 }
 
-void writeSupport(JsonOut& out, const Report& report) {
+void writeSupport(JsonOut& out, const std::vector<double>& support) {
   out.beginObject();
-  for (std::size_t k = 0; k < report.support.size(); ++k) {
+  for (std::size_t k = 0; k < support.size(); ++k) {
     out.key(std::to_string(k));
-    out.number(report.support[k]);
+    out.number(support[k]);
   }
+  out.endObject();
+}
+
+void writeHildebrand(JsonOut& out, const std::optional<analysis::HildebrandSummary>& h) {
+  if (!h) {
+    out.null();
+    return;
+  }
+  out.beginObject();
+  out.key("n");
+  out.integer(h->n);
+  out.key("duty_factor");
+  out.number(h->dutyFactor);
+  out.key("limb_phase");
+  out.number(h->limbPhase);
+  out.key("band");
+  out.string(h->band);
+  out.endObject();
+}
+
+void writeSymmetry(JsonOut& out, const analysis::Symmetry& symmetry) {
+  out.beginObject();
+  out.key("stance_s");
+  writeNumberMap(out, symmetry.stanceS.si);
+  out.key("swing_s");
+  writeNumberMap(out, symmetry.swingS.si);
+  out.key("duty_factor");
+  writeNumberMap(out, symmetry.dutyFactor.si);
+  out.endObject();
+}
+
+void writeSpeed(JsonOut& out, const std::optional<analysis::SpeedSummary>& speed) {
+  if (!speed) {
+    out.null();
+    return;
+  }
+  out.beginObject();
+  out.key("m_s");
+  out.number(speed->ms);
+  out.key("froude");
+  out.number(speed->froude);
+  out.key("stride_length_m");
+  out.number(speed->strideLengthM);
+  out.key("relative_stride_length");
+  out.number(speed->relativeStrideLength);
+  out.endObject();
+}
+
+void writeDap(JsonOut& out, const std::optional<analysis::DapSummary>& dap) {
+  if (!dap) {
+    out.null();
+    return;
+  }
+  out.beginObject();
+  out.key("convention");
+  out.string(kDapConvention);
+  out.key("lh_rf_ms");
+  writeStat(out, dap->lhRfMs);
+  out.key("rh_lf_ms");
+  writeStat(out, dap->rhLfMs);
+  out.key("lh_rf_percent");
+  writeStat(out, dap->lhRfPercent);
+  out.key("rh_lf_percent");
+  writeStat(out, dap->rhLfPercent);
+  out.key("mean_ms");
+  out.number(dap->meanMs);
+  out.key("difference_ms");
+  out.number(dap->differenceMs);
+  out.endObject();
+}
+
+// A bout's, a gait's or the trial's summary (docs/methods.md §11): each member has the shape
+// of the trial-level member of the same name.
+void writeSummary(JsonOut& out, const model::LimbSet& limbs, const analysis::Summary& s) {
+  out.beginObject();
+  out.key("strides");
+  out.integer(s.strides);
+  out.key("limbs");
+  writeLimbs(out, limbs, s.limbs);
+  out.key("phase");
+  writePhase(out, limbs, s.phase);
+  out.key("hildebrand");
+  writeHildebrand(out, s.hildebrand);
+  out.key("support");
+  writeSupport(out, s.support);
+  out.key("symmetry");
+  writeSymmetry(out, s.symmetry);
+  out.key("speed");
+  writeSpeed(out, s.speed);
+  out.key("dap");
+  writeDap(out, s.dap);
   out.endObject();
 }
 
@@ -175,25 +288,19 @@ void writeBouts(JsonOut& out, const Report& report) {
     out.integer(bout.startFrame);
     out.key("end_frame");
     out.integer(bout.endFrame);
+    out.key("summary");
+    writeSummary(out, report.limbs, bout.summary);
     out.endObject();
   }
   out.endArray();
 }
 
-void writeSpeed(JsonOut& out, const Report& report) {
-  if (!report.speed) {
-    out.null();
-    return;
-  }
+void writeByGait(JsonOut& out, const Report& report) {
   out.beginObject();
-  out.key("m_s");
-  out.number(report.speed->ms);
-  out.key("froude");
-  out.number(report.speed->froude);
-  out.key("stride_length_m");
-  out.number(report.speed->strideLengthM);
-  out.key("relative_stride_length");
-  out.number(report.speed->relativeStrideLength);
+  for (const auto& [gait, summary] : report.byGait) {
+    out.key(gait);
+    writeSummary(out, report.limbs, summary);
+  }
   out.endObject();
 }
 
@@ -297,43 +404,33 @@ void writeReport(JsonOut& out, const Report& report) {
   out.key("reference_limb");
   out.string(report.limbs.label(report.referenceLimb));
   out.key("limbs");
-  writeLimbs(out, report);
+  writeLimbs(out, report.limbs, report.limbSummary);
   out.key("strides");
   out.beginArray();
   for (const analysis::StrideRecord& stride : report.strides) writeStride(out, report, stride);
   out.endArray();
   out.key("phase");
-  writePhase(out, report);
+  writePhase(out, report.limbs, report.phase);
   if (report.limbs.kind() == model::LimbSetKind::quadruped) {
     out.key("hildebrand");
-    if (report.hildebrand) {
-      out.beginObject();
-      out.key("duty_factor");
-      out.number(report.hildebrand->dutyFactor);
-      out.key("limb_phase");
-      out.number(report.hildebrand->limbPhase);
-      out.key("band");
-      out.string(report.hildebrand->band);
-      out.endObject();
-    } else {
-      out.null();
-    }
+    writeHildebrand(out, report.hildebrand);
   }
   out.key("support");
-  writeSupport(out, report);
+  writeSupport(out, report.support);
   out.key("bouts");
   writeBouts(out, report);
+  out.key("by_gait");
+  writeByGait(out, report);
+  out.key("mixed_gaits");
+  out.boolean(report.mixedGaits);
   out.key("symmetry");
-  out.beginObject();
-  out.key("stance_s");
-  writeNumberMap(out, report.symmetry.stanceS.si);
-  out.key("swing_s");
-  writeNumberMap(out, report.symmetry.swingS.si);
-  out.key("duty_factor");
-  writeNumberMap(out, report.symmetry.dutyFactor.si);
-  out.endObject();
+  writeSymmetry(out, report.symmetry);
   out.key("speed");
-  writeSpeed(out, report);
+  writeSpeed(out, report.speed);
+  if (report.limbs.kind() == model::LimbSetKind::quadruped) {
+    out.key("dap");
+    writeDap(out, report.dap);
+  }
   out.key("problems");
   writeProblems(out, report);
   out.key("extra");

@@ -19,6 +19,10 @@
 namespace stridemark::formats {
 
 inline constexpr std::string_view kReportSchema = "stridemark.report.v1";
+// The sign convention of diagonal advanced placement, written beside every DAP figure.
+inline constexpr std::string_view kDapConvention =
+    "fore touchdown minus hind touchdown of each diagonal (LH-RF, RH-LF), in ms at the capture "
+    "rate and in % of the stride; positive = the hind limb lands first";
 
 std::string reportJsonText(const analysis::Report& report);
 // Atomic: a failed write leaves an existing file unchanged.

@@ -65,6 +65,9 @@ analysis::StrideRecord readStride(const JsonIn& in, const model::LimbSet& limbs)
   stride.symmetrical = in.at("symmetrical").boolean();
   stride.aerial = in.at("aerial").boolean();
   stride.lead = textOrNull(in, "lead");
+  stride.hindLead = textOrNull(in, "hind_lead");
+  if (const auto steady = in.find("steady")) stride.steady = steady->boolean();
+  if (const auto bout = in.find("bout")) stride.bout = static_cast<int>(bout->integer());
   return stride;
 }
 
@@ -84,6 +87,15 @@ void readStrideExtra(const JsonIn& in, analysis::StrideRecord& stride) {
   stride.hindLag = number("hind_lag");
   stride.pairLag = number("pair_lag");
   stride.templateDistance = number("template_distance");
+  stride.dapLhRfMs = number("dap_lh_rf_ms");
+  stride.dapRhLfMs = number("dap_rh_lf_ms");
+  stride.dapLhRfPercent = number("dap_lh_rf_percent");
+  stride.dapRhLfPercent = number("dap_rh_lf_percent");
+  stride.hindContralateral = number("hind_contralateral");
+  stride.foreContralateral = number("fore_contralateral");
+  if (const auto complete = in.find("complete")) stride.complete = complete->boolean();
+  stride.note = textOrNull(in, "note");
+  stride.excluded = textOrNull(in, "excluded");
 }
 
 std::map<std::string, double> readNumberMap(const JsonIn& in) {
@@ -99,42 +111,99 @@ int limbIndex(const JsonIn& in, const model::LimbSet& limbs) {
   return *index;
 }
 
-void readLimbs(const JsonIn& in, Report& report) {
-  report.limbSummary.assign(static_cast<std::size_t>(report.limbs.size()), {});
-  for (int i = 0; i < report.limbs.size(); ++i) {
-    const JsonIn limb = in.at(report.limbs.label(i));
-    auto& summary = report.limbSummary[static_cast<std::size_t>(i)];
+std::vector<analysis::LimbSummary> readLimbs(const JsonIn& in, const model::LimbSet& limbs) {
+  std::vector<analysis::LimbSummary> out(static_cast<std::size_t>(limbs.size()));
+  for (int i = 0; i < limbs.size(); ++i) {
+    const JsonIn limb = in.at(limbs.label(i));
+    auto& summary = out[static_cast<std::size_t>(i)];
     summary.strides = count(limb.at("strides"));
     summary.strideS = readStat(limb.at("stride_s"));
     summary.stanceS = readStat(limb.at("stance_s"));
     summary.swingS = readStat(limb.at("swing_s"));
     summary.dutyFactor = readStat(limb.at("duty_factor"));
   }
+  return out;
 }
 
-void readPhase(const JsonIn& in, Report& report) {
-  report.phase.assign(static_cast<std::size_t>(report.limbs.size()), {});
-  for (int i = 0; i < report.limbs.size(); ++i) {
-    const JsonIn limb = in.at(report.limbs.label(i));
-    auto& phase = report.phase[static_cast<std::size_t>(i)];
+std::vector<analysis::PhaseSummary> readPhase(const JsonIn& in, const model::LimbSet& limbs) {
+  std::vector<analysis::PhaseSummary> out(static_cast<std::size_t>(limbs.size()));
+  for (int i = 0; i < limbs.size(); ++i) {
+    const JsonIn limb = in.at(limbs.label(i));
+    auto& phase = out[static_cast<std::size_t>(i)];
     phase.n = count(limb.at("n"));
     phase.mean = numberOrNaN(limb.at("mean"));
     phase.r = numberOrNaN(limb.at("r"));
     phase.circSd = numberOrNaN(limb.at("circ_sd"));
     phase.rayleighP = numberOrNaN(limb.at("rayleigh_p"));
   }
+  return out;
 }
 
-void readSupport(const JsonIn& in, Report& report) {
+std::vector<double> readSupport(const JsonIn& in) {
+  std::vector<double> support;
   for (const auto& [name, value] : in.members()) {
     std::size_t k = 0;
     const auto [end, ec] = std::from_chars(name.data(), name.data() + name.size(), k);
     if (ec != std::errc() || end != name.data() + name.size() || k > 10000) {
       value.fail("expected a limb count (0, 1, 2, ...) as the key");
     }
-    if (report.support.size() <= k) report.support.resize(k + 1, 0.0);
-    report.support[k] = value.number();
+    if (support.size() <= k) support.resize(k + 1, 0.0);
+    support[k] = value.number();
   }
+  return support;
+}
+
+std::optional<analysis::HildebrandSummary> readHildebrand(const JsonIn& in) {
+  if (in.isNull()) return std::nullopt;
+  analysis::HildebrandSummary summary;
+  if (const auto n = in.find("n")) summary.n = count(*n);
+  summary.dutyFactor = numberOrNaN(in.at("duty_factor"));
+  summary.limbPhase = numberOrNaN(in.at("limb_phase"));
+  summary.band = in.at("band").isNull() ? "" : in.at("band").text();
+  return summary;
+}
+
+analysis::Symmetry readSymmetry(const JsonIn& in) {
+  analysis::Symmetry symmetry;
+  symmetry.stanceS.si = readNumberMap(in.at("stance_s"));
+  symmetry.swingS.si = readNumberMap(in.at("swing_s"));
+  symmetry.dutyFactor.si = readNumberMap(in.at("duty_factor"));
+  return symmetry;
+}
+
+std::optional<analysis::SpeedSummary> readSpeed(const JsonIn& in) {
+  if (in.isNull()) return std::nullopt;
+  analysis::SpeedSummary speed;
+  speed.ms = in.at("m_s").number();
+  speed.froude = in.at("froude").numberOrNull();
+  speed.strideLengthM = numberOrNaN(in.at("stride_length_m"));
+  speed.relativeStrideLength = in.at("relative_stride_length").numberOrNull();
+  return speed;
+}
+
+std::optional<analysis::DapSummary> readDap(const JsonIn& in) {
+  if (in.isNull()) return std::nullopt;
+  analysis::DapSummary dap;
+  dap.lhRfMs = readStat(in.at("lh_rf_ms"));
+  dap.rhLfMs = readStat(in.at("rh_lf_ms"));
+  dap.lhRfPercent = readStat(in.at("lh_rf_percent"));
+  dap.rhLfPercent = readStat(in.at("rh_lf_percent"));
+  dap.meanMs = numberOrNaN(in.at("mean_ms"));
+  dap.differenceMs = numberOrNaN(in.at("difference_ms"));
+  return dap;
+}
+
+analysis::Summary readSummary(const JsonIn& in, const model::LimbSet& limbs) {
+  analysis::Summary s;
+  s.strides = count(in.at("strides"));
+  s.limbs = readLimbs(in.at("limbs"), limbs);
+  s.phase = readPhase(in.at("phase"), limbs);
+  s.hildebrand = readHildebrand(in.at("hildebrand"));
+  s.support = readSupport(in.at("support"));
+  s.symmetry = readSymmetry(in.at("symmetry"));
+  s.speed = readSpeed(in.at("speed"));
+  s.dap = readDap(in.at("dap"));
+  return s;
 }
 
 void readBouts(const JsonIn& in, Report& report) {
@@ -146,17 +215,10 @@ void readBouts(const JsonIn& in, Report& report) {
     bout.lastStride = count(item.at("last_stride"));
     bout.startFrame = item.at("start_frame").integer();
     bout.endFrame = item.at("end_frame").integer();
+    if (const auto summary = item.find("summary"))
+      bout.summary = readSummary(*summary, report.limbs);
     report.bouts.push_back(bout);
   }
-}
-
-void readSpeed(const JsonIn& in, Report& report) {
-  analysis::SpeedSummary speed;
-  speed.ms = in.at("m_s").number();
-  speed.froude = in.at("froude").numberOrNull();
-  speed.strideLengthM = numberOrNaN(in.at("stride_length_m"));
-  speed.relativeStrideLength = in.at("relative_stride_length").numberOrNull();
-  report.speed = speed;
 }
 
 void readProblems(const JsonIn& in, Report& report) {
@@ -246,26 +308,23 @@ Report parseReportJson(std::string_view text, std::string_view fileName) {
     }
   }
   report.referenceLimb = limbIndex(root.at("reference_limb"), report.limbs);
-  readLimbs(root.at("limbs"), report);
+  report.limbSummary = readLimbs(root.at("limbs"), report.limbs);
   const JsonIn strides = root.at("strides");
   for (std::size_t i = 0; i < strides.arraySize(); ++i) {
     report.strides.push_back(readStride(strides.at(i), report.limbs));
   }
-  readPhase(root.at("phase"), report);
-  if (const auto hildebrand = root.find("hildebrand")) {
-    analysis::HildebrandSummary summary;
-    summary.dutyFactor = numberOrNaN(hildebrand->at("duty_factor"));
-    summary.limbPhase = numberOrNaN(hildebrand->at("limb_phase"));
-    summary.band = hildebrand->at("band").isNull() ? "" : hildebrand->at("band").text();
-    report.hildebrand = summary;
-  }
-  readSupport(root.at("support"), report);
+  report.phase = readPhase(root.at("phase"), report.limbs);
+  if (const auto hildebrand = root.find("hildebrand"))
+    report.hildebrand = readHildebrand(*hildebrand);
+  report.support = readSupport(root.at("support"));
   readBouts(root.at("bouts"), report);
-  const JsonIn symmetry = root.at("symmetry");
-  report.symmetry.stanceS.si = readNumberMap(symmetry.at("stance_s"));
-  report.symmetry.swingS.si = readNumberMap(symmetry.at("swing_s"));
-  report.symmetry.dutyFactor.si = readNumberMap(symmetry.at("duty_factor"));
-  if (const auto speed = root.find("speed")) readSpeed(*speed, report);
+  if (const auto byGait = root.find("by_gait"))
+    for (const auto& [gait, summary] : byGait->members())
+      report.byGait[gait] = readSummary(summary, report.limbs);
+  if (const auto mixed = root.find("mixed_gaits")) report.mixedGaits = mixed->boolean();
+  report.symmetry = readSymmetry(root.at("symmetry"));
+  if (const auto speed = root.find("speed")) report.speed = readSpeed(*speed);
+  if (const auto dap = root.find("dap")) report.dap = readDap(*dap);
   readProblems(root.at("problems"), report);
   if (const auto extra = root.find("extra")) readExtra(*extra, report);
   return report;

@@ -4,14 +4,17 @@
 // undefined. Each file opens with '#' lines naming the software version, input and capture rate.
 //
 //   events.csv    limb, event, frame, time_s
-//   strides.csv   one row per reference stride x limb: stride-level columns (gait, band,
-//                 quadrant, sequence, lead, symmetrical, aerial, dap) and the limb's
-//                 duty_factor and phase_cycles in that stride
-//   limbs.csv     one row per limb x measure: n, mean, sd, cv
-//   phases.csv    one row per limb: circular statistics of its relative phase
-//   support.csv   one row per support pattern (k limbs down, or a named combination)
-//   bouts.csv     one row per bout of same-gait strides
-//   symmetry.csv  one row per measure x limb pair: symmetry index and ratio
+//   strides.csv   one row per reference stride x limb: stride-level columns (gait, bout, band,
+//                 quadrant, sequence, leads, symmetrical, steady, complete, aerial, DAP per
+//                 diagonal, note) and the limb's duty_factor and phase_cycles in that stride
+//   bouts.csv     one row per bout of same-gait strides, with its key figures
+// Summary tables lead with scope, gait and bout (docs/methods.md §11): rows for the pooled
+// trial, for each gait over all its bouts, and for each bout.
+//   limbs.csv     one row per scope x limb x measure: n, mean, sd, cv
+//   phases.csv    one row per scope x limb: circular statistics of its relative phase
+//   support.csv   one row per scope x support pattern (k limbs down, or a named combination)
+//   symmetry.csv  one row per scope x measure x limb pair: symmetry index and ratio
+//   dap.csv       one row per scope x diagonal (and their mean and difference), quadrupeds
 #include <filesystem>
 #include <string>
 #include <string_view>
@@ -33,6 +36,17 @@ std::string phasesTable(const analysis::Report& report, const TableSource& sourc
 std::string supportTable(const analysis::Report& report, const TableSource& source);
 std::string boutsTable(const analysis::Report& report, const TableSource& source);
 std::string symmetryTable(const analysis::Report& report, const TableSource& source);
+std::string dapTable(const analysis::Report& report, const TableSource& source);
+
+struct NamedTable {
+  std::string fileName;  // "strides.csv"
+  std::string text;
+};
+
+// Every table in file order (events, strides, limbs, phases, support, bouts, symmetry, dap):
+// what `score --csv` writes, and `export` into its tables folder.
+std::vector<NamedTable> allTables(const model::Annotation& annotation,
+                                  const analysis::Report& report, const TableSource& source);
 
 // Writes every table into `folder` (created when missing); returns the files written.
 std::vector<std::filesystem::path> writeTables(const std::filesystem::path& folder,

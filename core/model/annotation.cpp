@@ -19,13 +19,17 @@ void Annotation::normalize() {
   std::sort(hidden.begin(), hidden.end(), [](const HiddenSpan& a, const HiddenSpan& b) {
     return a.limb != b.limb ? a.limb < b.limb : a.first < b.first;
   });
+  std::sort(excluded.begin(), excluded.end(),
+            [](const StrideExclusion& a, const StrideExclusion& b) {
+              return a.startFrame < b.startFrame;
+            });
 }
 
 std::vector<Event> Annotation::eventsOf(int limb) const {
   const auto first = std::lower_bound(events.begin(), events.end(), limb,
                                       [](const Event& e, int l) { return e.limb < l; });
-  const auto last = std::upper_bound(first, events.end(), limb,
-                                     [](int l, const Event& e) { return l < e.limb; });
+  const auto last =
+      std::upper_bound(first, events.end(), limb, [](int l, const Event& e) { return l < e.limb; });
   return {first, last};
 }
 

@@ -16,7 +16,7 @@ namespace stridemark::model {
 
 enum class EventKind { touchdown, liftoff };
 
-std::string_view eventWord(EventKind kind);                     // "touchdown" / "liftoff"
+std::string_view eventWord(EventKind kind);                      // "touchdown" / "liftoff"
 std::optional<EventKind> parseEventWord(std::string_view word);  // exact lower-case words
 
 struct Event {
@@ -48,13 +48,22 @@ struct FrameRange {
 };
 
 // What analysis consumes: a limb set, a capture rate and the tags.
+// A reference stride a person left out of the statistics, keyed by the frame it starts on
+// (the reference limb's touchdown); it stays visible, with its reason.
+struct StrideExclusion {
+  std::int64_t startFrame = 0;
+  std::string reason;
+  friend bool operator==(const StrideExclusion&, const StrideExclusion&) = default;
+};
+
 struct Annotation {
   LimbSet limbs = LimbSet::quadruped();
   Rational captureRate{240, 1};
   int referenceLimb = LimbSet::quadruped().defaultReference();
   std::vector<Event> events;  // kept sorted (see Event ordering) by normalize()
   std::vector<HiddenSpan> hidden;
-  std::optional<FrameRange> clip;  // frames that exist in the video, when known
+  std::optional<FrameRange> clip;         // frames that exist in the video, when known
+  std::vector<StrideExclusion> excluded;  // ascending by start frame
 
   void normalize();  // sort events and hidden spans
   // Events of one limb in frame order (the vector must be normalized).
@@ -64,21 +73,29 @@ struct Annotation {
   bool inStance(int limb, std::int64_t frame) const;
 };
 
+// A treadmill belt's speed from a frame on (docs/methods.md §12).
+struct SpeedStep {
+  std::int64_t fromFrame = 0;
+  double ms = 0;
+  friend bool operator==(const SpeedStep&, const SpeedStep&) = default;
+};
+
 struct TrialCard {
   std::string subject;
   std::string species;
   std::string condition;
   std::string observer;
   std::string notes;
-  std::optional<double> speedMs;      // belt or ground speed, m/s
-  std::string speedSource = "belt";   // "belt" or "ground"
-  std::optional<double> legLengthM;   // hip height / leg length used for Froude, m
+  std::optional<double> speedMs;        // belt or ground speed, m/s (from the start)
+  std::vector<SpeedStep> speedChanges;  // later speeds, ascending by frame
+  std::string speedSource = "belt";     // "belt" or "ground"
+  std::optional<double> legLengthM;     // hip height / leg length used for Froude, m
   friend bool operator==(const TrialCard&, const TrialCard&) = default;
 };
 
 struct VideoLink {
-  std::string path;        // as saved: relative to the project file when possible
-  std::string signature;   // size + hash of first and last MiB (core/video)
+  std::string path;       // as saved: relative to the project file when possible
+  std::string signature;  // size + hash of first and last MiB (core/video)
   std::int64_t frameCount = 0;
   Rational fileRate{0, 1};  // what the container claims
   friend bool operator==(const VideoLink&, const VideoLink&) = default;

@@ -151,6 +151,41 @@ TEST(Document, UndoRedoTrialCardHiddenSpanAndSettings) {
   EXPECT_EQ(doc.annotation().referenceLimb, LH);
 }
 
+TEST(Document, SwapTagsFromAFrameIsOneUndoStep) {
+  // Issue 16 item 2: the fix for one key press too many swaps a limb's tags from a frame on.
+  ProjectDocument doc;
+  doc.reset(quadrupedProject(), {});
+  for (const Event& e : {Event{10, LF, EventKind::touchdown}, Event{40, LF, EventKind::liftoff},
+                         Event{70, LF, EventKind::touchdown}, Event{100, LF, EventKind::liftoff},
+                         Event{50, RF, EventKind::touchdown}})
+    doc.addEvent(e);
+  const std::vector<Event> before = events(doc);
+  doc.swapTagsFrom(LF, 70);
+  EXPECT_TRUE(doc.contains({70, LF, EventKind::liftoff}));
+  EXPECT_TRUE(doc.contains({100, LF, EventKind::touchdown}));
+  EXPECT_TRUE(doc.contains({40, LF, EventKind::liftoff}));    // before the frame: as it was
+  EXPECT_TRUE(doc.contains({50, RF, EventKind::touchdown}));  // other limbs: as they were
+  doc.undoStack()->undo();
+  EXPECT_EQ(events(doc), before);
+}
+
+TEST(Document, ExcludeAndIncludeAStrideAreUndoSteps) {
+  // Issue 16 item 6: an exclusion carries its reason and is undone like any edit.
+  ProjectDocument doc;
+  doc.reset(quadrupedProject(), {});
+  EXPECT_TRUE(doc.excludeStride(120, "looked at the handler"));
+  EXPECT_FALSE(doc.excludeStride(120, "again"));
+  ASSERT_EQ(doc.annotation().excluded.size(), 1u);
+  EXPECT_EQ(doc.annotation().excluded[0].reason, "looked at the handler");
+  EXPECT_TRUE(doc.includeStride(120));
+  EXPECT_TRUE(doc.annotation().excluded.empty());
+  doc.undoStack()->undo();  // include undone: excluded again, with its reason
+  ASSERT_EQ(doc.annotation().excluded.size(), 1u);
+  EXPECT_EQ(doc.annotation().excluded[0].reason, "looked at the handler");
+  doc.undoStack()->undo();
+  EXPECT_TRUE(doc.annotation().excluded.empty());
+}
+
 TEST(Document, LimbSetChangesOnlyWhileUntagged) {
   ProjectDocument doc;
   doc.reset(quadrupedProject(), {});
@@ -220,6 +255,8 @@ TEST(Document, JournalRoundTripKeepsEverything) {
   p.trial.subject = "Beetle (invented)";
   p.trial.notes = "line one\nline \"two\"";
   p.trial.speedMs = 0.05;
+  p.trial.speedChanges = {{300, 0.08}};
+  p.annotation.excluded = {{40, "stumbled on the belt edge"}};
   p.video = model::VideoLink{"clips/a.mp4", "123-00ab-00cd", 500, {30, 1}};
   const auto back = journal::decode(journal::encode(p, QStringLiteral("/x/y.stridemark")), "j");
   EXPECT_EQ(back.annotation.events, p.annotation.events);
@@ -228,6 +265,7 @@ TEST(Document, JournalRoundTripKeepsEverything) {
   EXPECT_EQ(back.annotation.referenceLimb, 3);
   EXPECT_EQ(back.annotation.limbs, p.annotation.limbs);
   EXPECT_EQ(back.annotation.clip, p.annotation.clip);
+  EXPECT_EQ(back.annotation.excluded, p.annotation.excluded);
   EXPECT_EQ(back.trial, p.trial);
   EXPECT_EQ(back.video, p.video);
 }

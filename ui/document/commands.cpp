@@ -172,6 +172,56 @@ void HiddenSpanCommand::undo() {
 
 // --- Annotation settings ---
 
+SwapTagsCommand::SwapTagsCommand(ProjectDocument* doc, int limb, std::int64_t fromFrame)
+    : EditCommand(doc, QCoreApplication::translate("Stridemark", "Swap %1's tags from frame %2")
+                           .arg(QString::fromStdString(doc->annotation().limbs.label(limb)))
+                           .arg(fromFrame)),
+      limb_(limb),
+      fromFrame_(fromFrame) {}
+
+void SwapTagsCommand::redo() {
+  auto& a = project().annotation;
+  for (model::Event& e : a.events) {
+    if (e.limb != limb_ || e.frame < fromFrame_) continue;
+    e.kind = e.kind == model::EventKind::touchdown ? model::EventKind::liftoff
+                                                   : model::EventKind::touchdown;
+  }
+  a.normalize();
+  finished();
+}
+
+StrideExclusionCommand::StrideExclusionCommand(ProjectDocument* doc, std::int64_t startFrame,
+                                               std::string reason, bool exclude)
+    : EditCommand(doc, exclude ? QCoreApplication::translate("Stridemark", "Exclude stride")
+                               : QCoreApplication::translate("Stridemark", "Include stride")),
+      exclusion_{startFrame, std::move(reason)},
+      exclude_(exclude) {
+  if (exclude) return;
+  for (const model::StrideExclusion& x : doc->annotation().excluded)
+    if (x.startFrame == startFrame) exclusion_.reason = x.reason;  // to restore on undo
+}
+
+void StrideExclusionCommand::apply(bool exclude) {
+  auto& list = project().annotation.excluded;
+  std::erase_if(
+      list, [&](const model::StrideExclusion& x) { return x.startFrame == exclusion_.startFrame; });
+  if (exclude) {
+    const auto at = std::lower_bound(
+        list.begin(), list.end(), exclusion_.startFrame,
+        [](const model::StrideExclusion& x, std::int64_t f) { return x.startFrame < f; });
+    list.insert(at, exclusion_);
+  }
+  finished();
+}
+
+void StrideExclusionCommand::redo() {
+  apply(exclude_);
+}
+
+void StrideExclusionCommand::undo() {
+  apply(!exclude_);
+}
+
 AnnotationSettingsCommand::AnnotationSettingsCommand(ProjectDocument* doc, AnnotationSettings after)
     : EditCommand(doc, QCoreApplication::translate("Stridemark", "Change analysis settings")),
       before_{doc->annotation().limbs, doc->annotation().captureRate,

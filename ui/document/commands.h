@@ -3,6 +3,7 @@
 // what it needs to go both ways; consecutive nudges of the same events merge into one entry.
 #include <QUndoCommand>
 #include <cstdint>
+#include <string>
 #include <vector>
 
 #include "model/annotation.h"
@@ -80,6 +81,33 @@ class HiddenSpanCommand : public EditCommand {
   void apply(bool add);
   model::HiddenSpan span_;
   bool add_;
+};
+
+// Swaps touchdown and lift-off of one limb's tags from a frame on: the fix for one key press
+// too many, which flips the meaning of every later tag (docs/methods.md §1.5).
+class SwapTagsCommand : public EditCommand {
+ public:
+  SwapTagsCommand(ProjectDocument* doc, int limb, std::int64_t fromFrame);
+  void redo() override;
+  void undo() override { redo(); }  // swapping twice restores the tags
+
+ private:
+  int limb_;
+  std::int64_t fromFrame_;
+};
+
+// Leaves a reference stride out of the statistics with a reason, or takes it back in.
+class StrideExclusionCommand : public EditCommand {
+ public:
+  StrideExclusionCommand(ProjectDocument* doc, std::int64_t startFrame, std::string reason,
+                         bool exclude);
+  void redo() override;
+  void undo() override;
+
+ private:
+  void apply(bool exclude);
+  model::StrideExclusion exclusion_;
+  bool exclude_;
 };
 
 // Limb set, capture rate and reference limb: analysis settings kept in the annotation. The

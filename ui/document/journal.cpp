@@ -23,6 +23,10 @@ model::TrialCard decodeTrial(const QJsonObject& o) {
   if (o.contains("speed_m_s")) t.speedMs = o["speed_m_s"].toDouble();
   t.speedSource = o["speed_source"].toString(QStringLiteral("belt")).toStdString();
   if (o.contains("leg_length_m")) t.legLengthM = o["leg_length_m"].toDouble();
+  for (const auto& item : o["speed_changes"].toArray()) {
+    const auto s = item.toArray();
+    if (s.size() == 2) t.speedChanges.push_back({s.at(0).toInteger(), s.at(1).toDouble()});
+  }
   return t;
 }
 
@@ -74,6 +78,15 @@ QByteArray encode(const model::Project& project, const QString& projectPath) {
     out.endArray();
   }
   out.endArray();
+  out.key("excluded");
+  out.beginArray();
+  for (const auto& x : a.excluded) {
+    out.beginArray();
+    out.integer(x.startFrame);
+    out.string(x.reason);
+    out.endArray();
+  }
+  out.endArray();
   if (a.clip) {
     out.key("clip");
     out.beginArray();
@@ -99,6 +112,15 @@ QByteArray encode(const model::Project& project, const QString& projectPath) {
     out.key("leg_length_m");
     out.number(*t.legLengthM);
   }
+  out.key("speed_changes");
+  out.beginArray();
+  for (const auto& step : t.speedChanges) {
+    out.beginArray();
+    out.integer(step.fromFrame);
+    out.number(step.ms);
+    out.endArray();
+  }
+  out.endArray();
   out.endObject();
   if (project.video) {
     out.key("video");
@@ -144,6 +166,11 @@ model::Project decode(const QByteArray& bytes, const QString& file) {
     const auto h = item.toArray();
     if (h.size() != 3) fail(file, "bad hidden span entry");
     a.hidden.push_back({h.at(0).toInt(), h.at(1).toInteger(), h.at(2).toInteger()});
+  }
+  for (const auto& item : root["excluded"].toArray()) {
+    const auto x = item.toArray();
+    if (x.size() != 2) fail(file, "bad excluded stride entry");
+    a.excluded.push_back({x.at(0).toInteger(), x.at(1).toString().toStdString()});
   }
   if (root.contains("clip")) {
     const auto c = root["clip"].toArray();

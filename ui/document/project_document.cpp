@@ -153,6 +153,29 @@ void ProjectDocument::removeHiddenSpan(const model::HiddenSpan& span) {
   undo_.push(new HiddenSpanCommand(this, span, false));
 }
 
+void ProjectDocument::swapTagsFrom(int limb, std::int64_t fromFrame) {
+  if (limb < 0 || limb >= project_.annotation.limbs.size()) return;
+  undo_.push(new SwapTagsCommand(this, limb, fromFrame));
+}
+
+bool ProjectDocument::isExcluded(std::int64_t startFrame) const {
+  const auto& list = project_.annotation.excluded;
+  return std::any_of(list.begin(), list.end(),
+                     [&](const model::StrideExclusion& x) { return x.startFrame == startFrame; });
+}
+
+bool ProjectDocument::excludeStride(std::int64_t startFrame, const std::string& reason) {
+  if (isExcluded(startFrame)) return false;
+  undo_.push(new StrideExclusionCommand(this, startFrame, reason, true));
+  return true;
+}
+
+bool ProjectDocument::includeStride(std::int64_t startFrame) {
+  if (!isExcluded(startFrame)) return false;
+  undo_.push(new StrideExclusionCommand(this, startFrame, {}, false));
+  return true;
+}
+
 void ProjectDocument::setCaptureRate(Rational rate) {
   const auto& a = project_.annotation;
   if (!rate.valid() || rate == a.captureRate) return;

@@ -49,6 +49,13 @@ class ProjectDocument : public QObject {
   void removeEvents(const std::vector<model::Event>& events);
   // Moves events by `delta` frames. Nudges (one-frame key moves) merge into one history entry.
   bool moveEvents(const std::vector<model::Event>& events, std::int64_t delta, bool nudge);
+  // Swaps touchdown and lift-off of `limb`'s tags at and after `fromFrame` (one undo step).
+  void swapTagsFrom(int limb, std::int64_t fromFrame);
+  // Leaves the reference stride starting at `startFrame` out of the statistics, with a reason;
+  // includeStride() takes it back. Both are undo steps; a no-op returns false.
+  bool excludeStride(std::int64_t startFrame, const std::string& reason);
+  bool includeStride(std::int64_t startFrame);
+  bool isExcluded(std::int64_t startFrame) const;
   void setTrialCard(const model::TrialCard& card);
   void addHiddenSpan(const model::HiddenSpan& span);
   void removeHiddenSpan(const model::HiddenSpan& span);

@@ -1,5 +1,6 @@
 #include "ui/export/report_pdf.h"
 
+#include <algorithm>
 #include <cmath>
 #include <set>
 
@@ -75,16 +76,31 @@ void trialCard(PdfDocument& doc, const ReportSource& src) {
   doc.keyValues(rows);
 }
 
-void limbTable(PdfDocument& doc, const Report& r) {
+// The trial-level members of the report as one summary (the same shape as a gait's).
+analysis::Summary pooledSummary(const Report& r) {
+  analysis::Summary s;
+  s.strides = static_cast<int>(r.strides.size());
+  s.limbs = r.limbSummary;
+  s.phase = r.phase;
+  s.hildebrand = r.hildebrand;
+  s.support = r.support;
+  s.supportByCombination = r.supportByCombination;
+  s.symmetry = r.symmetry;
+  s.speed = r.speed;
+  s.dap = r.dap;
+  return s;
+}
+
+void limbTable(PdfDocument& doc, const Report& r, const analysis::Summary& summary) {
   doc.heading(QStringLiteral("Per limb: mean ± SD (coefficient of variation)"));
   const std::vector<TableColumn> cols = {
       {QStringLiteral("Limb"), 0.6},     {QStringLiteral("n"), 0.4, Qt::AlignRight},
       {QStringLiteral("Stride (s)"), 2}, {QStringLiteral("Stance (s)"), 2},
       {QStringLiteral("Swing (s)"), 2},  {QStringLiteral("Duty factor"), 2}};
   std::vector<QStringList> rows;
-  for (int limb = 0; limb < r.limbs.size() && limb < static_cast<int>(r.limbSummary.size());
+  for (int limb = 0; limb < r.limbs.size() && limb < static_cast<int>(summary.limbs.size());
        ++limb) {
-    const analysis::LimbSummary& s = r.limbSummary[static_cast<std::size_t>(limb)];
+    const analysis::LimbSummary& s = summary.limbs[static_cast<std::size_t>(limb)];
     rows.push_back({limbLabel(r, limb), QString::number(s.strides), formatStat(s.strideS, 3),
                     formatStat(s.stanceS, 3), formatStat(s.swingS, 3),
                     formatStat(s.dutyFactor, 3)});
@@ -92,7 +108,7 @@ void limbTable(PdfDocument& doc, const Report& r) {
   doc.table(cols, rows);
 }
 
-void phaseTable(PdfDocument& doc, const Report& r) {
+void phaseTable(PdfDocument& doc, const Report& r, const analysis::Summary& summary) {
   doc.heading(QStringLiteral("Relative phase to ") + limbLabel(r, r.referenceLimb) +
               QStringLiteral(" (cycles, 0–1)"));
   const std::vector<TableColumn> cols = {{QStringLiteral("Limb"), 1},
@@ -102,26 +118,27 @@ void phaseTable(PdfDocument& doc, const Report& r) {
                                          {QStringLiteral("Circular SD"), 1.5, Qt::AlignRight},
                                          {QStringLiteral("Rayleigh p"), 1.5, Qt::AlignRight}};
   std::vector<QStringList> rows;
-  for (int limb = 0; limb < r.limbs.size() && limb < static_cast<int>(r.phase.size()); ++limb) {
-    const analysis::PhaseSummary& s = r.phase[static_cast<std::size_t>(limb)];
+  for (int limb = 0; limb < r.limbs.size() && limb < static_cast<int>(summary.phase.size());
+       ++limb) {
+    const analysis::PhaseSummary& s = summary.phase[static_cast<std::size_t>(limb)];
     rows.push_back({limbLabel(r, limb), QString::number(s.n), formatNumber(s.mean, 3),
                     formatNumber(s.r, 3), formatNumber(s.circSd, 3), formatNumber(s.rayleighP, 4)});
   }
   doc.table(cols, rows);
 }
 
-void hildebrandAndSupport(PdfDocument& doc, const Report& r) {
+void hildebrandAndSupport(PdfDocument& doc, const analysis::Summary& r) {
   if (r.hildebrand) {
     doc.heading(QStringLiteral("Hildebrand values"));
     doc.keyValues({
+        {QStringLiteral("Strides"), QString::number(r.hildebrand->n)},
         {QStringLiteral("Duty factor (hind)"), formatNumber(r.hildebrand->dutyFactor, 3)},
         {QStringLiteral("Limb phase (LF to LH)"), formatNumber(r.hildebrand->limbPhase, 3)},
         {QStringLiteral("Band"), orDash(r.hildebrand->band)},
-        {QStringLiteral("Quadrant (Cartmill et al. 2002)"), orDash(r.hildebrand->quadrant)},
     });
   }
   if (!r.support.empty()) {
-    doc.heading(QStringLiteral("Support: share of scored time with k limbs in stance"));
+    doc.heading(QStringLiteral("Support: share of the strides' time with k limbs in stance"));
     std::vector<TableColumn> cols = {{QStringLiteral("Limbs in stance"), 2}};
     QStringList row = {QStringLiteral("Share (%)")};
     for (std::size_t k = 0; k < r.support.size(); ++k) {
@@ -142,14 +159,22 @@ void hildebrandAndSupport(PdfDocument& doc, const Report& r) {
          s.relativeStrideLength ? formatNumber(*s.relativeStrideLength, 2) : QStringLiteral("–")},
     });
   }
+  if (r.dap) {
+    doc.heading(QStringLiteral("Diagonal advanced placement (ms; positive = hind limb first)"));
+    const analysis::DapSummary& d = *r.dap;
+    doc.keyValues({
+        {QStringLiteral("LH–RF"), formatStat(d.lhRfMs, 1)},
+        {QStringLiteral("RH–LF"), formatStat(d.rhLfMs, 1)},
+        {QStringLiteral("Mean of the two"), formatNumber(d.meanMs, 1)},
+        {QStringLiteral("Difference (LH–RF minus RH–LF)"), formatNumber(d.differenceMs, 1)},
+    });
+  }
 }
 
-void symmetryTable(PdfDocument& doc, const Report& r) {
-  const std::vector<std::pair<QString, const analysis::SymmetryValues*>> measures = {
-      {QStringLiteral("Stride time"), &r.symmetry.strideS},
-      {QStringLiteral("Stance time"), &r.symmetry.stanceS},
-      {QStringLiteral("Swing time"), &r.symmetry.swingS},
-      {QStringLiteral("Duty factor"), &r.symmetry.dutyFactor}};
+void symmetryTable(PdfDocument& doc, const analysis::Summary& r) {
+  std::vector<std::pair<QString, const analysis::SymmetryValues*>> measures;
+  for (const analysis::SymmetryMeasure& m : analysis::kSymmetryMeasures)
+    measures.push_back({QString::fromLatin1(m.title), &(r.symmetry.*m.values)});
   std::set<std::string> pairs;
   for (const auto& m : measures) {
     for (const auto& [pair, si] : m.second->si) pairs.insert(pair);
@@ -182,13 +207,15 @@ void boutTable(PdfDocument& doc, const Report& r) {
     return;
   }
   const std::vector<TableColumn> cols = {{QStringLiteral("Gait"), 2},
-                                         {QStringLiteral("Strides"), 1, Qt::AlignRight},
+                                         {QStringLiteral("Stride nos."), 1, Qt::AlignRight},
+                                         {QStringLiteral("Summarised"), 1, Qt::AlignRight},
                                          {QStringLiteral("Frames"), 1.6, Qt::AlignRight},
                                          {QStringLiteral("Duration (s)"), 1.2, Qt::AlignRight}};
   std::vector<QStringList> rows;
   for (const analysis::Bout& b : r.bouts) {
     rows.push_back({qs(b.gait),
                     QStringLiteral("%1–%2").arg(b.firstStride + 1).arg(b.lastStride + 1),
+                    QString::number(b.summary.strides),
                     QStringLiteral("%1–%2").arg(b.startFrame).arg(b.endFrame),
                     formatNumber(framesToSeconds(b.endFrame - b.startFrame, r.fps), 3)});
   }
@@ -240,30 +267,52 @@ void problemsAndExclusions(PdfDocument& doc, const Report& r) {
     }
     doc.table(cols, rows);
   }
-  doc.heading(QStringLiteral("Excluded or incomplete strides"));
+  doc.heading(QStringLiteral("Strides left out of the figures"));
   QStringList lines;
-  int index = 0;
-  for (const analysis::StrideRecord& s : r.strides) {
-    ++index;
-    QStringList missing;
-    for (int limb = 0; limb < r.limbs.size(); ++limb) {
-      const auto i = static_cast<std::size_t>(limb);
-      if (i >= s.dutyFactor.size() || !s.dutyFactor[i]) missing << limbLabel(r, limb);
-    }
-    if (!missing.isEmpty()) {
-      lines << QStringLiteral(
-                   "Stride %1 (frames %2–%3): no complete cycle of %4; left out of that limb's "
-                   "figures.")
-                   .arg(index)
-                   .arg(s.startFrame)
-                   .arg(s.endFrame)
-                   .arg(missing.join(QStringLiteral(", ")));
-    }
+  for (std::size_t i = 0; i < r.strides.size(); ++i) {
+    const analysis::StrideRecord& s = r.strides[i];
+    if (s.gait != "unclassified" && s.gait != "transition" && s.steady && !s.excluded) continue;
+    const QString why = s.excluded ? QStringLiteral("excluded by the scorer: ") + qs(*s.excluded)
+                        : s.note   ? qs(*s.note)
+                                   : qs(s.gait);
+    lines << QStringLiteral("Stride %1 (frames %2–%3, %4): %5.")
+                 .arg(i + 1)
+                 .arg(s.startFrame)
+                 .arg(s.endFrame)
+                 .arg(qs(s.gait), why);
   }
+  doc.paragraph(lines.isEmpty()
+                    ? QStringLiteral("None: every reference stride is complete and steady.")
+                    : lines.join(QLatin1Char('\n')));
+}
+
+// One gait's figures (or, when no bout has formed, every scored stride's).
+void gaitSection(PdfDocument& doc, const Report& r, const std::string& gait,
+                 const analysis::Summary& summary) {
+  doc.heading(gait.empty() ? QStringLiteral("All scored strides (no gait bout formed)")
+                           : QStringLiteral("%1 (%2 strides)").arg(qs(gait)).arg(summary.strides));
+  limbTable(doc, r, summary);
+  symmetryTable(doc, summary);
+  phaseTable(doc, r, summary);
+  hildebrandAndSupport(doc, summary);
+}
+
+void methodsParagraph(PdfDocument& doc, const Report& r) {
+  doc.heading(QStringLiteral("Methods"));
   doc.paragraph(
-      lines.isEmpty()
-          ? QStringLiteral("None: every reference stride has a complete cycle of every limb.")
-          : lines.join(QLatin1Char('\n')));
+      QStringLiteral(
+          "Strides run from one touchdown of the reference limb (%1) to its next. Duty factor "
+          "is stance over stride time of each limb's own cycle; relative phase is a limb's "
+          "touchdown after the reference touchdown, as a share of the stride (0–1). Times come "
+          "from frame numbers at the capture rate (%2 frames/s). A stride is classified only "
+          "when every limb lands once in it with its own cycle fully tagged; a bout is at least "
+          "two strides of one gait, and figures are given per gait over the steady strides of "
+          "its bouts. Symmetrical quadruped gaits follow Hildebrand's limb phase and duty "
+          "factor; uneven walking strides stay walks. Symmetry index (Robinson): (R − L) / "
+          "(½ (R + L)) × 100, positive when the right value is larger. Diagonal advanced "
+          "placement: fore touchdown minus hind touchdown of each diagonal, positive when the "
+          "hind limb lands first. Definitions and sources: docs/methods.md of Stridemark %3.")
+          .arg(limbLabel(r, r.referenceLimb), qs(toString(r.fps)), QString::fromLatin1(kVersion)));
 }
 
 }  // namespace
@@ -280,11 +329,21 @@ int writeReportPdf(const ReportSource& source, const std::vector<NamedFigure>& f
                 QStringLiteral(" · scored by ") + orDash(source.project->trial.observer) +
                 QStringLiteral(" · ") + qs(source.exportedAt) + QStringLiteral(" UTC"));
   trialCard(doc, source);
-  limbTable(doc, r);
-  symmetryTable(doc, r);
-  phaseTable(doc, r);
-  hildebrandAndSupport(doc, r);
   boutTable(doc, r);
+  if (r.mixedGaits) {
+    doc.paragraph(QStringLiteral(
+        "This trial has more than one gait, so its figures are given per gait; pooled figures "
+        "would mix gaits (for example a walk's and a trot's duty factors) and are not shown."));
+    std::vector<std::string> order;  // gaits in the order the trial shows them
+    for (const analysis::Bout& b : r.bouts)
+      if (std::find(order.begin(), order.end(), b.gait) == order.end()) order.push_back(b.gait);
+    for (const std::string& gait : order) gaitSection(doc, r, gait, r.byGait.at(gait));
+  } else if (r.byGait.size() == 1) {
+    gaitSection(doc, r, r.byGait.begin()->first, r.byGait.begin()->second);
+  } else {
+    gaitSection(doc, r, {}, pooledSummary(r));
+  }
+  methodsParagraph(doc, r);
   for (const NamedFigure& f : figures) {
     // Slightly larger than the standalone file, still with the same proportions and fonts.
     doc.figure(f.paint, f.size, 1.5, f.title + QStringLiteral(". ") + f.caption);

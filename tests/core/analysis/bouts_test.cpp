@@ -18,9 +18,9 @@ StrideRecord stride(std::int64_t start, std::int64_t end, const char* gait) {
 
 TEST(Bouts, ConsecutiveSameGaitStridesJoin) {
   // Common practice, no source: a bout is a run of touching strides with one gait.
-  const std::vector<StrideRecord> strides = {stride(0, 100, "walk"), stride(100, 200, "walk"),
-                                             stride(200, 290, "trot"), stride(290, 380, "trot"),
-                                             stride(500, 590, "trot")};
+  std::vector<StrideRecord> strides = {stride(0, 100, "walk"),   stride(100, 200, "walk"),
+                                       stride(200, 290, "trot"), stride(290, 380, "trot"),
+                                       stride(500, 590, "trot"), stride(590, 680, "trot")};
   const std::vector<Bout> bouts = findBouts(strides);
   ASSERT_EQ(bouts.size(), 3u);
   EXPECT_EQ(bouts[0].gait, "walk");
@@ -30,12 +30,64 @@ TEST(Bouts, ConsecutiveSameGaitStridesJoin) {
   EXPECT_EQ(bouts[1].firstStride, 2);
   EXPECT_EQ(bouts[1].lastStride, 3);
   EXPECT_EQ(bouts[2].startFrame, 500);  // a gap starts a new bout even with the same gait
-  const std::vector<Transition> transitions = findTransitions(bouts);
+  const std::vector<Transition> transitions = findTransitions(bouts, strides);
   ASSERT_EQ(transitions.size(), 1u);  // no transition across the gap
   EXPECT_EQ(transitions[0].fromGait, "walk");
   EXPECT_EQ(transitions[0].toGait, "trot");
   EXPECT_EQ(transitions[0].frame, 200);
   EXPECT_EQ(transitions[0].stride, 2);
+}
+
+TEST(Bouts, UnclassifiedStridesInsideARunDoNotEndIt) {
+  // Source: docs/methods.md §11: unclassified strides inside a run of one gait do not end the
+  // bout; they are left out of its statistics.
+  std::vector<StrideRecord> strides = {stride(0, 60, "trot"), stride(60, 120, "unclassified"),
+                                       stride(120, 180, "trot"), stride(180, 240, "trot")};
+  const std::vector<Bout> bouts = findBouts(strides);
+  ASSERT_EQ(bouts.size(), 1u);
+  EXPECT_EQ(bouts[0].firstStride, 0);
+  EXPECT_EQ(bouts[0].lastStride, 3);
+  EXPECT_EQ(strides[1].bout, 0);
+  EXPECT_EQ(summarisedMembers(strides, bouts[0]), (std::vector<int>{0, 2, 3}));
+}
+
+TEST(Bouts, OneStrideOfAGaitBetweenTwoBoutsIsATransition) {
+  // Source: docs/methods.md §11: a gait seen in a single stride between two bouts is no bout.
+  std::vector<StrideRecord> strides = {stride(0, 100, "walk"), stride(100, 200, "walk"),
+                                       stride(200, 283, "canter"), stride(283, 343, "trot"),
+                                       stride(343, 403, "trot")};
+  const std::vector<Bout> bouts = findBouts(strides);
+  ASSERT_EQ(bouts.size(), 2u);
+  EXPECT_EQ(bouts[0].gait, "walk");
+  EXPECT_EQ(bouts[1].gait, "trot");
+  EXPECT_EQ(strides[2].gait, "transition");
+  EXPECT_EQ(strides[2].bout, -1);
+  const std::vector<Transition> transitions = findTransitions(bouts, strides);
+  ASSERT_EQ(transitions.size(), 1u);
+  EXPECT_EQ(transitions[0].frame, 283);
+}
+
+TEST(Bouts, UnsteadyStrideWhereGaitsMeetIsATransition) {
+  // Source: docs/methods.md §1.5: an unsteady stride between two bouts of different gaits is
+  // a transition; elsewhere it keeps its label.
+  std::vector<StrideRecord> strides = {stride(0, 100, "walk"),   stride(100, 200, "walk"),
+                                       stride(200, 290, "walk"), stride(290, 350, "trot"),
+                                       stride(350, 410, "trot"), stride(410, 470, "trot")};
+  strides[2].steady = false;
+  strides[5].steady = false;  // inside the trot bout's end: keeps its label
+  const std::vector<Bout> bouts = findBouts(strides);
+  ASSERT_EQ(bouts.size(), 2u);
+  EXPECT_EQ(strides[2].gait, "transition");
+  EXPECT_EQ(bouts[0].lastStride, 1);
+  EXPECT_EQ(strides[5].gait, "trot");
+  EXPECT_EQ(summarisedMembers(strides, bouts[1]), (std::vector<int>{3, 4}));
+}
+
+TEST(Bouts, ASingleStrideIsNoBout) {
+  // Source: docs/methods.md §11: a bout is at least 2 strides (configurable).
+  std::vector<StrideRecord> strides = {stride(0, 100, "walk")};
+  EXPECT_TRUE(findBouts(strides).empty());
+  EXPECT_EQ(findBouts(strides, 1).size(), 1u);
 }
 
 // Appends `count` cycles of one limb: touchdowns at start + k * stride + offset * stride.
@@ -67,12 +119,24 @@ TEST(Bouts, WalkToTrotTransitionFromTags) {
   ASSERT_EQ(r.strides.size(), 6u);
   ASSERT_EQ(r.bouts.size(), 2u);
   EXPECT_EQ(r.bouts[0].gait, "walk");
-  EXPECT_EQ(r.bouts[0].lastStride, 2);
+  // Source: docs/methods.md §1.5: in the last walk stride LF's cycle (3700-5100) is 1.17x the
+  // stride, so it is unsteady where the gaits meet: a transition. In the next one RF lands at
+  // 5600 only (trot offset 1.0): no touchdown in 4600-5600, so it is unclassified.
+  EXPECT_EQ(r.bouts[0].lastStride, 1);
+  EXPECT_EQ(r.strides[2].gait, "transition");
+  EXPECT_EQ(r.strides[3].gait, "unclassified");
   EXPECT_EQ(r.bouts[1].gait, "trot");
-  EXPECT_EQ(r.bouts[1].startFrame, 4600);
+  EXPECT_EQ(r.bouts[1].startFrame, 5600);
   ASSERT_EQ(r.transitions.size(), 1u);
-  EXPECT_EQ(r.transitions[0].frame, 4600);
+  EXPECT_EQ(r.transitions[0].frame, 5600);
   EXPECT_EQ(r.transitions[0].fromGait, "walk");
+  // Source: docs/methods.md §11: per-gait summaries, and the trial flagged as mixed.
+  EXPECT_TRUE(r.mixedGaits);
+  ASSERT_EQ(r.byGait.count("walk"), 1u);
+  ASSERT_EQ(r.byGait.count("trot"), 1u);
+  EXPECT_NEAR(r.byGait.at("walk").limbs[2].dutyFactor.mean, 0.7, 1e-9);
+  EXPECT_NEAR(r.byGait.at("trot").limbs[2].dutyFactor.mean, 0.4, 1e-9);
+  EXPECT_EQ(r.bouts[0].summary.strides, 2);
 }
 
 }  // namespace

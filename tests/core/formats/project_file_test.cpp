@@ -30,6 +30,7 @@ model::Project sampleProject() {
   project.trial.observer = "unit test";
   project.trial.notes = "line one\nline two — ünïcode";
   project.trial.speedMs = 0.021;
+  project.trial.speedChanges = {{600, 0.035}, {1500, 0.0}};
   project.trial.speedSource = "ground";
   project.trial.legLengthM = 0.004;
   project.video = model::VideoLink{"clips/m7.mp4", "123456:abcdef", 2000, Rational{30, 1}};
@@ -61,7 +62,41 @@ TEST(ProjectFile, RoundTripsEveryField) {
   const std::string text = projectJsonText(project);
   EXPECT_NE(text.find("\"schema\": \"stridemark.project.v1\""), std::string::npos);
   EXPECT_NE(text.find("\"capture_rate\": \"30000/1001\""), std::string::npos);
+  EXPECT_NE(text.find("\"speed_changes\": ["), std::string::npos) << text;
   expectSameProject(parseProjectJson(text, "p.stridemark"), project);
+}
+
+// Source: docs/methods.md §12 (the trial card holds the belt speed as a list of changes);
+// the layout is ours (CHANGELOG.md, project file).
+TEST(ProjectFile, SpeedChangesAreWrittenAsFramesAndSpeeds) {
+  model::Project project;
+  project.trial.speedMs = 1.0;
+  project.trial.speedChanges = {{620, 2.5}};
+  const nlohmann::json document = nlohmann::json::parse(projectJsonText(project));
+  EXPECT_EQ(document["schema_version"], 1);
+  EXPECT_EQ(document["trial"]["speed_m_s"], 1.0);
+  EXPECT_EQ(document["trial"]["speed_changes"],
+            nlohmann::json::parse(R"([{"from_frame": 620, "m_s": 2.5}])"));
+  // No changes: an empty list, still written.
+  project.trial.speedChanges.clear();
+  const nlohmann::json none = nlohmann::json::parse(projectJsonText(project));
+  EXPECT_EQ(none["trial"]["speed_changes"], nlohmann::json::array());
+}
+
+TEST(ProjectFile, VersionOneFilesWithoutSpeedChangesStillRead) {
+  // A schema_version 1 file as written before speed_changes existed.
+  const model::Project project = parseProjectJson(
+      R"({"schema":"stridemark.project.v1","schema_version":1,"limb_set":"quadruped",
+          "capture_rate":"240","trial":{"speed_m_s":1.2,"speed_source":"belt"},"events":[]})",
+      "old.stridemark");
+  ASSERT_TRUE(project.trial.speedMs.has_value());
+  EXPECT_EQ(*project.trial.speedMs, 1.2);
+  EXPECT_TRUE(project.trial.speedChanges.empty());
+  const model::Project nullChanges = parseProjectJson(
+      R"({"schema":"stridemark.project.v1","schema_version":1,"limb_set":"quadruped",
+          "capture_rate":"240","trial":{"speed_m_s":1.2,"speed_changes":null},"events":[]})",
+      "p.stridemark");
+  EXPECT_TRUE(nullChanges.trial.speedChanges.empty());
 }
 
 TEST(ProjectFile, RoundTripsEmptyOptionalParts) {
@@ -93,6 +128,7 @@ TEST(ProjectFile, MigratesThePreReleaseLayout) {
   EXPECT_EQ(project.trial.observer, "fixture");
   ASSERT_TRUE(project.video.has_value());
   EXPECT_EQ(project.video->path, "clips/walk.mp4");
+  EXPECT_TRUE(project.trial.speedChanges.empty());
   // Saving writes the current layout; reading it back gives the same project.
   expectSameProject(parseProjectJson(projectJsonText(project), "again"), project);
 }
@@ -159,6 +195,35 @@ INSTANTIATE_TEST_SUITE_P(
                    "at /capture_rate:"},
         BadProject{"bad speed", v1("[]", R"(,"trial":{"speed_m_s":-1})"),
                    "at /trial/speed_m_s: expected a positive number"},
+        BadProject{"speed change negative",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":9,)"
+                            R"("m_s":-2}]})"),
+                   "at /trial/speed_changes/0/m_s: expected a speed of 0 m/s or more"},
+        BadProject{"speed change not a number",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":9,)"
+                            R"("m_s":"fast"}]})"),
+                   "at /trial/speed_changes/0/m_s: expected a number"},
+        BadProject{"speed change at frame 0",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":0,)"
+                            R"("m_s":2}]})"),
+                   "at /trial/speed_changes/0/from_frame: expected a frame after 0"},
+        BadProject{"speed change fractional frame",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":6.5,)"
+                            R"("m_s":2}]})"),
+                   "at /trial/speed_changes/0/from_frame: expected a whole number"},
+        BadProject{"speed changes not ascending",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":600,)"
+                            R"("m_s":2},{"from_frame":300,"m_s":3}]})"),
+                   "at /trial/speed_changes/1/from_frame: frame 300 does not follow frame 600"},
+        BadProject{"speed change missing speed",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":[{"from_frame":60}]})"),
+                   "at /trial/speed_changes/0/m_s: missing"},
+        BadProject{"speed changes not a list",
+                   v1("[]", R"(,"trial":{"speed_m_s":1,"speed_changes":{"from_frame":60}})"),
+                   "at /trial/speed_changes: expected an array"},
+        BadProject{"speed changes without start",
+                   v1("[]", R"(,"trial":{"speed_changes":[{"from_frame":60,"m_s":2}]})"),
+                   "at /trial/speed_changes: speed changes without a speed from the start"},
         BadProject{"hidden backwards", v1("[]", R"(,"hidden":[{"limb":"LF","first":9,"last":3}])"),
                    "at /hidden/0/last:"}),
     [](const ::testing::TestParamInfo<BadProject>& param) {
