@@ -172,6 +172,13 @@ void readHidden(const JsonIn& in, model::Annotation& annotation) {
   }
 }
 
+void readExcluded(const JsonIn& in, model::Annotation& annotation) {
+  for (std::size_t i = 0; i < in.arraySize(); ++i) {
+    const JsonIn item = in.at(i);
+    annotation.excluded.push_back({frameAt(item.at("start_frame")), item.at("reason").text()});
+  }
+}
+
 model::Project readCurrent(const JsonIn& root) {
   const JsonIn schema = root.at("schema");
   if (schema.text() != kProjectSchema) {
@@ -197,6 +204,7 @@ model::Project readCurrent(const JsonIn& root) {
   if (const auto video = root.find("video")) project.video = readVideo(*video);
   readEvents(root.at("events"), annotation);
   if (const auto hidden = root.find("hidden")) readHidden(*hidden, annotation);
+  if (const auto excluded = root.find("excluded_strides")) readExcluded(*excluded, annotation);
   annotation.normalize();
   return project;
 }
@@ -230,6 +238,13 @@ std::string projectJsonText(const model::Project& project) {
                 {"video", videoJson(project.video)},
                 {"events", std::move(events)},
                 {"hidden", std::move(hidden)}};
+  // Strides a person left out of the statistics (optional: older files have none).
+  if (!annotation.excluded.empty()) {
+    Json excluded = Json::array();
+    for (const auto& x : annotation.excluded)
+      excluded.push_back({{"start_frame", x.startFrame}, {"reason", x.reason}});
+    document["excluded_strides"] = std::move(excluded);
+  }
   return document.dump(1) + "\n";
 }
 

@@ -83,6 +83,21 @@ TEST(ProjectFile, SpeedChangesAreWrittenAsFramesAndSpeeds) {
   EXPECT_EQ(none["trial"]["speed_changes"], nlohmann::json::array());
 }
 
+// Issue 16 item 6: an exclusion is saved in the project with its reason; the layout is ours.
+TEST(ProjectFile, ExcludedStridesKeepTheirReasons) {
+  model::Project project;
+  project.annotation.excluded = {{1200, "looked back at the handler"}, {400, "stumbled"}};
+  const std::string text = projectJsonText(project);
+  const nlohmann::json document = nlohmann::json::parse(text);
+  EXPECT_EQ(document["excluded_strides"][0]["reason"], "looked back at the handler");
+  const model::Project back = parseProjectJson(text, "p.stridemark");
+  ASSERT_EQ(back.annotation.excluded.size(), 2u);
+  EXPECT_EQ(back.annotation.excluded[0].startFrame, 400);  // in frame order
+  EXPECT_EQ(back.annotation.excluded[1].reason, "looked back at the handler");
+  // None: no key, so files without exclusions keep their bytes.
+  EXPECT_EQ(projectJsonText(model::Project{}).find("excluded_strides"), std::string::npos);
+}
+
 TEST(ProjectFile, VersionOneFilesWithoutSpeedChangesStillRead) {
   // A schema_version 1 file as written before speed_changes existed.
   const model::Project project = parseProjectJson(
