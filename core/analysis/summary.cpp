@@ -168,6 +168,22 @@ std::optional<double> meanSpeed(const std::vector<SpeedStep>& speed, std::int64_
   return sum / static_cast<double>(end - first);
 }
 
+Summary trialSummary(const Report& report) {
+  Summary s;
+  s.strides = static_cast<int>(std::count_if(
+      report.strides.begin(), report.strides.end(),
+      [](const StrideRecord& r) { return r.steady && r.gait != "transition" && !r.excluded; }));
+  s.limbs = report.limbSummary;
+  s.phase = report.phase;
+  s.hildebrand = report.hildebrand;
+  s.support = report.support;
+  s.supportByCombination = report.supportByCombination;
+  s.symmetry = report.symmetry;
+  s.speed = report.speed;
+  s.dap = report.dap;
+  return s;
+}
+
 Summary summariseStrides(const std::vector<StrideRecord>& strides, const std::vector<int>& members,
                          const SummaryInputs& in) {
   Summary out;

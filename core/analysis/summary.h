@@ -20,6 +20,10 @@ struct SummaryInputs {
   std::optional<double> legLengthM;
 };
 
+// The trial-level members of a report as one summary (the shape of a gait's or a bout's); its
+// stride count is the strides those members were made from.
+Summary trialSummary(const Report& report);
+
 // Summary of strides[i] for each i in `members` (ascending).
 Summary summariseStrides(const std::vector<StrideRecord>& strides, const std::vector<int>& members,
                          const SummaryInputs& in);

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <tuple>
 
+#include "analysis/summary.h"
 #include "common/error.h"
 #include "formats/file_io.h"
 #include "formats/report_json.h"
@@ -113,15 +114,7 @@ constexpr std::string_view kScopeNote =
 
 class Scopes {
  public:
-  explicit Scopes(const Report& report) {
-    trial_.limbs = report.limbSummary;
-    trial_.phase = report.phase;
-    trial_.hildebrand = report.hildebrand;
-    trial_.support = report.support;
-    trial_.supportByCombination = report.supportByCombination;
-    trial_.symmetry = report.symmetry;
-    trial_.speed = report.speed;
-    trial_.dap = report.dap;
+  explicit Scopes(const Report& report) : trial_(analysis::trialSummary(report)) {
     all_.push_back({"trial", report.mixedGaits ? "mixed" : "", -1, &trial_});
     for (const auto& [gait, summary] : report.byGait) all_.push_back({"gait", gait, -1, &summary});
     for (std::size_t i = 0; i < report.bouts.size(); ++i) {

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <set>
 
+#include "analysis/summary.h"
 #include "stridemark/version.h"
 #include "ui/export/pdf_document.h"
 
@@ -74,21 +75,6 @@ void trialCard(PdfDocument& doc, const ReportSource& src) {
   rows.push_back({QStringLiteral("Exported"), qs(src.exportedAt) + QStringLiteral(" UTC")});
   rows.push_back({QStringLiteral("Software"), QStringLiteral("Stridemark ") + kVersion});
   doc.keyValues(rows);
-}
-
-// The trial-level members of the report as one summary (the same shape as a gait's).
-analysis::Summary pooledSummary(const Report& r) {
-  analysis::Summary s;
-  s.strides = static_cast<int>(r.strides.size());
-  s.limbs = r.limbSummary;
-  s.phase = r.phase;
-  s.hildebrand = r.hildebrand;
-  s.support = r.support;
-  s.supportByCombination = r.supportByCombination;
-  s.symmetry = r.symmetry;
-  s.speed = r.speed;
-  s.dap = r.dap;
-  return s;
 }
 
 void limbTable(PdfDocument& doc, const Report& r, const analysis::Summary& summary) {
@@ -341,7 +327,7 @@ int writeReportPdf(const ReportSource& source, const std::vector<NamedFigure>& f
   } else if (r.byGait.size() == 1) {
     gaitSection(doc, r, r.byGait.begin()->first, r.byGait.begin()->second);
   } else {
-    gaitSection(doc, r, {}, pooledSummary(r));
+    gaitSection(doc, r, {}, analysis::trialSummary(r));
   }
   methodsParagraph(doc, r);
   for (const NamedFigure& f : figures) {
