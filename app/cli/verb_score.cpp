@@ -1,6 +1,8 @@
-// `stridemark score INPUT [--fps F] [--limbs SET] [--reference LIMB] [--speed M_S]
+// `stridemark score INPUT [--fps F] [--limbs SET] [--reference LIMB] [--speed V[@FRAME]]...
 //                         [--leg-length M] [--json OUT|-] [--csv DIR]`
 // INPUT is an events CSV or a project file. Without --json/--csv a short summary is printed.
+#include <charconv>
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <iostream>
@@ -26,7 +28,7 @@ struct ScoreOptions {
   std::string fps;
   std::string limbs;
   std::string reference;
-  std::optional<double> speed;
+  std::vector<std::string> speeds;  // V or V@FRAME, as given
   std::optional<double> legLength;
   std::string json;
   std::string csv;
@@ -72,7 +74,71 @@ model::Project loadProject(const ScoreOptions& options, std::string_view content
   return project;
 }
 
-analysis::AnalysisOptions analysisOptions(const ScoreOptions& options,
+// The belt speed over the trial (docs/methods.md §12): a speed from the start, then changes.
+struct SpeedSchedule {
+  std::optional<double> start;
+  std::vector<model::SpeedStep> changes;
+};
+
+// A whole-text number; nullopt when `text` is anything else (empty, "1.0x", "1e999").
+std::optional<double> wholeNumber(std::string_view text) {
+  double value = 0;
+  const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+  if (text.empty() || ec != std::errc() || end != text.data() + text.size()) return std::nullopt;
+  return value;
+}
+
+std::optional<std::int64_t> wholeFrame(std::string_view text) {
+  std::int64_t value = 0;
+  const auto [end, ec] = std::from_chars(text.data(), text.data() + text.size(), value);
+  if (text.empty() || ec != std::errc() || end != text.data() + text.size()) return std::nullopt;
+  return value;
+}
+
+model::SpeedStep parseSpeedStep(const std::string& value) {
+  const std::string what = "--speed " + value + ": ";
+  const std::size_t at = value.find('@');
+  const std::string_view text(value);
+  const auto speed = wholeNumber(text.substr(0, at));
+  if (!speed || !std::isfinite(*speed) || *speed < 0) {
+    throw UsageProblem{what +
+                       "expected a speed of 0 m/s or more (1.2), or a speed from a frame on "
+                       "(2.5@620)"};
+  }
+  if (at == std::string::npos) return {0, *speed};
+  const auto frame = wholeFrame(text.substr(at + 1));
+  if (!frame || *frame < 0) {
+    throw UsageProblem{what + "expected a frame number (0 or more) after '@', as in 2.5@620"};
+  }
+  return {*frame, *speed};
+}
+
+// `--speed 1.0 --speed 2.5@620`: 1.0 m/s from the start (frame 0), 2.5 m/s from frame 620.
+SpeedSchedule parseSpeedSchedule(const std::vector<std::string>& values) {
+  SpeedSchedule schedule;
+  for (std::size_t i = 0; i < values.size(); ++i) {
+    const model::SpeedStep step = parseSpeedStep(values[i]);
+    if (i == 0) {
+      if (step.fromFrame != 0) {
+        throw UsageProblem{"--speed " + values[i] +
+                           ": a speed change needs a speed from the start first — give --speed "
+                           "V (m/s from frame 0) before any --speed V@FRAME"};
+      }
+      schedule.start = step.ms;
+      continue;
+    }
+    const std::int64_t previous = schedule.changes.empty() ? 0 : schedule.changes.back().fromFrame;
+    if (step.fromFrame <= previous) {
+      throw UsageProblem{"--speed " + values[i] + " after --speed " + values[i - 1] +
+                         ": speed changes must start at later and later frames — give one "
+                         "speed from the start, then V@FRAME in ascending frame order"};
+    }
+    schedule.changes.push_back(step);
+  }
+  return schedule;
+}
+
+analysis::AnalysisOptions analysisOptions(const ScoreOptions& options, const SpeedSchedule& speed,
                                           const model::Annotation& annotation) {
   analysis::AnalysisOptions result;
   if (!options.reference.empty()) {
@@ -83,7 +149,8 @@ analysis::AnalysisOptions analysisOptions(const ScoreOptions& options,
                          annotation.limbs.labelList()};
     }
   }
-  result.speedMs = options.speed;
+  result.speedMs = speed.start;
+  result.speedChanges = speed.changes;
   result.legLengthM = options.legLength;
   return result;
 }
@@ -133,7 +200,9 @@ void printSummary(const ScoreOptions& options, const analysis::Report& report) {
   out << "\n  gait bouts:" << (report.bouts.empty() ? " none" : "") << '\n';
   for (const auto& bout : report.bouts) {
     out << "    " << padded(bout.gait, 18) << "strides " << bout.firstStride << "-"
-        << bout.lastStride << ", frames " << bout.startFrame << "-" << bout.endFrame << '\n';
+        << bout.lastStride << ", frames " << bout.startFrame << "-" << bout.endFrame;
+    if (bout.summary.speed) out << ", " << fixed(bout.summary.speed->ms, 2) << " m/s";
+    out << '\n';
   }
   out << "\n  problems: " << report.problems.size();
   if (!report.problems.empty()) {
@@ -167,9 +236,10 @@ void writeJson(const ScoreOptions& options, const analysis::Report& report) {
 
 int runScore(const ScoreOptions& options) {
   try {
+    const SpeedSchedule speed = parseSpeedSchedule(options.speeds);
     const model::Project project = loadInput(options);
     const analysis::Report report =
-        analysis::analyse(project, analysisOptions(options, project.annotation));
+        analysis::analyse(project, analysisOptions(options, speed, project.annotation));
     if (!options.json.empty()) writeJson(options, report);
     if (!options.csv.empty()) {
       const auto files =
@@ -214,8 +284,12 @@ void addScoreVerb(CLI::App& app, VerbAction& action) {
       ->check(checkedBy([](const std::string& v) { model::LimbSet::fromName(v); }));
   verb->add_option("--reference", options->reference,
                    "reference limb for strides and phases (default: LH, L or L1)");
-  verb->add_option("--speed", options->speed, "belt or ground speed, m/s")
-      ->check(CLI::NonNegativeNumber);
+  verb->add_option("--speed", options->speeds,
+                   "belt or ground speed, m/s, from the start; repeat with V@FRAME for a speed "
+                   "from that frame on (--speed 1.0 --speed 2.5@620); overrides the trial card's")
+      ->expected(1)
+      ->allow_extra_args(false)  // one value per --speed, so INPUT may follow it
+      ->take_all();
   verb->add_option("--leg-length", options->legLength, "leg length (hip height), m")
       ->check(CLI::PositiveNumber);
   verb->add_option("--json", options->json,

@@ -2,8 +2,12 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <filesystem>
 #include <map>
 #include <set>
+#include <string>
+#include <utility>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -279,7 +283,8 @@ TEST(ScoreCli, CsvTablesAndSummary) {
   const CliRun tables =
       runStridemark({"score", folder / "trot.csv", "--fps", "200", "--csv", folder / "out"});
   EXPECT_EQ(tables.exitCode, 0) << tables.err;
-  for (const char* name : {"events.csv", "strides.csv", "limbs.csv", "phases.csv", "support.csv"}) {
+  for (const char* name : {"events.csv", "strides.csv", "limbs.csv", "phases.csv", "support.csv",
+                           "bouts.csv", "symmetry.csv", "dap.csv"}) {
     EXPECT_TRUE(std::filesystem::exists(folder.path() / "out" / name)) << name;
   }
   const CliRun summary = runStridemark({"score", folder / "trot.csv", "--fps", "200"});
@@ -319,6 +324,161 @@ TEST(ScoreCli, JsonAloneIsStreamedWithTheSameBytes) {
   EXPECT_GT(report["strides"].size(), 5900u);
   EXPECT_EQ(report["strides"].size(), report["extra"]["strides"].size());
   EXPECT_FALSE(report["problems"].empty());
+}
+
+// A walk, then a trot, at 250 fps (invented; the same trial as tests/core/formats/
+// trial_fixture.h walkThenTrotTrial): 4 walking strides of 100 frames (duty factor 0.65), then
+// 5 trotting strides of 80 frames from frame 400 (duty factor 0.40). Bouts: walk, strides 0-2
+// (frames 0-300); trot, strides 4-8 (frames 400-800).
+std::vector<std::pair<std::string, std::vector<std::pair<std::string, int>>>> walkThenTrotTags() {
+  const std::map<std::string, std::pair<int, int>> offsets = {
+      {"LF", {25, 43}}, {"RF", {75, 2}}, {"LH", {0, 0}}, {"RH", {50, 40}}};
+  std::vector<std::pair<std::string, std::vector<std::pair<std::string, int>>>> tags;
+  for (const auto& [limb, offset] : offsets) {
+    std::vector<std::pair<int, double>> touchdowns;
+    for (int k = 0; k < 4; ++k) touchdowns.push_back({100 * k + offset.first, 0.65});
+    for (int k = 0; k <= 5; ++k) touchdowns.push_back({400 + 80 * k + offset.second, 0.40});
+    std::vector<std::pair<std::string, int>> events;
+    for (std::size_t i = 0; i < touchdowns.size(); ++i) {
+      const auto [frame, duty] = touchdowns[i];
+      events.push_back({"touchdown", frame});
+      if (i + 1 < touchdowns.size()) {
+        const int cycle = touchdowns[i + 1].first - frame;
+        events.push_back({"liftoff", frame + static_cast<int>(std::lround(duty * cycle))});
+      }
+    }
+    tags.push_back({limb, events});
+  }
+  return tags;
+}
+
+std::string walkThenTrotCsv() {
+  std::string csv = "# fps: 250\nlimb,event,frame\n";
+  for (const auto& [limb, events] : walkThenTrotTags())
+    for (const auto& [event, frame] : events)
+      csv += limb + "," + event + "," + std::to_string(frame) + "\n";
+  return csv;
+}
+
+std::string walkThenTrotProject(const std::string& trial) {
+  Json events = Json::array();
+  for (const auto& [limb, tags] : walkThenTrotTags())
+    for (const auto& [event, frame] : tags)
+      events.push_back({{"limb", limb}, {"event", event}, {"frame", frame}});
+  return R"({"schema": "stridemark.project.v1", "schema_version": 1, "limb_set": "quadruped",
+             "reference_limb": "LH", "capture_rate": "250", "trial": )" +
+         trial + R"(, "events": )" + events.dump() + "}";
+}
+
+TEST(ScoreCli, SpeedScheduleGivesEachBoutItsSpeed) {
+  // Source: docs/methods.md §12 (each bout gets the time-weighted mean speed over its own
+  // frames; one trial speed only when the belt kept one speed) and §6.1 (stride length = speed
+  // x mean reference stride time, Fr = v^2 / (g h), g = 9.81). The trot bout spans frames
+  // 400-800: 1.0 m/s to frame 600 and 2.0 m/s from it average 1.5 m/s.
+  TempFolder folder;
+  writeText(folder / "walk-trot.csv", walkThenTrotCsv());
+  const Json report = scoreJson(
+      {folder / "walk-trot.csv", "--speed", "1.0", "--speed", "2.0@600", "--leg-length", "0.5"});
+  expectDesignReport(report, {"LF", "RF", "LH", "RH"});
+  ASSERT_EQ(report["bouts"].size(), 2u);
+  const Json& walk = report["bouts"][0];
+  const Json& trot = report["bouts"][1];
+  ASSERT_EQ(walk["gait"], "walk");
+  ASSERT_EQ(trot["gait"], "trot");
+  EXPECT_NEAR(walk["summary"]["speed"]["m_s"].get<double>(), 1.0, 1e-12);
+  EXPECT_NEAR(walk["summary"]["speed"]["stride_length_m"].get<double>(), 0.40, 1e-12);
+  EXPECT_NEAR(walk["summary"]["speed"]["froude"].get<double>(), 1.0 / (9.81 * 0.5), 1e-12);
+  EXPECT_NEAR(trot["summary"]["speed"]["m_s"].get<double>(), 1.5, 1e-12);
+  EXPECT_NEAR(trot["summary"]["speed"]["stride_length_m"].get<double>(), 0.48, 1e-12);
+  EXPECT_NEAR(trot["summary"]["speed"]["relative_stride_length"].get<double>(), 0.96, 1e-12);
+  EXPECT_NEAR(trot["summary"]["speed"]["froude"].get<double>(), 2.25 / (9.81 * 0.5), 1e-12);
+  EXPECT_NEAR(report["by_gait"]["trot"]["speed"]["m_s"].get<double>(), 1.5, 1e-12);
+  EXPECT_TRUE(report["speed"].is_null());
+  // Where INPUT stands among the flags does not matter.
+  const CliRun reordered =
+      runStridemark({"score", "--speed", "1.0", folder / "walk-trot.csv", "--speed", "2.0@600",
+                     "--leg-length", "0.5", "--json", "-"});
+  ASSERT_EQ(reordered.exitCode, 0) << reordered.err;
+  EXPECT_EQ(Json::parse(reordered.out), report);
+  // The text summary names each bout's speed.
+  const CliRun summary =
+      runStridemark({"score", folder / "walk-trot.csv", "--speed", "1.0", "--speed", "2.0@600"});
+  EXPECT_EQ(summary.exitCode, 0) << summary.err;
+  EXPECT_NE(summary.out.find("frames 400-800, 1.50 m/s"), std::string::npos) << summary.out;
+  // One speed for the whole trial: the trial has it too.
+  const Json steady = scoreJson({folder / "walk-trot.csv", "--speed", "1.2"});
+  EXPECT_NEAR(steady["speed"]["m_s"].get<double>(), 1.2, 1e-12);
+  EXPECT_NEAR(steady["bouts"][1]["summary"]["speed"]["m_s"].get<double>(), 1.2, 1e-12);
+}
+
+TEST(ScoreCli, ProjectSpeedChangesAndFlagsThatOverrideThem) {
+  // Source: the same schedule given as flags (test above); CHANGELOG.md: --speed overrides the
+  // trial card's speed and its changes.
+  TempFolder folder;
+  writeText(folder / "walk-trot.csv", walkThenTrotCsv());
+  writeText(folder / "card.stridemark",
+            walkThenTrotProject(R"({"speed_m_s": 1.0, "leg_length_m": 0.5,
+                                    "speed_changes": [{"from_frame": 600, "m_s": 2.0}]})"));
+  const CliRun fromCard = runStridemark({"score", folder / "card.stridemark", "--json", "-"});
+  const CliRun fromFlags =
+      runStridemark({"score", folder / "walk-trot.csv", "--speed", "1.0", "--speed", "2.0@600",
+                     "--leg-length", "0.5", "--json", "-"});
+  ASSERT_EQ(fromCard.exitCode, 0) << fromCard.err;
+  ASSERT_EQ(fromFlags.exitCode, 0) << fromFlags.err;
+  EXPECT_TRUE(fromCard.out == fromFlags.out) << "the card's schedule scores like the flags";
+  EXPECT_NEAR(Json::parse(fromCard.out)["bouts"][1]["summary"]["speed"]["m_s"].get<double>(), 1.5,
+              1e-12);
+  // --speed replaces the whole schedule: no change at frame 600 any more.
+  const Json overridden = scoreJson({folder / "card.stridemark", "--speed", "3.0"});
+  EXPECT_NEAR(overridden["speed"]["m_s"].get<double>(), 3.0, 1e-12);
+  EXPECT_NEAR(overridden["bouts"][1]["summary"]["speed"]["m_s"].get<double>(), 3.0, 1e-12);
+}
+
+TEST(ScoreCli, BadSpeedScheduleExitsTwoSayingWhy) {
+  TempFolder folder;
+  writeText(folder / "walk-trot.csv", walkThenTrotCsv());
+  const std::vector<std::pair<std::vector<std::string>, std::string>> cases = {
+      {{"-1"}, "--speed -1: expected a speed of 0 m/s or more"},
+      {{"nan"}, "--speed nan: expected a speed of 0 m/s or more"},
+      {{"inf"}, "--speed inf: expected a speed of 0 m/s or more"},
+      {{"fast"}, "--speed fast: expected a speed"},
+      {{"1.0", "2.5@"}, "--speed 2.5@: expected a frame number (0 or more) after '@'"},
+      {{"1.0", "2.5@x"}, "--speed 2.5@x: expected a frame number"},
+      {{"1.0", "2.5@-4"}, "--speed 2.5@-4: expected a frame number"},
+      {{"1.0", "-2@620"}, "--speed -2@620: expected a speed of 0 m/s or more"},
+      {{"2.5@620"}, "--speed 2.5@620: a speed change needs a speed from the start first"},
+      {{"1.0", "2.0@600", "3.0@500"},
+       "--speed 3.0@500 after --speed 2.0@600: speed changes must start at later and later "
+       "frames"},
+      {{"1.0", "2.0@600", "3.0@600"}, "--speed 3.0@600 after --speed 2.0@600"},
+      {{"1.0", "2.0"}, "--speed 2.0 after --speed 1.0"},
+  };
+  for (const auto& [speeds, says] : cases) {
+    std::vector<std::string> args{"score", folder / "walk-trot.csv"};
+    for (const auto& speed : speeds) args.insert(args.end(), {"--speed", speed});
+    args.insert(args.end(), {"--json", folder / "out.json"});
+    const CliRun run = runStridemark(args);
+    EXPECT_EQ(run.exitCode, 2) << says << "\n" << run.err;
+    EXPECT_NE(run.err.find("stridemark score: " + says), std::string::npos) << run.err;
+    EXPECT_TRUE(run.out.empty()) << run.out;
+    EXPECT_FALSE(std::filesystem::exists(folder.path() / "out.json")) << says;
+  }
+  // A bad schedule is a usage error even before the input is read.
+  const CliRun absent = runStridemark({"score", folder / "absent.csv", "--speed", "-1"});
+  EXPECT_EQ(absent.exitCode, 2) << absent.err;
+}
+
+TEST(ScoreCli, BadProjectSpeedChangeNamesFileAndPath) {
+  TempFolder folder;
+  writeText(folder / "p.stridemark", walkThenTrotProject(R"({"speed_m_s": 1.0, "speed_changes": [
+                {"from_frame": 600, "m_s": 2.0}, {"from_frame": 450, "m_s": 2.5}]})"));
+  const CliRun run = runStridemark({"score", folder / "p.stridemark"});
+  EXPECT_EQ(run.exitCode, 1) << run.err;
+  EXPECT_NE(run.err.find(folder / "p.stridemark" +
+                         ": at /trial/speed_changes/1/from_frame: frame 450 does not follow "
+                         "frame 600"),
+            std::string::npos)
+      << run.err;
 }
 
 struct Malformed {
