@@ -41,17 +41,41 @@ def main(out_dir):
             if needle not in head:
                 problems.append(f"{name}.csv header block lacks '{needle}'")
 
+    # Summary tables lead with scope, gait and bout: the pooled trial, each gait, each bout.
     limbs = tables["limbs"]
-    for label, stats in report["limbs"].items():
-        for measure in ("stride_s", "stance_s", "swing_s", "duty_factor"):
-            row = limbs[(limbs["limb"] == label) & (limbs["measure"] == measure)]
-            if len(row) != 1:
-                problems.append(f"limbs.csv has {len(row)} rows for {label} {measure}")
-                continue
-            for field in ("n", "mean", "sd", "cv"):
-                if not close(row.iloc[0][field], stats[measure][field]):
-                    problems.append(f"limbs.csv {label} {measure} {field}: "
-                                    f"{row.iloc[0][field]} vs JSON {stats[measure][field]}")
+    scopes = [("trial", None, None, report["limbs"], report["phase"])]
+    for gait, summary in report.get("by_gait", {}).items():
+        scopes.append(("gait", gait, None, summary["limbs"], summary["phase"]))
+    for i, bout in enumerate(report["bouts"]):
+        scopes.append(("bout", bout["gait"], i, bout["summary"]["limbs"], bout["summary"]["phase"]))
+
+    def in_scope(table, scope, gait, bout):
+        rows = table[table["scope"] == scope]
+        if gait is not None:
+            rows = rows[rows["gait"] == gait]
+        if bout is None:
+            return rows[rows["bout"].isna()]
+        return rows[rows["bout"] == bout]
+
+    for scope, gait, bout, limb_stats, _ in scopes:
+        where = f"{scope} {gait or ''} {'' if bout is None else bout}".strip()
+        rows_here = in_scope(limbs, scope, gait, bout)
+        for label, stats in limb_stats.items():
+            for measure in ("stride_s", "stance_s", "swing_s", "duty_factor"):
+                row = rows_here[(rows_here["limb"] == label) & (rows_here["measure"] == measure)]
+                if len(row) != 1:
+                    problems.append(f"limbs.csv has {len(row)} rows for {where} {label} {measure}")
+                    continue
+                for field in ("n", "mean", "sd", "cv"):
+                    if not close(row.iloc[0][field], stats[measure][field]):
+                        problems.append(f"limbs.csv {where} {label} {measure} {field}: "
+                                        f"{row.iloc[0][field]} vs JSON {stats[measure][field]}")
+    trial_rows = limbs[limbs["scope"] == "trial"]
+    expected_gait = "mixed" if report.get("mixed_gaits") else None
+    if expected_gait is None and not trial_rows["gait"].isna().all():
+        problems.append("limbs.csv trial rows name a gait for a single-gait trial")
+    if expected_gait is not None and not (trial_rows["gait"] == expected_gait).all():
+        problems.append("limbs.csv trial rows of a mixed trial are not marked 'mixed'")
 
     strides = tables["strides"]
     n_strides = strides["stride"].nunique() if len(strides) else 0
@@ -62,14 +86,19 @@ def main(out_dir):
         for _, row in rows.iterrows():
             if row["start_frame"] != stride["start_frame"] or row["gait"] != stride["gait"]:
                 problems.append(f"strides.csv stride {k} differs from JSON")
+            bout = None if pd.isna(row["bout"]) else int(row["bout"])
+            if bout != stride["bout"] or bool(row["steady"]) != stride["steady"]:
+                problems.append(f"strides.csv stride {k} bout or steady differs from JSON")
             if not close(row["duty_factor"], stride["duty_factor"][row["limb"]]):
                 problems.append(f"strides.csv stride {k} {row['limb']} duty factor differs")
 
     phases = tables["phases"]
-    for label, stats in report["phase"].items():
-        row = phases[phases["limb"] == label]
-        if len(row) != 1 or not close(row.iloc[0]["mean_cycles"], stats["mean"]):
-            problems.append(f"phases.csv {label} mean differs from JSON")
+    for scope, gait, bout, _, phase_stats in scopes:
+        rows_here = in_scope(phases, scope, gait, bout)
+        for label, stats in phase_stats.items():
+            row = rows_here[rows_here["limb"] == label]
+            if len(row) != 1 or not close(row.iloc[0]["mean_cycles"], stats["mean"]):
+                problems.append(f"phases.csv {scope} {gait or ''} {label} mean differs from JSON")
 
     events = tables["events"]
     if not {"limb", "event", "frame", "time_s"} <= set(events.columns):
