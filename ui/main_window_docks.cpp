@@ -29,6 +29,8 @@ void MainWindow::buildDocks() {
     if (f >= 0) seek(f);
   });
   connect(checks_, &ChecksList::limbRequested, this, &MainWindow::selectLimb);
+  connect(checks_, &ChecksList::swapRequested, this,
+          [this](int limb, qint64 frame) { doc_.swapTagsFrom(limb, frame); });
   summary_ = new SummaryView;
   legend_ = new TagKeyLegend;
   auto* undoView = new QUndoView(doc_.undoStack());

@@ -330,6 +330,10 @@ const std::vector<GestureSpec>& gestureTable() {
        QT_TRANSLATE_NOOP("Actions", "pan the zoomed picture")},
       {Place::viewer, QT_TRANSLATE_NOOP("Actions", "Double-click"),
        QT_TRANSLATE_NOOP("Actions", "fit the picture to the Viewer")},
+      {Place::window, QT_TRANSLATE_NOOP("Actions", "Right-click a Checks entry"),
+       QT_TRANSLATE_NOOP("Actions",
+                         "on \"tags look swapped\": swap this limb's tags from there (one undo "
+                         "step)")},
       {Place::window, QT_TRANSLATE_NOOP("Actions", "Drop a video or project file"),
        QT_TRANSLATE_NOOP("Actions", "open it")},
   };

@@ -1,5 +1,6 @@
 #include "ui/widgets/report_panels.h"
 
+#include <QAction>
 #include <cmath>
 
 namespace stridemark::ui {
@@ -8,6 +9,7 @@ namespace {
 
 constexpr int kFrameRole = Qt::UserRole + 1;
 constexpr int kLimbRole = Qt::UserRole + 2;
+constexpr int kSwapRole = Qt::UserRole + 3;  // the problem is a swap the list can fix
 
 QString num(double v, int decimals) {
   return std::isfinite(v) ? QString::number(v, 'f', decimals) : QStringLiteral("–");
@@ -43,6 +45,18 @@ ChecksList::ChecksList(QWidget* parent) : QListWidget(parent) {
   };
   connect(this, &QListWidget::itemClicked, this, jump);
   connect(this, &QListWidget::itemActivated, this, jump);
+  swapAction_ = new QAction(tr("Swap this limb's tags from here"), this);
+  swapAction_->setEnabled(false);
+  addAction(swapAction_);
+  setContextMenuPolicy(Qt::ActionsContextMenu);
+  connect(this, &QListWidget::currentItemChanged, this, [this](QListWidgetItem* item) {
+    swapAction_->setEnabled(item && item->data(kSwapRole).toBool());
+  });
+  connect(swapAction_, &QAction::triggered, this, [this] {
+    const QListWidgetItem* item = currentItem();
+    if (!item || !item->data(kSwapRole).toBool()) return;
+    emit swapRequested(item->data(kLimbRole).toInt(), item->data(kFrameRole).toLongLong());
+  });
 }
 
 void ChecksList::setReport(std::shared_ptr<const analysis::Report> report) {
@@ -57,9 +71,15 @@ void ChecksList::setReport(std::shared_ptr<const analysis::Report> report) {
                                      this);
     item->setData(kFrameRole, static_cast<qlonglong>(problem.frame));
     item->setData(kLimbRole, problem.limb ? *problem.limb : -1);
+    item->setData(kSwapRole, problem.limb && problem.message.find("look swapped from frame") !=
+                                                 std::string::npos);
   }
+  swapAction_->setEnabled(false);
   if (report->problems.empty()) {
-    auto* item = new QListWidgetItem(tr("No problems found."), this);
+    const bool nothing = report->cycles.empty() && report->strides.empty();
+    auto* item = new QListWidgetItem(
+        nothing ? tr("Nothing tagged yet: no complete cycle to check.") : tr("No problems found."),
+        this);
     item->setFlags(Qt::ItemIsEnabled);
     item->setData(kFrameRole, -1);
   }

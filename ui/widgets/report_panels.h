@@ -14,10 +14,17 @@ class ChecksList : public QListWidget {
  public:
   explicit ChecksList(QWidget* parent = nullptr);
   void setReport(std::shared_ptr<const analysis::Report> report);
+  // "Swap this limb's tags from here", enabled on a problem that says a limb's tags look
+  // swapped (its context menu and the list's actions).
+  QAction* swapAction() const { return swapAction_; }
 
  signals:
   void seekRequested(qint64 frame);
   void limbRequested(int limb);
+  void swapRequested(int limb, qint64 fromFrame);
+
+ private:
+  QAction* swapAction_ = nullptr;
 };
 
 class SummaryView : public QTextBrowser {
