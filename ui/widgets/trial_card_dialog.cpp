@@ -26,6 +26,16 @@ QString optionalText(const std::optional<double>& v) {
 
 }  // namespace
 
+QStringList limbSetChoices(const model::LimbSet& current) {
+  QStringList names;
+  for (const char* name : {"quadruped", "biped", "hexapod", "multi-pair-4", "multi-pair-5",
+                           "multi-pair-6", "multi-pair-8", "multi-pair-10"})
+    names << QString::fromLatin1(name);
+  const QString own = QString::fromStdString(current.name());
+  if (!names.contains(own)) names << own;
+  return names;
+}
+
 TrialCardDialog::TrialCardDialog(const model::Project& project, bool limbSetLocked, QWidget* parent)
     : QDialog(parent), initialReference_(project.annotation.referenceLimb) {
   setWindowTitle(tr("Trial card"));
@@ -41,11 +51,7 @@ TrialCardDialog::TrialCardDialog(const model::Project& project, bool limbSetLock
   notes_->setMaximumHeight(70);
   limbSet_ = new QComboBox;
   limbSet_->setAccessibleName(tr("Limb set"));
-  for (const char* name : {"quadruped", "biped", "hexapod", "multi-pair-4", "multi-pair-5",
-                           "multi-pair-6", "multi-pair-8", "multi-pair-10"})
-    limbSet_->addItem(QString::fromLatin1(name));
-  const int current = limbSet_->findText(QString::fromStdString(a.limbs.name()));
-  if (current < 0) limbSet_->addItem(QString::fromStdString(a.limbs.name()));
+  limbSet_->addItems(limbSetChoices(a.limbs));
   limbSet_->setCurrentText(QString::fromStdString(a.limbs.name()));
   limbSet_->setEnabled(!limbSetLocked);
   if (limbSetLocked) limbSet_->setToolTip(tr("Delete all tags to change the limb set."));

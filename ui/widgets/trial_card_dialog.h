@@ -2,6 +2,7 @@
 // Trial card: subject, species, condition, observer, notes, limb set, capture rate, reference
 // limb, belt or ground speed and leg length. Validates before accepting.
 #include <QDialog>
+#include <QStringList>
 
 #include "model/annotation.h"
 
@@ -11,6 +12,9 @@ class QPlainTextEdit;
 class QLabel;
 
 namespace stridemark::ui {
+
+// The limb sets a person can choose, `current` among them.
+QStringList limbSetChoices(const model::LimbSet& current);
 
 class TrialCardDialog : public QDialog {
   Q_OBJECT
