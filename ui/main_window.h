@@ -155,6 +155,7 @@ class MainWindow : public QMainWindow {
   void hiddenSpanDialog();
   void selectLimb(int limb);
   void reloadTagKeysIfLimbsChanged();
+  void updateTagKeyHints();  // what each tag key records at the playhead
   // Display (main_window_display.cpp).
   void onAnnotationChanged();
   void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);

@@ -21,6 +21,7 @@ void MainWindow::onAnnotationChanged() {
   options.legLengthM = doc_.project().trial.legLengthM;
   runner_.request(a, options, doc_.revision());
   lanes_->update();
+  updateTagKeyHints();
   updateStatus();
 }
 
