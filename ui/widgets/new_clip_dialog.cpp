@@ -5,7 +5,6 @@
 #include <QDir>
 #include <QFileDialog>
 #include <QFileInfo>
-#include <QFormLayout>
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QLineEdit>
@@ -92,7 +91,7 @@ NewClipDialog::NewClipDialog(const QString& videoPath, const video::VideoInfo& i
   eventsPath_ = new QLineEdit;
   eventsPath_->setReadOnly(true);
   eventsPath_->setAccessibleName(tr("Events CSV"));
-  eventsPath_->setPlaceholderText(tr("none: tagging starts from scratch"));
+  eventsPath_->setPlaceholderText(tr("none"));
   auto* importButton = new QPushButton(tr("&Import events CSV…"));
   importButton->setObjectName(QStringLiteral("importEvents"));
   auto* clearButton = new QPushButton(tr("Clea&r"));
@@ -105,23 +104,45 @@ NewClipDialog::NewClipDialog(const QString& videoPath, const video::VideoInfo& i
   error_->setObjectName(QStringLiteral("error"));
   error_->setStyleSheet(QStringLiteral("color: #d55e00"));
 
-  auto* form = new QFormLayout;
-  form->addRow(tr("&Capture rate (fps)"), rate_);
-  form->addRow(QString(), rateHelp);
-  form->addRow(QString(), duration_);
-  form->addRow(tr("&Limb set"), limbSet_);
-  form->addRow(tr("R&eference limb"), reference_);
-  form->addRow(tr("Events CSV"), eventsRow);
-  form->addRow(QString(), eventsStatus_);
+  // One column: each question on a line with its label, its explanation under it (wrapped
+  // labels get their height right in a box layout, not inside a form's rows).
+  const auto labelled = [](const QString& text, QWidget* buddy) {
+    auto* label = new QLabel(text);
+    label->setBuddy(buddy);
+    return label;
+  };
+  auto* rateRow = new QHBoxLayout;
+  rateRow->addWidget(labelled(tr("&Capture rate (fps)"), rate_));
+  rateRow->addWidget(rate_, 1);
+  auto* limbRow = new QHBoxLayout;
+  limbRow->addWidget(labelled(tr("&Limb set"), limbSet_));
+  limbRow->addWidget(limbSet_, 1);
+  limbRow->addSpacing(fontMetrics().averageCharWidth() * 2);
+  limbRow->addWidget(labelled(tr("R&eference limb"), reference_));
+  limbRow->addWidget(reference_, 1);
+  eventsRow->insertWidget(0, labelled(tr("Events CSV"), importButton));
+  const auto indented = [this](QLabel* label) {
+    label->setContentsMargins(fontMetrics().averageCharWidth() * 2, 0, 0, 0);
+    return label;
+  };
   auto* buttons = new QDialogButtonBox(QDialogButtonBox::Ok | QDialogButtonBox::Cancel);
   buttons->button(QDialogButtonBox::Ok)->setText(tr("Start &tagging"));
   auto* layout = new QVBoxLayout(this);
   layout->addWidget(clip);
   layout->addWidget(note_);
-  layout->addLayout(form);
+  layout->addSpacing(6);
+  layout->addLayout(rateRow);
+  layout->addWidget(indented(rateHelp));
+  layout->addWidget(indented(duration_));
+  layout->addSpacing(6);
+  layout->addLayout(limbRow);
+  layout->addSpacing(6);
+  layout->addLayout(eventsRow);
+  layout->addWidget(indented(eventsStatus_));
+  layout->addStretch();
   layout->addWidget(error_);
   layout->addWidget(buttons);
-  setMinimumWidth(fontMetrics().averageCharWidth() * 70);
+  setMinimumWidth(fontMetrics().averageCharWidth() * 96);
 
   connect(buttons, &QDialogButtonBox::accepted, this, &QDialog::accept);
   connect(buttons, &QDialogButtonBox::rejected, this, &QDialog::reject);
@@ -197,12 +218,13 @@ bool NewClipDialog::importEvents(const QString& path) {
   limbSet_->setCurrentText(limbs);
   fillReferences(csv.referenceLimb.value_or(-1));
   if (csv.captureRate) rate_->setCurrentText(rateText(*csv.captureRate));
+  const auto count = static_cast<int>(csv.events.size());
+  const QString what = count == 1 ? tr("1 event") : tr("%1 events").arg(count);
   eventsStatus_->setText(
-      tr("%n event(s) read for the %1 limb set%2. They are checked against the clip when "
-         "tagging starts.",
-         nullptr, static_cast<int>(csv.events.size()))
-          .arg(limbs, csv.captureRate ? tr("; the file says %1 fps").arg(rateText(*csv.captureRate))
-                                      : QString()));
+      tr("%1 read for the %2 limb set%3; checked against the clip when tagging starts.")
+          .arg(what, limbs,
+               csv.captureRate ? tr(" (the file says %1 fps)").arg(rateText(*csv.captureRate))
+                               : QString()));
   return true;
 }
 
