@@ -42,6 +42,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   buildActions();
   keys_ = TagKeyMap::load(doc_.annotation().limbs);
   legend_->setKeys(keys_);
+  updateTagKeyHints();
   connectDocument();
   connect(lanes_, &FootfallLanes::seekRequested, this, [this](qint64 f) { seek(f); });
   connect(lanes_, &FootfallLanes::limbSelected, this, &MainWindow::selectLimb);

@@ -43,6 +43,11 @@ class SummaryView;
 
 // What to do when a journal from a crashed session exists (tests choose without a dialog).
 enum class RecoveryPolicy { ask, recover, discard };
+// What to do when a clip without a project is opened: ask for its capture rate, limb set and
+// an events CSV (the New trial dialog), or take the dialog's defaults without asking (tests).
+enum class BareClipPolicy { ask, useDefaults };
+
+struct ClipSetup;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
@@ -85,6 +90,7 @@ class MainWindow : public QMainWindow {
   const TagKeyMap& tagKeys() const { return keys_; }
   void setAutoAdvance(bool on, std::int64_t frames = 1);
   void setRecoveryPolicy(RecoveryPolicy policy) { recovery_ = policy; }
+  void setBareClipPolicy(BareClipPolicy policy) { bareClip_ = policy; }
   void setAskBeforeDiscard(bool ask) { askBeforeDiscard_ = ask; }
   // Cache budget and proxy folder for videos opened from now on (tests; else from settings).
   void setVideoOptions(const VideoSourceOptions& options) { videoOptions_ = options; }
@@ -118,6 +124,8 @@ class MainWindow : public QMainWindow {
   // Opening (main_window_open.cpp).
   void openDialog();
   std::optional<model::Project> offerRecovery(const QString& journalFile);
+  QString projectBesideClip(const QString& videoPath, QString* note) const;
+  bool askClipSetup(const VideoSource& source, const QString& note, ClipSetup* setup);
   bool openVideoForProject(const QString& projectPath);
   void attachVideo(std::unique_ptr<VideoSource> video);
   void connectVideo();
@@ -147,6 +155,7 @@ class MainWindow : public QMainWindow {
   void hiddenSpanDialog();
   void selectLimb(int limb);
   void reloadTagKeysIfLimbsChanged();
+  void updateTagKeyHints();  // what each tag key records at the playhead
   // Display (main_window_display.cpp).
   void onAnnotationChanged();
   void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);
@@ -200,6 +209,7 @@ class MainWindow : public QMainWindow {
   int playDirection_ = 0;
   int speedIndex_ = 5;  // index into the 1/32 ... 1x ladder
   RecoveryPolicy recovery_ = RecoveryPolicy::ask;
+  BareClipPolicy bareClip_ = BareClipPolicy::ask;
   bool askBeforeDiscard_ = true;
 };
 

@@ -17,9 +17,11 @@ void MainWindow::onAnnotationChanged() {
   viewer_->setCaptureRate(a.captureRate);
   analysis::AnalysisOptions options;
   options.speedMs = doc_.project().trial.speedMs;
+  options.speedChanges = doc_.project().trial.speedChanges;
   options.legLengthM = doc_.project().trial.legLengthM;
   runner_.request(a, options, doc_.revision());
   lanes_->update();
+  updateTagKeyHints();
   updateStatus();
 }
 
@@ -31,7 +33,7 @@ void MainWindow::onReport(std::shared_ptr<const analysis::Report> report, std::u
   gaitMap_->setReport(report);
   phaseDial_->setReport(report);
   dutyPlot_->setReport(report);
-  checks_->setReport(report);
+  checks_->setReport(report, !doc_.annotation().events.empty());
   summary_->setReport(report);
 }
 

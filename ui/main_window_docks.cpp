@@ -1,6 +1,9 @@
 // The analysis docks around the Viewer and the lanes, and where each starts.
 #include <QDockWidget>
+#include <QHBoxLayout>
+#include <QToolButton>
 #include <QUndoView>
+#include <QVBoxLayout>
 
 #include "ui/figures/analysis_figures.h"
 #include "ui/main_window.h"
@@ -9,6 +12,32 @@
 #include "ui/widgets/stride_sheet.h"
 
 namespace stridemark::ui {
+
+namespace {
+
+// The Checks list with its fix under it: the button appears while some problem has a fix and
+// works on the selected one (the same command as the entry's context menu).
+QWidget* checksWithFixButton(ChecksList* checks) {
+  auto* panel = new QWidget;
+  auto* layout = new QVBoxLayout(panel);
+  layout->setContentsMargins(0, 0, 0, 0);
+  layout->setSpacing(2);
+  layout->addWidget(checks);
+  auto* fix = new QToolButton;
+  fix->setObjectName(QStringLiteral("checksFixButton"));
+  fix->setDefaultAction(checks->swapAction());
+  fix->setToolButtonStyle(Qt::ToolButtonTextOnly);
+  fix->setVisible(checks->hasFixes());
+  QObject::connect(checks, &ChecksList::hasFixesChanged, fix, &QWidget::setVisible);
+  auto* row = new QHBoxLayout;
+  row->setContentsMargins(4, 0, 4, 2);
+  row->addWidget(fix);
+  row->addStretch();
+  layout->addLayout(row);
+  return panel;
+}
+
+}  // namespace
 
 void MainWindow::buildDocks() {
   auto dock = [this](const QString& title, const QString& name, QWidget* w,
@@ -31,6 +60,7 @@ void MainWindow::buildDocks() {
   connect(checks_, &ChecksList::limbRequested, this, &MainWindow::selectLimb);
   connect(checks_, &ChecksList::swapRequested, this,
           [this](int limb, qint64 frame) { doc_.swapTagsFrom(limb, frame); });
+  auto* checksPanel = checksWithFixButton(checks_);
   summary_ = new SummaryView;
   legend_ = new TagKeyLegend;
   auto* undoView = new QUndoView(doc_.undoStack());
@@ -46,7 +76,8 @@ void MainWindow::buildDocks() {
   // Bottom: Stride sheet with the duty plot, Checks with the edit history.
   auto* ss =
       dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheet_, Qt::BottomDockWidgetArea);
-  auto* ck = dock(tr("Checks"), QStringLiteral("dockChecks"), checks_, Qt::BottomDockWidgetArea);
+  auto* ck =
+      dock(tr("Checks"), QStringLiteral("dockChecks"), checksPanel, Qt::BottomDockWidgetArea);
   auto* dp = dock(tr("Duty per stride"), QStringLiteral("dockDutyPlot"), dutyPlot_,
                   Qt::BottomDockWidgetArea);
   auto* hv = dock(tr("History"), QStringLiteral("dockHistory"), undoView, Qt::BottomDockWidgetArea);

@@ -1,5 +1,7 @@
-// Opening a video or a project: the recovery offer for a crashed session's journal, finding a
-// moved video by its signature, and attaching the video to the Viewer and the lanes.
+// Opening a video or a project: the recovery offer for a crashed session's journal, the project
+// saved beside a clip, the questions a bare clip needs answered before tagging (New trial
+// dialog), finding a moved video by its signature, and attaching the video to the Viewer and
+// the lanes.
 #include <QDirIterator>
 #include <QFileDialog>
 #include <QFileInfo>
@@ -13,6 +15,7 @@
 #include "ui/main_window_files.h"
 #include "ui/session/guarded.h"
 #include "ui/widgets/footfall_lanes.h"
+#include "ui/widgets/new_clip_dialog.h"
 #include "ui/widgets/viewer.h"
 
 namespace stridemark::ui {
@@ -37,6 +40,18 @@ QString findMovedVideo(const QString& projectDir, const model::VideoLink& link) 
     }
   }
   return {};
+}
+
+model::Project projectForClip(const VideoSource& source, const ClipSetup& setup) {
+  model::Project project;
+  auto& a = project.annotation;
+  a.limbs = setup.limbs;
+  a.referenceLimb = setup.referenceLimb;
+  a.captureRate = setup.captureRate;
+  a.clip = model::FrameRange{0, source.info().frameCount - 1};
+  a.events = setup.events;
+  project.video = source.link();
+  return project;
 }
 
 }  // namespace
@@ -76,22 +91,68 @@ std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFi
 }
 
 bool MainWindow::openVideo(const QString& path) {
+  QString note;
+  if (const QString project = projectBesideClip(path, &note); !project.isEmpty())
+    return openProject(project);
   std::unique_ptr<VideoSource> source;
   if (!runGuarded(this, tr("Open video"),
                   [&] { source = std::make_unique<VideoSource>(path, videoOptions_); }))
     return false;
-  stopPlayback();
-  model::Project project;
-  project.annotation.limbs = doc_.annotation().limbs;
-  project.annotation.referenceLimb = project.annotation.limbs.defaultReference();
-  const auto& info = source->info();
-  project.annotation.captureRate = info.captureRate.valid() ? info.captureRate : Rational{30, 1};
-  project.annotation.clip = model::FrameRange{0, info.frameCount - 1};
-  project.video = source->link();
   const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path));
-  doc_.reset(journalled ? *journalled : project, QString(), journalled.has_value());
+  ClipSetup setup;
+  if (!journalled && !askClipSetup(*source, note, &setup)) return false;  // cancelled
+  stopPlayback();
+  const bool imported = !setup.events.empty();
+  // Imported tags are unsaved work: marked modified, so the journal keeps them.
+  doc_.reset(journalled ? *journalled : projectForClip(*source, setup), QString(),
+             journalled.has_value() || imported);
   attachVideo(std::move(source));
   addRecent(path);
+  if (imported)
+    statusBar()->showMessage(tr("%1 events imported from %2")
+                                 .arg(setup.events.size())
+                                 .arg(QFileInfo(setup.eventsFile).fileName()),
+                             8000);
+  return true;
+}
+
+// The project saved beside a clip under its name, when its video link leads back to the clip.
+QString MainWindow::projectBesideClip(const QString& videoPath, QString* note) const {
+  const QFileInfo clip(videoPath);
+  const QString candidate = clip.dir().filePath(clip.completeBaseName() + projectExtension());
+  if (!QFileInfo::exists(candidate)) return {};
+  const QString name = QFileInfo(candidate).fileName();
+  model::Project project;
+  try {
+    project = loadProjectFile(candidate);
+  } catch (const Error& e) {
+    *note = tr("%1 beside the clip could not be read (%2); this starts a new trial.")
+                .arg(name, QString::fromStdString(e.what()));
+    return {};
+  }
+  if (!project.video) {
+    *note = tr("%1 beside the clip links no video; this starts a new trial.").arg(name);
+    return {};
+  }
+  QString linked = QString::fromStdString(project.video->path);
+  if (QFileInfo(linked).isRelative()) linked = QFileInfo(candidate).dir().absoluteFilePath(linked);
+  if (QFileInfo(linked).canonicalFilePath() == clip.canonicalFilePath()) return candidate;
+  *note = tr("%1 beside the clip belongs to another video (%2); this starts a new trial.")
+              .arg(name, QDir::toNativeSeparators(linked));
+  return {};
+}
+
+bool MainWindow::askClipSetup(const VideoSource& source, const QString& note, ClipSetup* setup) {
+  // The limb set offered first is the one in use, shown as a choice the person confirms.
+  const auto& limbs = doc_.annotation().limbs;
+  if (bareClip_ == BareClipPolicy::useDefaults) {
+    *setup = NewClipDialog::defaults(source.info(), limbs);
+    return true;
+  }
+  NewClipDialog dialog(source.path(), source.info(), limbs, this);
+  dialog.setNote(note);
+  if (dialog.exec() != QDialog::Accepted) return false;
+  *setup = dialog.setup();
   return true;
 }
 

@@ -19,6 +19,7 @@ void MainWindow::setTheme(bool dark) {
 void MainWindow::editTrialCard() {
   const bool locked = !doc_.annotation().events.empty() || !doc_.annotation().hidden.empty();
   TrialCardDialog dialog(doc_.project(), locked, this);
+  dialog.setCurrentFrame(playhead_);
   if (dialog.exec() != QDialog::Accepted) return;
   runGuarded(this, tr("Trial card"), [&] {
     doc_.undoStack()->beginMacro(tr("Edit trial card"));
@@ -37,6 +38,7 @@ void MainWindow::editTagKeys() {
   keys_ = dialog.keys();
   keys_.save();
   legend_->setKeys(keys_);
+  updateTagKeyHints();
 }
 
 void MainWindow::editKeyBindings() {

@@ -111,6 +111,11 @@ void MainWindow::reloadTagKeysIfLimbsChanged() {
   if (keys_.limbs() == doc_.annotation().limbs) return;
   keys_ = TagKeyMap::load(doc_.annotation().limbs);
   legend_->setKeys(keys_);
+  updateTagKeyHints();
+}
+
+void MainWindow::updateTagKeyHints() {
+  legend_->setFrame(doc_.annotation(), std::max<std::int64_t>(playhead_, 0));
 }
 
 }  // namespace stridemark::ui

@@ -37,6 +37,7 @@ void MainWindow::seek(std::int64_t frame) {
   viewer_->setPendingFrame(frame);
   lanes_->setPlayhead(frame);
   if (video_) video_->request(frame);
+  updateTagKeyHints();
   updateStatus();
 }
 

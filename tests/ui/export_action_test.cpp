@@ -19,6 +19,7 @@ TEST(ExportAction, SavesModifiedProjectThenOpensExportDialog) {
   const auto clip = test::makeTrotClip(dir.path().toStdString(), 1.0);
   MainWindow w;
   w.setRecoveryPolicy(RecoveryPolicy::discard);
+  w.setBareClipPolicy(BareClipPolicy::useDefaults);
   w.setAskBeforeDiscard(false);
   ASSERT_TRUE(w.openVideo(QString::fromStdString(clip.video.string())));
   const QString projectPath = dir.filePath(QStringLiteral("trial.stridemark"));

@@ -41,6 +41,7 @@ void answerPicker(const std::function<void(HiddenSpanDialog&)>& choose, bool* se
 struct Desk {
   explicit Desk(const test::SampleClip& clip) {
     w.setRecoveryPolicy(RecoveryPolicy::discard);
+    w.setBareClipPolicy(BareClipPolicy::useDefaults);
     w.setAskBeforeDiscard(false);
     w.resize(1200, 800);
     w.show();

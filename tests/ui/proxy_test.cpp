@@ -63,6 +63,7 @@ std::vector<fs::path> filesIn(const fs::path& dir) {
 struct Window {
   explicit Window(const fs::path& proxyDir) {
     w.setRecoveryPolicy(RecoveryPolicy::discard);
+    w.setBareClipPolicy(BareClipPolicy::useDefaults);
     w.setAskBeforeDiscard(false);
     VideoSourceOptions options;
     options.budgetBytes = kSmallBudget;

@@ -34,6 +34,13 @@ SampleClip makeTrotClip(const std::filesystem::path& dir, double seconds) {
   return clip;
 }
 
+QString screenshotDir() {
+  const QString dir =
+      QStringLiteral(STRIDEMARK_BINARY_DIR) + QStringLiteral("/tests/ui/screenshots");
+  QDir().mkpath(dir);
+  return dir;
+}
+
 bool waitUntil(const std::function<bool()>& done, int ms) {
   QElapsedTimer clock;
   clock.start();

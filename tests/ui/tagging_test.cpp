@@ -34,6 +34,7 @@ TEST(Tagging, WholeTrotTrialByKeyPressesReproducesGroundTruth) {
 
   MainWindow w;
   w.setRecoveryPolicy(RecoveryPolicy::discard);
+  w.setBareClipPolicy(BareClipPolicy::useDefaults);
   w.setAskBeforeDiscard(false);
   w.resize(1200, 800);
   w.show();

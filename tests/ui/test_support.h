@@ -4,6 +4,7 @@
 #include <QString>
 #include <QStringList>
 #include <filesystem>
+#include <functional>
 
 #include "model/annotation.h"
 
@@ -20,6 +21,9 @@ struct SampleClip {
 // Writes a small trot clip (H.264, 120 fps) with its ground truth into `dir` using our own
 // generator. Deterministic: same seed, same events.
 SampleClip makeTrotClip(const std::filesystem::path& dir, double seconds = 3.0);
+
+// Where screenshot tests write PNGs for people to look at (created on first use).
+QString screenshotDir();
 
 // Processes events until `done` returns true or `ms` pass; returns done().
 bool waitUntil(const std::function<bool()>& done, int ms = 10000);

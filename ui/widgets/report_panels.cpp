@@ -1,6 +1,7 @@
 #include "ui/widgets/report_panels.h"
 
 #include <QAction>
+#include <QMenu>
 #include <cmath>
 
 namespace stridemark::ui {
@@ -35,20 +36,21 @@ QString symmetryRows(const QString& name, const analysis::SymmetryValues& v) {
 ChecksList::ChecksList(QWidget* parent) : QListWidget(parent) {
   setAccessibleName(tr("Checks"));
   setAccessibleDescription(
-      tr("Annotation problems with frame and limb. Enter or click jumps "
-         "to the frame."));
-  auto jump = [this](QListWidgetItem* item) {
-    if (!item) return;
-    const int limb = item->data(kLimbRole).toInt();
-    if (limb >= 0) emit limbRequested(limb);
-    emit seekRequested(item->data(kFrameRole).toLongLong());
-  };
-  connect(this, &QListWidget::itemClicked, this, jump);
-  connect(this, &QListWidget::itemActivated, this, jump);
+      tr("Annotation problems with frame and limb. Enter or click jumps to the frame; a "
+         "problem with a fix offers it in its context menu."));
+  // Messages say what is wrong and what to do: show them whole.
+  setWordWrap(true);
+  setResizeMode(QListView::Adjust);
+  connect(this, &QListWidget::itemClicked, this, &ChecksList::jumpTo);
+  connect(this, &QListWidget::itemActivated, this, &ChecksList::jumpTo);
   swapAction_ = new QAction(tr("Swap this limb's tags from here"), this);
+  swapAction_->setObjectName(QStringLiteral("checksSwapTags"));
+  swapAction_->setToolTip(
+      tr("Touchdown becomes lift-off and lift-off touchdown for this limb's tags from the "
+         "problem's frame on (one undo step). Then delete the extra tag Checks points to."));
   swapAction_->setEnabled(false);
-  addAction(swapAction_);
-  setContextMenuPolicy(Qt::ActionsContextMenu);
+  setContextMenuPolicy(Qt::CustomContextMenu);
+  connect(this, &QWidget::customContextMenuRequested, this, &ChecksList::showMenu);
   connect(this, &QListWidget::currentItemChanged, this, [this](QListWidgetItem* item) {
     swapAction_->setEnabled(item && item->data(kSwapRole).toBool());
   });
@@ -59,30 +61,77 @@ ChecksList::ChecksList(QWidget* parent) : QListWidget(parent) {
   });
 }
 
-void ChecksList::setReport(std::shared_ptr<const analysis::Report> report) {
+void ChecksList::jumpTo(QListWidgetItem* item) {
+  if (!item || item->data(kFrameRole).toLongLong() < 0) return;
+  const int limb = item->data(kLimbRole).toInt();
+  if (limb >= 0) emit limbRequested(limb);
+  emit seekRequested(item->data(kFrameRole).toLongLong());
+}
+
+void ChecksList::showMenu(const QPoint& pos) {
+  QListWidgetItem* item = itemAt(pos);
+  if (!item || item->data(kFrameRole).toLongLong() < 0) return;
+  setCurrentItem(item);
+  QMenu menu(this);
+  const qint64 frame = item->data(kFrameRole).toLongLong();
+  menu.addAction(tr("Go to frame %1").arg(frame), this, [this, item] { jumpTo(item); });
+  if (item->data(kSwapRole).toBool()) menu.addAction(swapAction_);
+  menu.exec(viewport()->mapToGlobal(pos));
+}
+
+void ChecksList::setHasFixes(bool any) {
+  if (any == hasFixes_) return;
+  hasFixes_ = any;
+  emit hasFixesChanged(any);
+}
+
+void ChecksList::setReport(std::shared_ptr<const analysis::Report> report,
+                           std::optional<bool> anyTags) {
+  // Keep the entry of the same frame and limb current across a re-score.
+  std::optional<std::pair<qlonglong, int>> current;
+  if (const QListWidgetItem* item = currentItem())
+    current = {item->data(kFrameRole).toLongLong(), item->data(kLimbRole).toInt()};
   clear();
-  if (!report) return;
+  swapAction_->setEnabled(false);
+  bool fixes = false;
+  if (!report) return setHasFixes(false);
+  const bool nothingTagged =
+      anyTags ? !*anyTags
+              : report->problems.empty() && report->cycles.empty() && report->strides.empty();
+  if (nothingTagged) {
+    auto* item = new QListWidgetItem(
+        tr("Nothing tagged yet: press a limb's tag key at its touchdown (Tag keys dock)."), this);
+    item->setFlags(Qt::ItemIsEnabled);
+    item->setData(kFrameRole, -1);
+    return setHasFixes(false);
+  }
+  QListWidgetItem* keep = nullptr;
   for (const auto& problem : report->problems) {
     const QString limb =
         problem.limb ? QString::fromStdString(report->limbs.label(*problem.limb)) : tr("all");
-    auto* item = new QListWidgetItem(tr("frame %1 · %2 · %3")
-                                         .arg(problem.frame)
-                                         .arg(limb, QString::fromStdString(problem.message)),
-                                     this);
+    const QString message = QString::fromStdString(problem.message);
+    auto* item =
+        new QListWidgetItem(tr("frame %1 · %2 · %3").arg(problem.frame).arg(limb, message), this);
+    item->setToolTip(message);
     item->setData(kFrameRole, static_cast<qlonglong>(problem.frame));
     item->setData(kLimbRole, problem.limb ? *problem.limb : -1);
-    item->setData(kSwapRole, problem.limb && problem.message.find("look swapped from frame") !=
-                                                 std::string::npos);
+    // The wording of core/analysis/tag_checks.cpp's swapped-tags check; its frame is where the
+    // swap starts (the extra tag).
+    const bool swap =
+        problem.limb && problem.message.find("look swapped from frame") != std::string::npos;
+    item->setData(kSwapRole, swap);
+    fixes = fixes || swap;
+    if (!keep && current &&
+        *current == std::pair<qlonglong, int>{problem.frame, problem.limb.value_or(-1)})
+      keep = item;
   }
-  swapAction_->setEnabled(false);
   if (report->problems.empty()) {
-    const bool nothing = report->cycles.empty() && report->strides.empty();
-    auto* item = new QListWidgetItem(
-        nothing ? tr("Nothing tagged yet: no complete cycle to check.") : tr("No problems found."),
-        this);
+    auto* item = new QListWidgetItem(tr("No problems found."), this);
     item->setFlags(Qt::ItemIsEnabled);
     item->setData(kFrameRole, -1);
   }
+  if (keep) setCurrentItem(keep);
+  setHasFixes(fixes);
 }
 
 SummaryView::SummaryView(QWidget* parent) : QTextBrowser(parent) {

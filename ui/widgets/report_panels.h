@@ -4,6 +4,7 @@
 #include <QListWidget>
 #include <QTextBrowser>
 #include <memory>
+#include <optional>
 
 #include "analysis/report.h"
 
@@ -13,18 +14,30 @@ class ChecksList : public QListWidget {
   Q_OBJECT
  public:
   explicit ChecksList(QWidget* parent = nullptr);
-  void setReport(std::shared_ptr<const analysis::Report> report);
+  // `anyTags` false: the list says nothing is tagged yet instead of listing problems (the
+  // window knows; without it the list guesses from the report: no cycle, stride or problem).
+  // The entry of the same frame and limb as the current one stays current, so after a fix the
+  // problem that is left there is the one selected.
+  void setReport(std::shared_ptr<const analysis::Report> report,
+                 std::optional<bool> anyTags = std::nullopt);
   // "Swap this limb's tags from here", enabled on a problem that says a limb's tags look
-  // swapped (its context menu and the list's actions).
+  // swapped (its context menu, and the button under the list in the Checks dock).
   QAction* swapAction() const { return swapAction_; }
+  // True when some entry offers a fix.
+  bool hasFixes() const { return hasFixes_; }
 
  signals:
   void seekRequested(qint64 frame);
   void limbRequested(int limb);
   void swapRequested(int limb, qint64 fromFrame);
+  void hasFixesChanged(bool any);
 
  private:
+  void jumpTo(QListWidgetItem* item);
+  void showMenu(const QPoint& pos);
+  void setHasFixes(bool any);
   QAction* swapAction_ = nullptr;
+  bool hasFixes_ = false;
 };
 
 class SummaryView : public QTextBrowser {

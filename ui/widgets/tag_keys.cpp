@@ -9,6 +9,7 @@
 #include <QSettings>
 #include <QVBoxLayout>
 #include <algorithm>
+#include <limits>
 
 #include "ui/figures/figure_style.h"
 #include "ui/keys/action_table.h"
@@ -99,34 +100,120 @@ TagKeyLegend::TagKeyLegend(QWidget* parent) : QWidget(parent) {
 
 void TagKeyLegend::setKeys(const TagKeyMap& keys) {
   keys_ = keys;
-  QStringList desc;
-  for (int i = 0; i < keys.limbs().size(); ++i)
-    desc << tr("%1: %2").arg(QString::fromStdString(keys.limbs().label(i)),
-                             TagKeyMap::keyText(keys.keyFor(i)));
-  setAccessibleDescription(desc.join(QStringLiteral(", ")));
-  QStringList uses;
-  for (const auto& use : tagKeyUses())
-    uses << modifierText(use.modifiers) + tr("key: %1").arg(tagKeyEffect(use));
-  setToolTip(
-      tr("Tag keys: %1.\n%2").arg(desc.join(QStringLiteral(", ")), uses.join(QLatin1Char('\n'))));
+  next_.assign(static_cast<std::size_t>(keys.limbs().size()), Next{});
+  describe();
   updateGeometry();
   update();
 }
 
+void TagKeyLegend::setFrame(const model::Annotation& annotation, std::int64_t frame) {
+  std::vector<Next> next(next_.size());
+  for (std::size_t i = 0; i < next.size(); ++i) {
+    const int limb = static_cast<int>(i);
+    if (limb >= annotation.limbs.size()) break;
+    const auto tagged = [&](model::EventKind kind) {
+      return std::binary_search(annotation.events.begin(), annotation.events.end(),
+                                model::Event{frame, limb, kind});
+    };
+    // As ProjectDocument::tag decides: one event per limb and frame.
+    if (tagged(model::EventKind::touchdown) || tagged(model::EventKind::liftoff))
+      next[i].kind = NextTag::taggedHere;
+    else
+      next[i].kind = annotation.inStance(limb, frame) ? NextTag::liftoff : NextTag::touchdown;
+    const auto firstEvent = std::lower_bound(
+        annotation.events.begin(), annotation.events.end(),
+        model::Event{std::numeric_limits<std::int64_t>::min(), limb, model::EventKind::touchdown});
+    next[i].first = firstEvent == annotation.events.end() || firstEvent->limb != limb ||
+                    firstEvent->frame >= frame;
+  }
+  if (next == next_ && frame == frame_) return;
+  next_ = std::move(next);
+  frame_ = frame;
+  describe();
+  update();
+}
+
+QString TagKeyLegend::nextText(NextTag next) {
+  switch (next) {
+    case NextTag::touchdown:
+      return tr("↓ touchdown");
+    case NextTag::liftoff:
+      return tr("↑ lift-off");
+    case NextTag::taggedHere:
+      return tr("tagged here");
+  }
+  return {};
+}
+
+// The cap's second line: what the key records, and the way to the other kind at a first tag.
+QString TagKeyLegend::capNote(int limb) const {
+  QString note = nextText(next(limb));
+  if (firstTag(limb) && next(limb) == NextTag::touchdown) note += tr(" · Shift: lift-off");
+  return note;
+}
+
+void TagKeyLegend::describe() {
+  QStringList desc;
+  for (int i = 0; i < keys_.limbs().size(); ++i)
+    desc << tr("%1: %2 records %3")
+                .arg(QString::fromStdString(keys_.limbs().label(i)),
+                     TagKeyMap::keyText(keys_.keyFor(i)), capNote(i));
+  setAccessibleDescription(tr("At frame %1: %2").arg(frame_).arg(desc.join(QStringLiteral(", "))));
+  QStringList uses;
+  for (const auto& use : tagKeyUses())
+    uses << modifierText(use.modifiers) + tr("key: %1").arg(tagKeyEffect(use));
+  setToolTip(tr("Each cap says what its key records at the playhead.\n%1")
+                 .arg(uses.join(QLatin1Char('\n'))));
+}
+
+QSize TagKeyLegend::capSize() const {
+  QFont bold = font();
+  bold.setBold(true);
+  const QFontMetrics plain(font()), strong(bold);
+  int width = 0;
+  for (int i = 0; i < keys_.limbs().size(); ++i) {
+    const int top = strong.horizontalAdvance(TagKeyMap::keyText(keys_.keyFor(i))) +
+                    plain.horizontalAdvance(QString::fromStdString(keys_.limbs().label(i))) +
+                    plain.averageCharWidth() * 3;
+    const int bottom =
+        plain.horizontalAdvance(nextText(NextTag::touchdown) + tr(" · Shift: lift-off"));
+    width = std::max({width, top, bottom});
+  }
+  return {width + 12, 2 * plain.height() + 8};
+}
+
 QSize TagKeyLegend::sizeHint() const {
-  const int pairs = std::max(1, keys_.limbs().pairs());
-  return {220, 14 + std::min(pairs, 4) * 30};
+  const auto& limbs = keys_.limbs();
+  int minRow = 4, maxRow = 0, maxCol = 3;
+  for (int i = 0; i < limbs.size(); ++i) {
+    const auto [row, col] = slotOf(limbs, i);
+    minRow = std::min(minRow, row);
+    maxRow = std::max(maxRow, row);
+    maxCol = std::max(maxCol, col);
+  }
+  const QSize cap = capSize();
+  const int header = fontMetrics().height() + 6;
+  return {16 + (maxCol - 2) * (cap.width() + 6),
+          header + (maxRow - minRow + 1) * (cap.height() + 6) + 6};
 }
 
 void TagKeyLegend::paintEvent(QPaintEvent*) {
   QPainter p(this);
   p.setRenderHint(QPainter::Antialiasing);
   const auto& limbs = keys_.limbs();
+  const QSize capPixels = capSize();
+  const QFontMetrics metrics(font());
+  const int header = metrics.height() + 6;
+  p.setPen(palette().color(QPalette::WindowText));
+  p.drawText(QRect(8, 2, width() - 16, metrics.height()), Qt::AlignLeft | Qt::AlignVCenter,
+             tr("A press at frame %1 records:").arg(frame_));
   int minRow = 4;
   for (int i = 0; i < limbs.size(); ++i) minRow = std::min(minRow, slotOf(limbs, i).first);
   for (int i = 0; i < limbs.size(); ++i) {
     const auto [row, col] = slotOf(limbs, i);
-    const QRectF cap(8 + (col - 3) * 104, 6 + (row - minRow) * 30, 98, 26);
+    const QRectF cap(8 + (col - 3) * (capPixels.width() + 6),
+                     header + (row - minRow) * (capPixels.height() + 6), capPixels.width(),
+                     capPixels.height());
     const QColor colour = figures::limbColour(i);
     p.setPen(QPen(colour.darker(120), 1.5));
     QColor fill = colour;
@@ -134,15 +221,17 @@ void TagKeyLegend::paintEvent(QPaintEvent*) {
     p.setBrush(fill);
     p.drawRoundedRect(cap, 5, 5);
     p.setPen(palette().color(QPalette::WindowText));
+    const QRectF top = cap.adjusted(6, 3, -6, -cap.height() / 2);
+    const QRectF bottom = cap.adjusted(6, cap.height() / 2, -6, -3);
     QFont f = font();
     f.setBold(true);
     p.setFont(f);
-    p.drawText(cap.adjusted(6, 0, -6, 0), Qt::AlignVCenter | Qt::AlignLeft,
-               TagKeyMap::keyText(keys_.keyFor(i)));
+    p.drawText(top, Qt::AlignVCenter | Qt::AlignLeft, TagKeyMap::keyText(keys_.keyFor(i)));
     f.setBold(false);
     p.setFont(f);
-    p.drawText(cap.adjusted(6, 0, -6, 0), Qt::AlignVCenter | Qt::AlignRight,
-               QString::fromStdString(limbs.label(i)));
+    p.drawText(top, Qt::AlignVCenter | Qt::AlignRight, QString::fromStdString(limbs.label(i)));
+    if (next(i) == NextTag::taggedHere) p.setPen(palette().color(QPalette::PlaceholderText));
+    p.drawText(bottom, Qt::AlignVCenter | Qt::AlignLeft, capNote(i));
   }
 }
 
