@@ -23,15 +23,18 @@ Json speedChangesJson(const std::vector<model::SpeedStep>& changes) {
 }
 
 Json trialJson(const model::TrialCard& trial) {
-  return Json{{"subject", trial.subject},
-              {"species", trial.species},
-              {"condition", trial.condition},
-              {"observer", trial.observer},
-              {"notes", trial.notes},
-              {"speed_m_s", optionalNumber(trial.speedMs)},
-              {"speed_changes", speedChangesJson(trial.speedChanges)},
-              {"speed_source", trial.speedSource},
-              {"leg_length_m", optionalNumber(trial.legLengthM)}};
+  Json card{{"subject", trial.subject},
+            {"species", trial.species},
+            {"condition", trial.condition},
+            {"observer", trial.observer},
+            {"notes", trial.notes},
+            {"speed_m_s", optionalNumber(trial.speedMs)},
+            {"speed_changes", speedChangesJson(trial.speedChanges)},
+            {"speed_source", trial.speedSource},
+            {"leg_length_m", optionalNumber(trial.legLengthM)}};
+  // Only when given, so files without a date keep their bytes.
+  if (!trial.examDate.empty()) card["exam_date"] = trial.examDate;
+  return card;
 }
 
 Json videoJson(const std::optional<model::VideoLink>& video) {
@@ -120,6 +123,10 @@ model::TrialCard readTrial(const JsonIn& in) {
   trial.species = textOr(in, "species");
   trial.condition = textOr(in, "condition");
   trial.observer = textOr(in, "observer");
+  trial.examDate = textOr(in, "exam_date");
+  if (!trial.examDate.empty() && !model::isCalendarDate(trial.examDate)) {
+    in.at("exam_date").fail("expected a calendar date as YYYY-MM-DD (e.g. 2026-03-14), or \"\"");
+  }
   trial.notes = textOr(in, "notes");
   trial.speedMs = positiveOrNull(in, "speed_m_s");
   if (const auto changes = in.find("speed_changes"))

@@ -14,6 +14,23 @@ std::optional<EventKind> parseEventWord(std::string_view word) {
   return std::nullopt;
 }
 
+bool isCalendarDate(std::string_view text) {
+  if (text.size() != 10 || text[4] != '-' || text[7] != '-') return false;
+  int parts[3] = {0, 0, 0};
+  const std::size_t starts[3] = {0, 5, 8}, lengths[3] = {4, 2, 2};
+  for (int i = 0; i < 3; ++i) {
+    for (std::size_t k = starts[i]; k < starts[i] + lengths[i]; ++k) {
+      if (text[k] < '0' || text[k] > '9') return false;
+      parts[i] = parts[i] * 10 + (text[k] - '0');
+    }
+  }
+  const int year = parts[0], month = parts[1], day = parts[2];
+  if (month < 1 || month > 12 || day < 1) return false;
+  const bool leap = (year % 4 == 0 && year % 100 != 0) || year % 400 == 0;
+  const int days[12] = {31, leap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31};
+  return day <= days[month - 1];
+}
+
 void Annotation::normalize() {
   std::sort(events.begin(), events.end());
   std::sort(hidden.begin(), hidden.end(), [](const HiddenSpan& a, const HiddenSpan& b) {

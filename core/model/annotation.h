@@ -19,6 +19,9 @@ enum class EventKind { touchdown, liftoff };
 std::string_view eventWord(EventKind kind);                      // "touchdown" / "liftoff"
 std::optional<EventKind> parseEventWord(std::string_view word);  // exact lower-case words
 
+// True for an ISO 8601 calendar date "YYYY-MM-DD" that exists (2024-02-29 yes, 2023-02-29 no).
+bool isCalendarDate(std::string_view text);
+
 struct Event {
   std::int64_t frame = 0;
   int limb = 0;
@@ -84,7 +87,8 @@ struct TrialCard {
   std::string subject;
   std::string species;
   std::string condition;
-  std::string observer;
+  std::string observer;  // the scorer
+  std::string examDate;  // "YYYY-MM-DD" (isCalendarDate), empty when not given
   std::string notes;
   std::optional<double> speedMs;        // belt or ground speed, m/s (from the start)
   std::vector<SpeedStep> speedChanges;  // later speeds, ascending by frame

@@ -32,7 +32,7 @@ def main(out_dir):
         problems.append("report.json carries extra.export: provenance belongs in export.json")
 
     tables = {}
-    for name in ("events", "strides", "limbs", "phases", "support", "bouts", "symmetry"):
+    for name in ("events", "strides", "limbs", "phases", "support", "bouts", "symmetry", "dap"):
         path = f"{out_dir}/tables/{name}.csv"
         tables[name] = pd.read_csv(path, comment="#")
         with open(path, encoding="utf-8") as f:
@@ -99,6 +99,42 @@ def main(out_dir):
             row = rows_here[rows_here["limb"] == label]
             if len(row) != 1 or not close(row.iloc[0]["mean_cycles"], stats["mean"]):
                 problems.append(f"phases.csv {scope} {gait or ''} {label} mean differs from JSON")
+
+    # DAP per diagonal: one block of rows per scope whose summary has a dap, none otherwise.
+    dap = tables["dap"]
+    with open(f"{out_dir}/tables/dap.csv", encoding="utf-8") as f:
+        if "# sign convention:" not in f.read(4000):
+            problems.append("dap.csv does not state its sign convention")
+    dap_scopes = [("trial", None, None, report.get("dap"))]
+    for gait, summary in report.get("by_gait", {}).items():
+        dap_scopes.append(("gait", gait, None, summary["dap"]))
+    for i, bout in enumerate(report["bouts"]):
+        dap_scopes.append(("bout", bout["gait"], i, bout["summary"]["dap"]))
+    for scope, gait, bout, value in dap_scopes:
+        rows_here = dap[dap["scope"] == scope]
+        if scope != "trial":
+            rows_here = in_scope(dap, scope, gait, bout)
+        where = f"dap.csv {scope} {gait or ''} {'' if bout is None else bout}".strip()
+        if value is None:
+            if len(rows_here):
+                problems.append(f"{where}: {len(rows_here)} rows where the JSON has no DAP")
+            continue
+        expected = {"LH-RF": (value["lh_rf_ms"], value["lh_rf_percent"]),
+                    "RH-LF": (value["rh_lf_ms"], value["rh_lf_percent"])}
+        for diagonal, (ms, pct) in expected.items():
+            row = rows_here[rows_here["diagonal"] == diagonal]
+            if len(row) != 1:
+                problems.append(f"{where} {diagonal}: {len(row)} rows")
+                continue
+            r = row.iloc[0]
+            for got, want in ((r["n"], ms["n"]), (r["mean_ms"], ms["mean"]), (r["sd_ms"], ms["sd"]),
+                              (r["mean_percent"], pct["mean"]), (r["sd_percent"], pct["sd"])):
+                if not close(got, want):
+                    problems.append(f"{where} {diagonal}: {got} vs JSON {want}")
+        for diagonal, key in (("mean", "mean_ms"), ("difference", "difference_ms")):
+            row = rows_here[rows_here["diagonal"] == diagonal]
+            if len(row) != 1 or not close(row.iloc[0]["mean_ms"], value[key]):
+                problems.append(f"{where} {diagonal} differs from JSON {key}")
 
     events = tables["events"]
     if not {"limb", "event", "frame", "time_s"} <= set(events.columns):

@@ -77,6 +77,7 @@ model::Project trotProject(const std::string& videoPath, std::int64_t frameCount
   p.trial.species = "dog";
   p.trial.condition = "treadmill trot, test data";
   p.trial.observer = "Export test";
+  p.trial.examDate = "2026-03-14";
   p.trial.speedMs = 1.8;
   p.trial.legLengthM = 0.5;
   model::VideoLink link;

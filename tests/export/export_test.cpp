@@ -11,6 +11,7 @@
 #include <filesystem>
 #include <nlohmann/json.hpp>
 #include <regex>
+#include <set>
 #include <string>
 #include <vector>
 
@@ -108,7 +109,9 @@ TEST_F(ExportTest, ClipReportTablesAndFiguresFromTheCommandLine) {
         << text;
   }
   const std::string first = run("pdftotext -f 1 -l 1 '" + pdf.string() + "' -").out;
-  for (const char* needle : {"Trial card", "Bramble", "Export test", "Stridemark 0."}) {
+  // Issue 16 item 7: the report names the exam date, the scorer and the software version.
+  for (const char* needle : {"Trial card", "Bramble", "Scorer", "Export test", "Exam date",
+                             "2026-03-14", "Stridemark 0."}) {
     EXPECT_NE(first.find(needle), std::string::npos) << needle << " missing on page 1";
   }
   const std::string all = run("pdftotext '" + pdf.string() + "' -").out;
@@ -154,8 +157,8 @@ TEST_F(ExportTest, ClipReportTablesAndFiguresFromTheCommandLine) {
 // project, named the same way; the provenance is in export.json. Source: the score verb's own
 // output, run as a separate process, compared byte for byte with cmp(1).
 TEST(ExportSamples, ReportAndTablesAreTheBytesScoreWrites) {
-  const std::vector<std::string> tables = {"events",  "strides", "limbs",   "phases",
-                                           "support", "bouts",   "symmetry"};
+  const std::vector<std::string> tables = {"events",  "strides", "limbs",    "phases",
+                                           "support", "bouts",   "symmetry", "dap"};
   for (const char* sample : {"dog-rehab-treadmill", "lab-hexapod", "paddock-gallop"}) {
     SCOPED_TRACE(sample);
     const fs::path work = freshFolder(std::string("sample-") + sample);
@@ -181,6 +184,14 @@ TEST(ExportSamples, ReportAndTablesAreTheBytesScoreWrites) {
       const CommandResult r = same(work / score, work / "export" / "report.json");
       EXPECT_EQ(r.exitCode, 0) << score << ": " << r.out;
     }
+    // The same set of files: a table score writes and export forgets fails here.
+    std::set<std::string> scoreFiles, exportFiles;
+    for (const auto& e : fs::directory_iterator(work / "score"))
+      scoreFiles.insert(e.path().filename().string());
+    for (const auto& e : fs::directory_iterator(work / "export" / "tables"))
+      exportFiles.insert(e.path().filename().string());
+    EXPECT_EQ(scoreFiles, exportFiles);
+    EXPECT_EQ(scoreFiles.size(), tables.size());
     for (const std::string& table : tables) {
       const std::string name = table + ".csv";
       const CommandResult r = same(work / "score" / name, work / "export" / "tables" / name);

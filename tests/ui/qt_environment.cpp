@@ -3,6 +3,7 @@
 #include <QApplication>
 #include <QDir>
 #include <QElapsedTimer>
+#include <QSettings>
 #include <QStandardPaths>
 #include <QTemporaryDir>
 #include <QThread>
@@ -60,7 +61,12 @@ class QtEnvironment : public ::testing::Environment {
     runtimeDir_ = std::make_unique<QTemporaryDir>();
     if (qEnvironmentVariableIsEmpty("XDG_RUNTIME_DIR"))
       qputenv("XDG_RUNTIME_DIR", runtimeDir_->path().toUtf8());
-    QStandardPaths::setTestModeEnabled(true);  // QSettings and caches under ~/.qttest
+    QStandardPaths::setTestModeEnabled(true);  // caches under ~/.qttest
+    // ctest runs test processes in parallel: each gets its own settings so one test's key
+    // bindings or window state never leak into another running at the same time.
+    settingsDir_ = std::make_unique<QTemporaryDir>();
+    QSettings::setPath(QSettings::NativeFormat, QSettings::UserScope, settingsDir_->path());
+    QSettings::setPath(QSettings::IniFormat, QSettings::UserScope, settingsDir_->path());
     static int argc = 1;
     static char name[] = "ui_tests";
     static char* argv[] = {name, nullptr};
@@ -75,6 +81,7 @@ class QtEnvironment : public ::testing::Environment {
 
  private:
   std::unique_ptr<QTemporaryDir> runtimeDir_;
+  std::unique_ptr<QTemporaryDir> settingsDir_;
   std::unique_ptr<QApplication> app_;
 };
 

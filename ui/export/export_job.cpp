@@ -88,20 +88,9 @@ void writeTables(const Context& c) {
   // The bytes `stridemark score PROJECT --csv DIR --json OUT` writes for the same project
   // named the same way: the tables' "# input:" line is the project path as given.
   const formats::TableSource source{c.options.projectPath.string()};
-  const model::Annotation& a = c.project.annotation;
-  const analysis::Report& r = c.report;
-  // Same names and order as formats::writeTables, which writes to final names only.
-  const std::vector<std::pair<std::string, std::string>> tables = {
-      {"events.csv", formats::eventsTable(a, source)},
-      {"strides.csv", formats::stridesTable(r, source)},
-      {"limbs.csv", formats::limbsTable(r, source)},
-      {"phases.csv", formats::phasesTable(r, source)},
-      {"support.csv", formats::supportTable(r, source)},
-      {"bouts.csv", formats::boutsTable(r, source)},
-      {"symmetry.csv", formats::symmetryTable(r, source)},
-  };
-  for (const auto& [name, text] : tables) writeText(c.out.stage(fs::path("tables") / name), text);
-  writeText(c.out.stage("report.json"), formats::reportJsonText(r));
+  for (const auto& [name, text] : formats::allTables(c.project.annotation, c.report, source))
+    writeText(c.out.stage(fs::path("tables") / name), text);
+  writeText(c.out.stage("report.json"), formats::reportJsonText(c.report));
   report(c, "tables", 1);
 }
 

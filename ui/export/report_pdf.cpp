@@ -43,6 +43,16 @@ QString limbLabel(const Report& r, int limb) {
   return qs(r.limbs.label(limb));
 }
 
+// "1.00 m/s (belt), 2.50 m/s from frame 620": the speed from the start and each change.
+QString speedSchedule(const model::TrialCard& t) {
+  if (!t.speedMs) return QStringLiteral("not given");
+  QString text = QStringLiteral("%1 m/s (%2)").arg(formatNumber(*t.speedMs, 2), qs(t.speedSource));
+  for (const model::SpeedStep& step : t.speedChanges)
+    text +=
+        QStringLiteral(", %1 m/s from frame %2").arg(formatNumber(step.ms, 2)).arg(step.fromFrame);
+  return text;
+}
+
 void trialCard(PdfDocument& doc, const ReportSource& src) {
   const model::Project& p = *src.project;
   const model::TrialCard& t = p.trial;
@@ -54,12 +64,11 @@ void trialCard(PdfDocument& doc, const ReportSource& src) {
       {QStringLiteral("Species"), orDash(t.species)},
       {QStringLiteral("Condition"), orDash(t.condition)},
       {QStringLiteral("Scorer"), orDash(t.observer)},
+      {QStringLiteral("Exam date"), orDash(t.examDate)},
       {QStringLiteral("Limb set"), qs(r.limbs.name()) + QStringLiteral(" (reference limb ") +
                                        limbLabel(r, r.referenceLimb) + QStringLiteral(")")},
       {QStringLiteral("Capture rate"), qs(toString(r.fps)) + QStringLiteral(" frames/s")},
-      {QStringLiteral("Speed"),
-       t.speedMs ? QStringLiteral("%1 m/s (%2)").arg(formatNumber(*t.speedMs, 2), qs(t.speedSource))
-                 : QStringLiteral("not given")},
+      {QStringLiteral("Speed"), speedSchedule(t)},
       {QStringLiteral("Leg length"),
        t.legLengthM ? QStringLiteral("%1 m").arg(formatNumber(*t.legLengthM, 3))
                     : QStringLiteral("not given")},

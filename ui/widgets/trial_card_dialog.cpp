@@ -50,7 +50,11 @@ TrialCardDialog::TrialCardDialog(const model::Project& project, bool limbSetLock
   subject_ = textField(t.subject, tr("Subject"));
   species_ = textField(t.species, tr("Species"));
   condition_ = textField(t.condition, tr("Condition"));
-  observer_ = textField(t.observer, tr("Observer"));
+  observer_ = textField(t.observer, tr("Scorer"));
+  examDate_ = textField(t.examDate, tr("Exam date"));
+  examDate_->setObjectName(QStringLiteral("examDate"));
+  examDate_->setPlaceholderText(tr("YYYY-MM-DD"));
+  examDate_->setToolTip(tr("The day the animal was filmed, e.g. 2026-03-14. The report names it."));
   notes_ = new QPlainTextEdit(QString::fromStdString(t.notes));
   notes_->setAccessibleName(tr("Notes"));
   notes_->setTabChangesFocus(true);
@@ -113,7 +117,8 @@ TrialCardDialog::TrialCardDialog(const model::Project& project, bool limbSetLock
   form->addRow(tr("&Subject"), subject_);
   form->addRow(tr("S&pecies"), species_);
   form->addRow(tr("Con&dition"), condition_);
-  form->addRow(tr("&Observer"), observer_);
+  form->addRow(tr("Sc&orer"), observer_);
+  form->addRow(tr("E&xam date"), examDate_);
   form->addRow(tr("&Notes"), notes_);
   form->addRow(tr("&Limb set"), limbSet_);
   form->addRow(tr("&Reference limb"), reference_);
@@ -241,6 +246,7 @@ model::TrialCard TrialCardDialog::trialCard() const {
   t.species = species_->text().trimmed().toStdString();
   t.condition = condition_->text().trimmed().toStdString();
   t.observer = observer_->text().trimmed().toStdString();
+  t.examDate = examDate_->text().trimmed().toStdString();
   t.notes = notes_->toPlainText().toStdString();
   bool ok = true;
   t.speedMs = optionalNumber(speed_, tr("Speed"), &ok);
@@ -259,6 +265,12 @@ void TrialCardDialog::accept() {
   } catch (const Error& e) {
     error_->setText(tr("Capture rate: %1").arg(QString::fromStdString(e.what())));
     rate_->setFocus();
+    return;
+  }
+  const std::string date = examDate_->text().trimmed().toStdString();
+  if (!date.empty() && !model::isCalendarDate(date)) {
+    error_->setText(tr("Exam date: write it as YYYY-MM-DD (e.g. 2026-03-14), or leave it empty."));
+    examDate_->setFocus();
     return;
   }
   bool ok = true;

@@ -1,7 +1,7 @@
 #pragma once
-// Trial card: subject, species, condition, observer, notes, limb set, capture rate, reference
-// limb, belt or ground speed (from the start, and the frames where the belt changed speed) and
-// leg length. Validates before accepting.
+// Trial card: subject, species, condition, scorer, exam date, notes, limb set, capture rate,
+// reference limb, belt or ground speed (from the start, and the frames where the belt changed
+// speed) and leg length. Validates before accepting.
 #include <QDialog>
 #include <QStringList>
 #include <cstdint>
@@ -46,7 +46,7 @@ class TrialCardDialog : public QDialog {
   // the schedule is wrong.
   bool readSpeedChanges(std::vector<model::SpeedStep>* steps, QString* error) const;
 
-  QLineEdit *subject_, *species_, *condition_, *observer_, *rate_, *speed_, *legLength_;
+  QLineEdit *subject_, *species_, *condition_, *observer_, *examDate_, *rate_, *speed_, *legLength_;
   QPlainTextEdit* notes_;
   QComboBox *limbSet_, *reference_, *speedSource_;
   QTableWidget* speedChanges_;

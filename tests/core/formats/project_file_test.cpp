@@ -28,6 +28,7 @@ model::Project sampleProject() {
   project.trial.species = "Narceus sp.";
   project.trial.condition = "glass track";
   project.trial.observer = "unit test";
+  project.trial.examDate = "2024-02-29";
   project.trial.notes = "line one\nline two — ünïcode";
   project.trial.speedMs = 0.021;
   project.trial.speedChanges = {{600, 0.035}, {1500, 0.0}};
@@ -96,6 +97,23 @@ TEST(ProjectFile, ExcludedStridesKeepTheirReasons) {
   EXPECT_EQ(back.annotation.excluded[1].reason, "looked back at the handler");
   // None: no key, so files without exclusions keep their bytes.
   EXPECT_EQ(projectJsonText(model::Project{}).find("excluded_strides"), std::string::npos);
+}
+
+// Issue 16 item 7: the report names the exam date. Source: ISO 8601 calendar dates
+// (YYYY-MM-DD; the Gregorian leap-year rule: every 4th year, not every 100th, every 400th).
+TEST(ProjectFile, ExamDateIsAnIsoCalendarDate) {
+  for (const char* good : {"2026-12-03", "2024-02-29", "2000-02-29", "1999-12-31"})
+    EXPECT_TRUE(model::isCalendarDate(good)) << good;
+  for (const char* bad : {"2023-02-29", "1900-02-29", "2026-13-01", "2026-04-31", "2026-00-10",
+                          "2026-1-5", "03/12/2026", "2026-12-03T10:00", "", "2026-12-0x"})
+    EXPECT_FALSE(model::isCalendarDate(bad)) << bad;
+  model::Project project;
+  project.trial.examDate = "2026-03-14";
+  const nlohmann::json document = nlohmann::json::parse(projectJsonText(project));
+  EXPECT_EQ(document["trial"]["exam_date"], "2026-03-14");
+  EXPECT_EQ(parseProjectJson(projectJsonText(project), "p").trial.examDate, "2026-03-14");
+  // Not given: no key, so older files and files without a date keep their bytes.
+  EXPECT_EQ(projectJsonText(model::Project{}).find("exam_date"), std::string::npos);
 }
 
 TEST(ProjectFile, VersionOneFilesWithoutSpeedChangesStillRead) {
@@ -239,6 +257,11 @@ INSTANTIATE_TEST_SUITE_P(
         BadProject{"speed changes without start",
                    v1("[]", R"(,"trial":{"speed_changes":[{"from_frame":60,"m_s":2}]})"),
                    "at /trial/speed_changes: speed changes without a speed from the start"},
+        BadProject{"exam date not a date", v1("[]", R"(,"trial":{"exam_date":"14/03/2026"})"),
+                   "at /trial/exam_date: expected a calendar date as YYYY-MM-DD"},
+        BadProject{"exam date that does not exist",
+                   v1("[]", R"(,"trial":{"exam_date":"2023-02-29"})"),
+                   "at /trial/exam_date: expected a calendar date"},
         BadProject{"hidden backwards", v1("[]", R"(,"hidden":[{"limb":"LF","first":9,"last":3}])"),
                    "at /hidden/0/last:"}),
     [](const ::testing::TestParamInfo<BadProject>& param) {
