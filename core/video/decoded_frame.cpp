@@ -1,7 +1,5 @@
 #include "video/decoded_frame.h"
 
-#include <sys/mman.h>
-
 #include <algorithm>
 #include <cstdlib>
 #include <cstring>
@@ -147,156 +145,45 @@ std::string DecodedFrame::md5() const {
   return hex;
 }
 
-void FramePool::FreeSlab::operator()(std::uint8_t* p) const {
+void FramePool::FreeBytes::operator()(std::uint8_t* p) const {
   std::free(p);
 }
 
-namespace {
-
-constexpr std::size_t kHugePage = std::size_t{2} << 20;
-constexpr std::size_t kAlign = 64;  // row alignment of PlaneLayout and SIMD loads
-
-std::size_t roundUp(std::size_t n, std::size_t to) {
-  return (n + to - 1) / to * to;
-}
-
-struct FreeBytes {
-  void operator()(std::uint8_t* p) const { std::free(p); }
-};
-
-// Slabs of pools that closed, already faulted in, for the next pool of this process.
-class SpareSlabs {
- public:
-  static constexpr std::size_t kCap = std::size_t{1} << 30;
-  std::unique_ptr<std::uint8_t, FreeBytes> take(std::size_t bytes) {
-    std::lock_guard lock(mutex_);
-    for (auto& slab : slabs_) {
-      if (slab.bytes != bytes) continue;
-      auto memory = std::move(slab.memory);
-      slab = std::move(slabs_.back());
-      slabs_.pop_back();
-      total_ -= bytes;
-      return memory;
-    }
-    return nullptr;
-  }
-  void give(std::unique_ptr<std::uint8_t, FreeBytes> memory, std::size_t bytes) {
-    std::lock_guard lock(mutex_);
-    if (total_ + bytes > kCap) return;  // freed here
-    total_ += bytes;
-    slabs_.push_back({std::move(memory), bytes});
-  }
-
- private:
-  struct Spare {
-    std::unique_ptr<std::uint8_t, FreeBytes> memory;
-    std::size_t bytes = 0;
-  };
-  std::mutex mutex_;
-  std::vector<Spare> slabs_;
-  std::size_t total_ = 0;
-};
-
-SpareSlabs& spareSlabs() {
-  static SpareSlabs spare;
-  return spare;
-}
-
-}  // namespace
-
-FramePool::~FramePool() {
-  for (auto& slab : slabs_)
-    spareSlabs().give(std::unique_ptr<std::uint8_t, FreeBytes>(slab->memory.release()),
-                      slab->bytes);
-}
-
-FramePool::Buffer FramePool::reserveLocked(std::size_t bytes) {
-  const std::size_t size = roundUp(bytes, kAlign);
-  Slab* slab = slabs_.empty() ? nullptr : slabs_.back().get();
-  if (!slab || slab->used + size > slab->bytes) {
-    // About 16 MiB per slab: few frames pinned per slab when the cache shrinks, little
-    // per-slab overhead. The last 2 MiB keep 4 KiB pages, so the partly used end of a slab is
-    // only resident as far as frames reach and resident memory matches the bytes handed out.
-    const std::size_t perSlab = std::max<std::size_t>(1, (std::size_t{16} << 20) / size);
-    const std::size_t slabBytes = roundUp(perSlab * size, kHugePage);
-    auto fresh = std::make_unique<Slab>();
-    if (auto spare = spareSlabs().take(slabBytes)) {
-      fresh->memory.reset(spare.release());
-    } else {
-      void* raw = std::aligned_alloc(kHugePage, slabBytes);
-      if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
-      if (slabBytes > kHugePage)
-        madvise(raw, slabBytes - kHugePage, MADV_HUGEPAGE);  // advice only; may be declined
-      fresh->memory.reset(static_cast<std::uint8_t*>(raw));
-    }
-    fresh->bytes = slabBytes;
-    slabs_.push_back(std::move(fresh));
-    slab = slabs_.back().get();
-  }
-  Buffer buffer{slab->memory.get() + slab->used, bytes, slab};
-  slab->used += size;
-  return buffer;
-}
-
 std::uint8_t* FramePool::acquire(std::size_t bytes) {
-  std::unique_lock lock(mutex_);
-  auto it = std::find_if(idle_.begin(), idle_.end(),
-                         [bytes](const Buffer& b) { return b.bytes == bytes; });
-  Buffer buffer;
-  const bool fresh = it == idle_.end();
-  if (!fresh) {
-    buffer = *it;
-    *it = idle_.back();
-    idle_.pop_back();
-  } else {
-    buffer = reserveLocked(bytes);
+  {
+    std::lock_guard lock(mutex_);
+    const auto it = std::find_if(idle_.begin(), idle_.end(),
+                                 [bytes](const Idle& idle) { return idle.bytes == bytes; });
+    if (it != idle_.end()) {
+      std::uint8_t* data = it->data.release();
+      *it = std::move(idle_.back());
+      idle_.pop_back();
+      return data;
+    }
   }
-  ++buffer.slab->lent;  // counted before unlocking, so trimIdle() keeps the slab
-  lent_.emplace(buffer.data, buffer);
-  lock.unlock();
-  if (fresh) std::memset(buffer.data, 0, bytes);  // fault the pages in before the copy
-  return buffer.data;
-}
-
-void FramePool::warmOne(std::size_t bytes) {
-  std::unique_lock lock(mutex_);
-  Buffer buffer = reserveLocked(bytes);
-  ++buffer.slab->lent;  // lent to this call while it touches the pages
-  lock.unlock();
-  std::memset(buffer.data, 0, bytes);
-  lock.lock();
-  --buffer.slab->lent;
-  idle_.push_back(buffer);
-}
-
-std::size_t FramePool::carvedBytes() const {
-  std::lock_guard lock(mutex_);
-  std::size_t total = 0;
-  for (const auto& slab : slabs_) total += slab->used;
-  return total;
+  // 64-byte aligned: PlaneLayout's rows are, and swscale's SIMD loads want it.
+  constexpr std::size_t kAlign = 64;
+  void* raw = std::aligned_alloc(kAlign, (bytes + kAlign - 1) / kAlign * kAlign);
+  if (!raw) throw Error(ErrorCategory::decode, "out of memory for the frame cache");
+  return static_cast<std::uint8_t*>(raw);
 }
 
 void FramePool::giveBack(std::uint8_t* data, std::size_t bytes) {
+  std::unique_ptr<std::uint8_t, FreeBytes> owned(data);
   std::lock_guard lock(mutex_);
-  const auto it = lent_.find(data);
-  if (it == lent_.end()) return;  // not ours; cannot happen through DecodedFrame
-  (void)bytes;
-  --it->second.slab->lent;
-  idle_.push_back(it->second);
-  lent_.erase(it);
+  idle_.push_back({std::move(owned), bytes});
 }
 
 std::size_t FramePool::idleBytes() const {
   std::lock_guard lock(mutex_);
   std::size_t total = 0;
-  for (const auto& buffer : idle_) total += buffer.bytes;
+  for (const auto& idle : idle_) total += idle.bytes;
   return total;
 }
 
 void FramePool::trimIdle() {
   std::lock_guard lock(mutex_);
-  std::erase_if(idle_, [](const Buffer& b) { return b.slab->lent == 0; });
-  std::erase_if(slabs_, [](const std::unique_ptr<Slab>& slab) { return slab->lent == 0; });
+  idle_.clear();
 }
 
 }  // namespace stridemark::video

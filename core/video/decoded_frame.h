@@ -9,7 +9,6 @@
 #include <memory>
 #include <mutex>
 #include <string>
-#include <unordered_map>
 #include <vector>
 
 namespace stridemark::video {
@@ -70,50 +69,30 @@ class DecodedFrame {
   std::shared_ptr<FramePool> pool_;
 };
 
-// Recycles frame buffers so a refill does not fault in fresh pages for every frame. Fresh
-// buffers are carved one after another out of 2 MiB-aligned slabs advised for transparent huge
-// pages: nearly every byte then sits on huge pages, where first touch costs about a twentieth
-// of 4 KiB pages (a lone 3 MB frame would leave a 4 KiB-page tail that costs more than the
-// rest of it). Buffers are zero-filled once when carved (touching every page) and reused.
-// When a pool closes, its slabs stay in the process for the next pool (reopening a clip, the
-// next clip of a batch) instead of being faulted in again; trimIdle() really frees.
-class FramePool : public std::enable_shared_from_this<FramePool> {
+// Recycles frame buffers of one clip: a frame evicted from the cache hands its buffer to the
+// next decoded frame instead of returning it to the allocator, so a refill reuses memory that is
+// already faulted in. Thread-safe (the frame server decodes on a worker thread).
+class FramePool {
  public:
   static std::shared_ptr<FramePool> create() { return std::make_shared<FramePool>(); }
   FramePool() = default;
-  ~FramePool();  // hands its slabs to the next pool of the process (up to 1 GiB is kept)
   FramePool(const FramePool&) = delete;
   FramePool& operator=(const FramePool&) = delete;
-  std::uint8_t* acquire(std::size_t bytes);
+  std::uint8_t* acquire(std::size_t bytes);  // an idle buffer of that size, or a fresh one
   void giveBack(std::uint8_t* data, std::size_t bytes);
   std::size_t idleBytes() const;
-  void trimIdle();  // frees every slab none of whose buffers is lent out
-  // Carves and faults in one more idle buffer of `bytes` (a background warm-up, so the first
-  // refills after opening a clip do not pay for fresh memory). Thread-safe.
-  void warmOne(std::size_t bytes);
-  std::size_t carvedBytes() const;  // buffers carved so far, idle or lent
+  void trimIdle();  // frees every idle buffer (after the cache budget shrinks)
 
  private:
-  struct FreeSlab {
+  struct FreeBytes {
     void operator()(std::uint8_t* p) const;
   };
-  struct Slab {
-    std::unique_ptr<std::uint8_t, FreeSlab> memory;
+  struct Idle {
+    std::unique_ptr<std::uint8_t, FreeBytes> data;
     std::size_t bytes = 0;
-    std::size_t used = 0;  // carved so far
-    int lent = 0;          // buffers out on loan
   };
-  struct Buffer {
-    std::uint8_t* data = nullptr;
-    std::size_t bytes = 0;
-    Slab* slab = nullptr;
-  };
-  Buffer reserveLocked(std::size_t bytes);  // address space only; the caller touches it
-
   mutable std::mutex mutex_;
-  std::vector<std::unique_ptr<Slab>> slabs_;
-  std::vector<Buffer> idle_;
-  std::unordered_map<std::uint8_t*, Buffer> lent_;
+  std::vector<Idle> idle_;
 };
 
 }  // namespace stridemark::video

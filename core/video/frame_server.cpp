@@ -71,7 +71,6 @@ FrameServer::FrameServer(const std::string& path, std::shared_ptr<const FrameInd
     worker_.join();
     std::rethrow_exception(startError_);
   }
-  warmer_ = std::thread([this] { warmPool(); });
 }
 
 FrameServer::~FrameServer() {
@@ -86,28 +85,8 @@ FrameServer::~FrameServer() {
   }
   wake_.notify_all();
   arrived_.notify_all();
-  idle_.notify_all();
   worker_.join();
-  warmer_.join();
   deliver(cancelled);
-}
-
-// Faults in pool memory while the worker is idle (never while it decodes or someone waits):
-// a warmed buffer then makes a later refill quicker instead of slowing down the current one.
-void FrameServer::warmPool() {
-  lowerThisThreadsPriority(options_.workerNice);
-  for (;;) {
-    std::size_t target = 0;
-    {
-      std::unique_lock lock(mutex_);
-      idle_.wait(lock, [this] { return stopping_ || (!jobActive_ && pending_.empty()); });
-      if (stopping_) return;
-      target = std::min(options_.budgetBytes,
-                        frameBytes_ * static_cast<std::size_t>(index_->frameCount()));
-    }
-    if (pool_->carvedBytes() + frameBytes_ > target) return;
-    pool_->warmOne(frameBytes_);
-  }
 }
 
 // Opens the file on the worker thread (so its decoder threads inherit the lower priority) and
@@ -465,7 +444,6 @@ void FrameServer::decodeSpan(std::int64_t first, std::int64_t last,
   }
   lock.lock();
   jobActive_ = false;
-  idle_.notify_all();
   if (delivered >= 8) {  // decode cost per kept frame, pre-roll included
     const double ms =
         std::chrono::duration<double, std::milli>(std::chrono::steady_clock::now() - began)

@@ -115,7 +115,6 @@ class FrameServer {
                     std::vector<Ready>& cancelled);
   bool jobWillProduceLocked(std::int64_t n) const;
   void workerMain(const std::string& path);
-  void warmPool();
   void workerLoop();
   void runDemand(std::unique_lock<std::mutex>& lock);
   bool runBackground(std::unique_lock<std::mutex>& lock);
@@ -147,7 +146,6 @@ class FrameServer {
   mutable std::mutex mutex_;
   std::condition_variable wake_;     // the worker waits on it
   std::condition_variable arrived_;  // get() waits on it
-  std::condition_variable idle_;     // the pool warmer waits on it
   std::map<std::int64_t, std::shared_ptr<const DecodedFrame>> cache_;
   std::size_t cachedBytes_ = 0;
   std::int64_t playhead_ = 0;
@@ -167,7 +165,6 @@ class FrameServer {
   std::exception_ptr startError_;
   bool stopping_ = false;
   std::thread worker_;  // after everything above: starts once it exists
-  std::thread warmer_;  // faults the cache's memory in while the clip is being looked at
 };
 
 }  // namespace stridemark::video
