@@ -8,7 +8,8 @@
 // main_window_open.cpp and main_window_save.cpp (file and session: open, recover, save,
 // journal), main_window_proxy.cpp (stepping proxy status), main_window_transport.cpp (play,
 // step, seek), main_window_tagging.cpp (tag keys, hidden spans), main_window_display.cpp
-// (report, title, status), main_window_scope.cpp (the Scope toolbar), main_window_export.cpp and main_window_settings.cpp.
+// (report, title, status), main_window_scope.cpp (the Scope toolbar), main_window_export.cpp and
+// main_window_settings.cpp.
 #include <QElapsedTimer>
 #include <QMainWindow>
 #include <QStringList>

@@ -83,9 +83,8 @@ void MainWindow::buildDocks() {
   tabifyDockWidget(pd, sm);
   pd->raise();
   // Bottom: Stride sheet with the duty plot, Checks with the edit history.
-  auto* ss =
-      dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheetPanel_,
-           Qt::BottomDockWidgetArea);
+  auto* ss = dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheetPanel_,
+                  Qt::BottomDockWidgetArea);
   auto* ck =
       dock(tr("Checks"), QStringLiteral("dockChecks"), checksPanel, Qt::BottomDockWidgetArea);
   auto* dp = dock(tr("Duty per stride"), QStringLiteral("dockDutyPlot"), dutyPlot_,

@@ -22,8 +22,9 @@ QString scopeLabel(const analysis::Report& r, const ReportScope& scope) {
     case ReportScope::Kind::all: {
       QStringList gaits;
       for (const auto& g : analysis::gaitsInOrder(r.bouts)) gaits << QString::fromStdString(g);
-      return gaits.size() > 1 ? QObject::tr("All strides (%1)").arg(gaits.join(QStringLiteral(", ")))
-                              : QObject::tr("All strides");
+      return gaits.size() > 1
+                 ? QObject::tr("All strides (%1)").arg(gaits.join(QStringLiteral(", ")))
+                 : QObject::tr("All strides");
     }
     case ReportScope::Kind::gait: {
       const auto it = r.byGait.find(scope.gait);

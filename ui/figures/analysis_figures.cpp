@@ -200,8 +200,9 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
     if (!s.limbPhase || !s.hindDutyFactor) continue;
     QColor fill = style.foreground;
     if (gaits.size() > 1)
-      fill = s.bout >= 0 ? gaitColour(gaitIndex(report.bouts[static_cast<std::size_t>(s.bout)].gait))
-                         : style.muted;
+      fill = s.bout >= 0
+                 ? gaitColour(gaitIndex(report.bouts[static_cast<std::size_t>(s.bout)].gait))
+                 : style.muted;
     fill.setAlphaF(s.symmetrical ? 0.75 : 0.25);
     if (s.excluded) fill = Qt::transparent;
     p.setBrush(fill);
@@ -216,7 +217,8 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
   for (const auto& gait : gaits) {
     const auto it = report.byGait.find(gait);
     if (it != report.byGait.end() && it->second.hildebrand)
-      means.push_back({QString::fromStdString(gait), *it->second.hildebrand, gaitColour(gaitIndex(gait))});
+      means.push_back(
+          {QString::fromStdString(gait), *it->second.hildebrand, gaitColour(gaitIndex(gait))});
   }
   if (report.byGait.empty() && report.hildebrand)
     means.push_back({QStringLiteral("mean"), *report.hildebrand, QColor(0xd5, 0x5e, 0x00)});

@@ -60,11 +60,10 @@ std::vector<int> scopeStrides(const Report& report, const ReportScope& scope) {
   const int bout = boutIndex(report, scope);
   for (std::size_t i = 0; i < report.strides.size(); ++i) {
     const int b = report.strides[i].bout;
-    const bool in =
-        scope.kind == ReportScope::Kind::all ||
-        (scope.kind == ReportScope::Kind::bout && b == bout && b >= 0) ||
-        (scope.kind == ReportScope::Kind::gait && b >= 0 &&
-         report.bouts[static_cast<std::size_t>(b)].gait == scope.gait);
+    const bool in = scope.kind == ReportScope::Kind::all ||
+                    (scope.kind == ReportScope::Kind::bout && b == bout && b >= 0) ||
+                    (scope.kind == ReportScope::Kind::gait && b >= 0 &&
+                     report.bouts[static_cast<std::size_t>(b)].gait == scope.gait);
     if (in) rows.push_back(static_cast<int>(i));
   }
   return rows;

@@ -15,8 +15,8 @@ namespace stridemark::ui {
 struct ReportScope {
   enum class Kind { all, gait, bout };
   Kind kind = Kind::all;
-  std::string gait;             // gait and bout scopes
-  std::int64_t boutStart = 0;   // bout scope: the bout's start frame (its identity)
+  std::string gait;            // gait and bout scopes
+  std::int64_t boutStart = 0;  // bout scope: the bout's start frame (its identity)
   friend bool operator==(const ReportScope&, const ReportScope&) = default;
 };
 

@@ -144,7 +144,12 @@ SummaryView::SummaryView(QWidget* parent) : QTextBrowser(parent) {
 }
 
 void SummaryView::setReport(std::shared_ptr<const analysis::Report> report, const QString& scope) {
-  setHtml(report ? summaryHtml(*report, scope) : QString());
+  // Laying the text out again is most of the dock's cost after an edit (a few ms); one moved
+  // tag in a long trial seldom changes a printed figure, so the same text is not set again.
+  QString html = report ? summaryHtml(*report, scope) : QString();
+  if (html == shown_) return;
+  shown_ = std::move(html);
+  setHtml(shown_);
 }
 
 namespace {
@@ -183,7 +188,8 @@ QString speedText(const analysis::SpeedSummary& v) {
 QString summaryBody(const analysis::Summary& s, const model::LimbSet& limbs) {
   QString html = limbTable(s, limbs);
   if (s.hildebrand)
-    html += QStringLiteral("<p>Gait map point: hind duty factor %1 %, limb phase %2 % — %3 (n = %4)</p>")
+    html += QStringLiteral(
+                "<p>Gait map point: hind duty factor %1 %, limb phase %2 % — %3 (n = %4)</p>")
                 .arg(num(s.hildebrand->dutyFactor * 100, 1), num(s.hildebrand->limbPhase * 100, 1),
                      QString::fromStdString(s.hildebrand->band))
                 .arg(s.hildebrand->n);
@@ -216,7 +222,8 @@ int boutsOf(const analysis::Report& r, const std::string& gait) {
 
 QString SummaryView::summaryHtml(const analysis::Report& r, const QString& scope) {
   QString html;
-  if (!scope.isEmpty()) html += QStringLiteral("<p><b>Showing: %1</b></p>").arg(scope.toHtmlEscaped());
+  if (!scope.isEmpty())
+    html += QStringLiteral("<p><b>Showing: %1</b></p>").arg(scope.toHtmlEscaped());
   // Per gait first (docs/methods.md §11): pooled means of a walk and a trot describe neither.
   for (const auto& gait : analysis::gaitsInOrder(r.bouts)) {
     const auto it = r.byGait.find(gait);
@@ -224,8 +231,9 @@ QString SummaryView::summaryHtml(const analysis::Report& r, const QString& scope
     const int bouts = boutsOf(r, gait);
     html += QStringLiteral("<h3>%1 — %2%3</h3>")
                 .arg(QString::fromStdString(gait), strideCount(it->second.strides),
-                     r.mixedGaits ? QStringLiteral(" in %1 bout%2").arg(bouts).arg(bouts == 1 ? "" : "s")
-                                  : QString());
+                     r.mixedGaits
+                         ? QStringLiteral(" in %1 bout%2").arg(bouts).arg(bouts == 1 ? "" : "s")
+                         : QString());
     html += summaryBody(it->second, r.limbs);
   }
   const analysis::Summary pooled = analysis::trialSummary(r);
@@ -239,18 +247,20 @@ QString SummaryView::summaryHtml(const analysis::Report& r, const QString& scope
                 .arg(strideCount(pooled.strides));
     html += summaryBody(pooled, r.limbs);
   }
-  const bool anySpeed = pooled.speed || std::any_of(r.byGait.begin(), r.byGait.end(), [](const auto& g) {
-                          return g.second.speed.has_value();
-                        });
+  const bool anySpeed =
+      pooled.speed || std::any_of(r.byGait.begin(), r.byGait.end(),
+                                  [](const auto& g) { return g.second.speed.has_value(); });
   if (!anySpeed)
     html += QStringLiteral(
         "<p><i>Enter speed and leg length on the Trial card to get the Froude "
         "number.</i></p>");
-  const auto excluded = std::count_if(r.strides.begin(), r.strides.end(),
-                                      [](const analysis::StrideRecord& s) { return s.excluded.has_value(); });
+  const auto excluded =
+      std::count_if(r.strides.begin(), r.strides.end(),
+                    [](const analysis::StrideRecord& s) { return s.excluded.has_value(); });
   if (excluded > 0)
-    html += QStringLiteral("<p><i>%1 excluded by hand (reasons in the Stride sheet); not in these "
-                           "figures.</i></p>")
+    html += QStringLiteral(
+                "<p><i>%1 excluded by hand (reasons in the Stride sheet); not in these "
+                "figures.</i></p>")
                 .arg(strideCount(static_cast<int>(excluded)));
   return html;
 }

@@ -50,6 +50,9 @@ class SummaryView : public QTextBrowser {
   // Per gait first when the trial has bouts (docs/methods.md §11), then the pooled figures
   // only when gaits are mixed (labelled as such) or no bout was found.
   static QString summaryHtml(const analysis::Report& report, const QString& scope = {});
+
+ private:
+  QString shown_;  // the text set last
 };
 
 }  // namespace stridemark::ui

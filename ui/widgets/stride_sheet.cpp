@@ -26,9 +26,13 @@ QVariant percent(const std::optional<double>& v) {
 
 // The widest text each fixed column shows (a frame number of a long clip, the longest gait and
 // band names, a reason of a few words, elided beyond it with the whole reason in the tooltip).
-const char* const kWidest[Model::kFixedColumns] = {
-    "9999999", "9999999", "99.9999", "999", "transverse gallop",
-    "diagonal-sequence diagonal couplets", "reason of a few words"};
+const char* const kWidest[Model::kFixedColumns] = {"9999999",
+                                                   "9999999",
+                                                   "99.9999",
+                                                   "999",
+                                                   "transverse gallop",
+                                                   "diagonal-sequence diagonal couplets",
+                                                   "reason of a few words"};
 
 }  // namespace
 
@@ -65,7 +69,7 @@ QVariant StrideTableModel::headerData(int section, Qt::Orientation orientation, 
     return rows_ && section < static_cast<int>(rows_->size())
                ? (*rows_)[static_cast<std::size_t>(section)] + 1
                : section + 1;
-  static const char* fixed[kFixedColumns] = {"start frame", "end frame", "stride s", "bout",
+  static const char* fixed[kFixedColumns] = {"start frame", "end frame", "stride s",        "bout",
                                              "gait",        "band",      "excluded because"};
   if (section < kFixedColumns) return tr(fixed[section]);
   const int limb = (section - kFixedColumns) / 2;
@@ -97,9 +101,9 @@ QVariant StrideTableModel::data(const QModelIndex& index, int role) const {
       return italic;
     }
     case Qt::ToolTipRole:
-      return s.excluded ? tr("Excluded from the statistics: %1")
-                              .arg(QString::fromStdString(*s.excluded))
-                        : QVariant();
+      return s.excluded
+                 ? tr("Excluded from the statistics: %1").arg(QString::fromStdString(*s.excluded))
+                 : QVariant();
     case Qt::DisplayRole:
       break;
     default:
@@ -167,12 +171,11 @@ void StrideSheet::fixColumnWidths() {
   const QFontMetrics head(horizontalHeader()->font());
   const int pad = 2 * cell.horizontalAdvance(QLatin1Char('M'));  // margins and the sort arrow
   for (int c = 0; c < columns; ++c) {
-    const QString widest = c < Model::kFixedColumns ? QString::fromLatin1(kWidest[c])
-                                                    : QStringLiteral("100.0");
-    const int text = std::max(cell.horizontalAdvance(widest),
-                              head.horizontalAdvance(model_->headerData(c, Qt::Horizontal,
-                                                                        Qt::DisplayRole)
-                                                         .toString()));
+    const QString widest =
+        c < Model::kFixedColumns ? QString::fromLatin1(kWidest[c]) : QStringLiteral("100.0");
+    const int text = std::max(
+        cell.horizontalAdvance(widest),
+        head.horizontalAdvance(model_->headerData(c, Qt::Horizontal, Qt::DisplayRole).toString()));
     horizontalHeader()->resizeSection(c, text + pad);
   }
 }
@@ -189,8 +192,8 @@ bool StrideSheet::selectedExcluded() const {
 }
 
 bool StrideSheet::selectStride(qint64 frame) {
-  const QModelIndexList hits = proxy_->match(proxy_->index(0, 0), StrideTableModel::kFrameRole,
-                                             frame, 1, Qt::MatchExactly);
+  const QModelIndexList hits =
+      proxy_->match(proxy_->index(0, 0), StrideTableModel::kFrameRole, frame, 1, Qt::MatchExactly);
   if (hits.isEmpty()) return false;
   selectRow(hits.front().row());
   return true;
