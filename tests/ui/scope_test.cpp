@@ -5,12 +5,15 @@
 #include <gtest/gtest.h>
 #include <QApplication>
 #include <QComboBox>
+#include <QDir>
+#include <QDockWidget>
 #include <QImage>
 #include <QLineEdit>
 #include <QPainter>
 #include <QPushButton>
 #include <QTest>
 
+#include "analysis/bouts.h"
 #include "synth/gait.h"
 #include "synth/timeline.h"
 #include "tests/ui/test_support.h"
@@ -224,6 +227,30 @@ TEST(DeskScope, ExcludingAStrideInTheSheetIsUndoableAndChangesTheSummary) {
   QTest::mouseClick(panel->includeButton(), Qt::LeftButton);
   EXPECT_TRUE(desk.w.document()->annotation().excluded.empty());
   EXPECT_EQ(desk.settle().byGait.at("trot").strides, trotStrides);
+}
+
+TEST(DeskScope, ScreenshotsOfTheWalkThenTrotSample) {
+  // For people to look at (tests/ui/screenshots): the desk on samples/dog-rehab-treadmill with
+  // the per-gait Summary and Gait map, in scope All and in scope trot. Checked here only that
+  // the sample reads walk then trot and that each picture was written.
+  Desk desk;
+  ASSERT_TRUE(desk.w.openProject(QStringLiteral(STRIDEMARK_SOURCE_DIR) +
+                                 QStringLiteral("/samples/dog-rehab-treadmill/trial.stridemark")));
+  desk.w.resize(1600, 1000);
+  const analysis::Report& r = desk.settle();
+  ASSERT_TRUE(r.mixedGaits);
+  EXPECT_EQ(analysis::gaitsInOrder(r.bouts), (std::vector<std::string>{"walk", "trot"}));
+  for (auto* dock : desk.w.findChildren<QDockWidget*>())
+    if (dock->objectName() == QStringLiteral("dockSummary")) dock->raise();
+  test::waitUntil([] { return false; }, 200);
+  const QString dir = test::screenshotDir();
+  QDir().mkpath(dir);
+  EXPECT_TRUE(desk.w.grab().save(dir + QStringLiteral("/scope-all.png")));
+  EXPECT_TRUE(desk.gaitMap->grab().save(dir + QStringLiteral("/scope-all-gait-map.png")));
+  EXPECT_TRUE(desk.summary->grab().save(dir + QStringLiteral("/scope-all-summary.png")));
+  desk.w.scopeSelector()->setCurrentIndex(desk.scopeIndex(QStringLiteral("trot, every bout")));
+  test::waitUntil([] { return false; }, 200);
+  EXPECT_TRUE(desk.w.grab().save(dir + QStringLiteral("/scope-trot.png")));
 }
 
 }  // namespace

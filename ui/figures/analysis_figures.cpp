@@ -42,6 +42,14 @@ void drawMarker(QPainter& p, QPointF c, double r, const QColor& fill, const QCol
   p.drawEllipse(c, r, r);
 }
 
+// The band's short name as the map's top row prints it (the Summary gives the whole name).
+QString shortBandName(double limbPhase) {
+  const double x = limbPhase - std::floor(limbPhase);
+  for (const Band& b : kBands)
+    if (x >= b.from && x < b.to) return QString::fromLatin1(b.shortName);
+  return QStringLiteral("P");
+}
+
 // A gait's mean point on the Gait map.
 struct MeanPoint {
   QString name;
@@ -238,7 +246,7 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
     const QPointF c = px(m.point.limbPhase, std::clamp(m.point.dutyFactor, 0.0, 1.0));
     p.setPen(style.foreground);
     const QString text = QStringLiteral("%1 · %2 · n = %3")
-                             .arg(m.name, QString::fromStdString(m.point.band))
+                             .arg(m.name, shortBandName(m.point.limbPhase))
                              .arg(m.point.n);
     avoid.push_back(drawMeanLabel(p, plot, c, fp, text, avoid));
   }
