@@ -8,7 +8,8 @@
 // main_window_open.cpp and main_window_save.cpp (file and session: open, recover, save,
 // journal), main_window_proxy.cpp (stepping proxy status), main_window_transport.cpp (play,
 // step, seek), main_window_tagging.cpp (tag keys, hidden spans), main_window_display.cpp
-// (report, title, status), main_window_export.cpp and main_window_settings.cpp.
+// (report, title, status), main_window_scope.cpp (the Scope toolbar), main_window_export.cpp and
+// main_window_settings.cpp.
 #include <QElapsedTimer>
 #include <QMainWindow>
 #include <QStringList>
@@ -23,10 +24,12 @@
 #include "ui/document/project_document.h"
 #include "ui/keys/key_bindings.h"
 #include "ui/session/analysis_runner.h"
+#include "ui/session/report_scope.h"
 #include "ui/session/video_source.h"
 #include "ui/widgets/tag_keys.h"
 
 class QAction;
+class QComboBox;
 class QLabel;
 class QMenu;
 class QProgressBar;
@@ -37,6 +40,7 @@ namespace stridemark::ui {
 class Viewer;
 class FootfallLanes;
 class StrideSheet;
+class StrideSheetPanel;
 class FigureView;
 class ChecksList;
 class SummaryView;
@@ -97,6 +101,12 @@ class MainWindow : public QMainWindow {
   // Settings > Frame cache: the budget for decoded frames, saved, applied to the open video at
   // once, and the stepping proxy offered if the new budget is too small for its keyframe spacing.
   void setFrameCacheBudget(std::size_t bytes);
+  // What the Summary dock, Gait map, Phase dial and Stride sheet show (the Scope toolbar):
+  // All by default; a scope the newest report no longer has falls back to All.
+  const ReportScope& scope() const { return scope_; }
+  void setScope(const ReportScope& scope);
+  QComboBox* scopeSelector() const { return scopeBox_; }
+  StrideSheetPanel* strideSheetPanel() const { return sheetPanel_; }
   QPushButton* proxyCancelButton() const { return proxyCancel_; }
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
 
@@ -161,6 +171,10 @@ class MainWindow : public QMainWindow {
   void onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision);
   void updateTitle();
   void updateStatus();
+  // Scope (main_window_scope.cpp).
+  void buildScopeBar();
+  void updateScopeChoices();
+  void showScope();
   // Export (main_window_export.cpp). File > Export…: saves first when needed, then opens the
   // Export dialog on the project file.
   void exportFigures();
@@ -185,6 +199,10 @@ class MainWindow : public QMainWindow {
   Viewer* viewer_ = nullptr;
   FootfallLanes* lanes_ = nullptr;
   StrideSheet* sheet_ = nullptr;
+  StrideSheetPanel* sheetPanel_ = nullptr;
+  QComboBox* scopeBox_ = nullptr;
+  ReportScope scope_;
+  std::vector<ReportScope> scopes_;  // the selector's entries, in order
   FigureView* gaitMap_ = nullptr;
   FigureView* phaseDial_ = nullptr;
   FigureView* dutyPlot_ = nullptr;

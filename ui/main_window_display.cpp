@@ -29,12 +29,10 @@ void MainWindow::onReport(std::shared_ptr<const analysis::Report> report, std::u
   if (revision < shownRevision_) return;  // an older run finished late
   shownRevision_ = revision;
   report_ = report;
-  sheet_->setReport(report);
-  gaitMap_->setReport(report);
-  phaseDial_->setReport(report);
+  updateScopeChoices();
+  showScope();  // Summary, Gait map, Phase dial and Stride sheet
   dutyPlot_->setReport(report);
   checks_->setReport(report, !doc_.annotation().events.empty());
-  summary_->setReport(report);
 }
 
 void MainWindow::updateTitle() {

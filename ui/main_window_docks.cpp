@@ -48,8 +48,17 @@ void MainWindow::buildDocks() {
     addDockWidget(area, d);
     return d;
   };
-  sheet_ = new StrideSheet;
+  buildScopeBar();
+  sheetPanel_ = new StrideSheetPanel;
+  sheet_ = sheetPanel_->sheet();
   connect(sheet_, &StrideSheet::seekRequested, this, [this](qint64 f) { seek(f); });
+  // The document's undo commands for excluding strides (ProjectDocument::excludeStride).
+  connect(sheetPanel_, &StrideSheetPanel::excludeRequested, this,
+          [this](qint64 start, const QString& reason) {
+            doc_.excludeStride(start, reason.toStdString());
+          });
+  connect(sheetPanel_, &StrideSheetPanel::includeRequested, this,
+          [this](qint64 start) { doc_.includeStride(start); });
   gaitMap_ = new FigureView(tr("Gait map"), figures::paintGaitMap);
   phaseDial_ = new FigureView(tr("Phase dial"), figures::paintPhaseDial);
   dutyPlot_ = new FigureView(tr("Duty factor per stride"), figures::paintStrideDutyPlot);
@@ -74,8 +83,8 @@ void MainWindow::buildDocks() {
   tabifyDockWidget(pd, sm);
   pd->raise();
   // Bottom: Stride sheet with the duty plot, Checks with the edit history.
-  auto* ss =
-      dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheet_, Qt::BottomDockWidgetArea);
+  auto* ss = dock(tr("Stride sheet"), QStringLiteral("dockStrideSheet"), sheetPanel_,
+                  Qt::BottomDockWidgetArea);
   auto* ck =
       dock(tr("Checks"), QStringLiteral("dockChecks"), checksPanel, Qt::BottomDockWidgetArea);
   auto* dp = dock(tr("Duty per stride"), QStringLiteral("dockDutyPlot"), dutyPlot_,

@@ -1,5 +1,7 @@
 #include "analysis/bouts.h"
 
+#include <algorithm>
+
 namespace stridemark::analysis {
 namespace {
 
@@ -102,6 +104,13 @@ std::vector<int> summarisedMembers(const std::vector<StrideRecord>& strides, con
     if (s.gait == bout.gait && s.steady && !s.excluded) members.push_back(i);
   }
   return members;
+}
+
+std::vector<std::string> gaitsInOrder(const std::vector<Bout>& bouts) {
+  std::vector<std::string> gaits;
+  for (const Bout& bout : bouts)
+    if (std::find(gaits.begin(), gaits.end(), bout.gait) == gaits.end()) gaits.push_back(bout.gait);
+  return gaits;
 }
 
 std::vector<Transition> findTransitions(const std::vector<Bout>& bouts,

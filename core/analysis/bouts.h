@@ -3,6 +3,7 @@
 // Unclassified strides inside a run do not end it; a gait seen in fewer strides between two
 // bouts is no bout, and those strides, like unsteady strides where one gait meets another,
 // are labelled "transition". Bout summaries are filled by the caller.
+#include <string>
 #include <vector>
 
 #include "analysis/report.h"
@@ -14,6 +15,9 @@ std::vector<Bout> findBouts(std::vector<StrideRecord>& strides, int minStrides =
 
 // The strides of a bout that its statistics use: steady, classified and not excluded.
 std::vector<int> summarisedMembers(const std::vector<StrideRecord>& strides, const Bout& bout);
+
+// Gaits in the order their first bout appears (walk before trot in a walk→trot trial).
+std::vector<std::string> gaitsInOrder(const std::vector<Bout>& bouts);
 
 // A transition joins two bouts of different gaits when only strides lie between them.
 std::vector<Transition> findTransitions(const std::vector<Bout>& bouts,

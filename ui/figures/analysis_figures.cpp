@@ -6,6 +6,9 @@
 #include <array>
 #include <cmath>
 #include <numbers>
+#include <vector>
+
+#include "analysis/bouts.h"
 
 namespace stridemark::ui::figures {
 
@@ -39,10 +42,39 @@ void drawMarker(QPainter& p, QPointF c, double r, const QColor& fill, const QCol
   p.drawEllipse(c, r, r);
 }
 
+// The band's short name as the map's top row prints it (the Summary gives the whole name).
+QString shortBandName(double limbPhase) {
+  const double x = limbPhase - std::floor(limbPhase);
+  for (const Band& b : kBands)
+    if (x >= b.from && x < b.to) return QString::fromLatin1(b.shortName);
+  return QStringLiteral("P");
+}
+
+// A gait's mean point on the Gait map.
+struct MeanPoint {
+  QString name;
+  analysis::HildebrandSummary point;
+  QColor colour;
+};
+
+// Okabe & Ito (2008) colours for gaits in the order they first appear, starting away from the
+// first limb colours' orange so a gait's point does not read as a limb.
+QColor gaitColour(int index) {
+  static const std::array<QColor, 5> colours{
+      QColor(0xd5, 0x5e, 0x00),  // vermillion
+      QColor(0x00, 0x72, 0xb2),  // blue
+      QColor(0x00, 0x9e, 0x73),  // bluish green
+      QColor(0xcc, 0x79, 0xa7),  // reddish purple
+      QColor(0x56, 0xb4, 0xe9),  // sky blue
+  };
+  return colours[static_cast<std::size_t>(std::max(index, 0)) % colours.size()];
+}
+
 // The mean's label goes beside its marker, on whichever side keeps it inside the plot and
 // off the 50 % line and the walking/running labels; elided when the plot is too narrow.
-void drawMeanLabel(QPainter& p, const QRectF& plot, QPointF c, double fp, const QString& text,
-                   std::initializer_list<QRectF> avoid) {
+// Returns where the label went, for the next label to avoid.
+QRectF drawMeanLabel(QPainter& p, const QRectF& plot, QPointF c, double fp, const QString& text,
+                     const std::vector<QRectF>& avoid) {
   const QFontMetricsF fm(p.font());
   const double pad = fp * 0.3;
   const QString shown = fm.elidedText(text, Qt::ElideRight, plot.width() - 2 * pad);
@@ -76,6 +108,7 @@ void drawMeanLabel(QPainter& p, const QRectF& plot, QPointF c, double fp, const 
   p.setClipRect(plot);
   p.drawText(chosen, Qt::AlignLeft | Qt::AlignVCenter, shown);
   p.restore();
+  return chosen;
 }
 
 // Box for the label of quarter `q` (0 %, 25 %, 50 %, 75 %) just outside the dial's edge.
@@ -163,29 +196,59 @@ void paintGaitMap(QPainter& p, const QRectF& rect, const analysis::Report& repor
              Qt::AlignLeft | Qt::AlignVCenter, QStringLiteral("walking ↑"));
   p.drawText(QRectF(plot.left() + 3, px(0, 0.5).y() + fp * 0.1, plot.width() / 2, fp * 1.1),
              Qt::AlignLeft | Qt::AlignVCenter, QStringLiteral("running ↓"));
-  // Strides.
+  // Strides, coloured by their bout's gait when the trial has more than one gait; a stride a
+  // person excluded is a ring, so it stays visible but reads as left out.
+  const std::vector<std::string> gaits = analysis::gaitsInOrder(report.bouts);
+  auto gaitIndex = [&](const std::string& gait) {
+    return static_cast<int>(std::find(gaits.begin(), gaits.end(), gait) - gaits.begin());
+  };
   int plotted = 0;
+  p.setPen(QPen(style.foreground, 1));
   for (const auto& s : report.strides) {
     if (!s.limbPhase || !s.hindDutyFactor) continue;
     QColor fill = style.foreground;
+    if (gaits.size() > 1)
+      fill = s.bout >= 0
+                 ? gaitColour(gaitIndex(report.bouts[static_cast<std::size_t>(s.bout)].gait))
+                 : style.muted;
     fill.setAlphaF(s.symmetrical ? 0.75 : 0.25);
-    drawMarker(p, px(*s.limbPhase, std::clamp(*s.hindDutyFactor, 0.0, 1.0)), fp * 0.35, fill,
-               style.foreground);
+    if (s.excluded) fill = Qt::transparent;
+    p.setBrush(fill);
+    const double r = fp * 0.35;
+    p.drawEllipse(px(*s.limbPhase, std::clamp(*s.hindDutyFactor, 0.0, 1.0)), r, r);
     ++plotted;
   }
-  if (report.hildebrand && std::isfinite(report.hildebrand->limbPhase) &&
-      std::isfinite(report.hildebrand->dutyFactor)) {
-    const QPointF c = px(report.hildebrand->limbPhase, report.hildebrand->dutyFactor);
-    drawMarker(p, c, fp * 0.6, QColor(0xd5, 0x5e, 0x00), style.foreground);
+  // Mean points: one per gait (docs/methods.md §11) labelled with the symmetrical strides it
+  // averages, so a walk→trot trial shows two points and none in a band no stride was in; the
+  // pooled mean only when no bout was found.
+  std::vector<MeanPoint> means;
+  for (const auto& gait : gaits) {
+    const auto it = report.byGait.find(gait);
+    if (it != report.byGait.end() && it->second.hildebrand)
+      means.push_back(
+          {QString::fromStdString(gait), *it->second.hildebrand, gaitColour(gaitIndex(gait))});
+  }
+  if (report.byGait.empty() && report.hildebrand)
+    means.push_back({QStringLiteral("mean"), *report.hildebrand, QColor(0xd5, 0x5e, 0x00)});
+  const QRectF keepOut(QPointF(plot.left(), px(0, 0.5).y() - fp * 1.3),
+                       QPointF(plot.left() + fp * 6, px(0, 0.5).y() + fp * 1.3));
+  std::vector<QRectF> avoid{
+      keepOut, QRectF(px(0, 0.5) - QPointF(0, fp * 0.45), px(1, 0.5) + QPointF(0, fp * 0.45))};
+  p.setFont(style.font(-1, true));
+  for (const MeanPoint& m : means) {
+    if (!std::isfinite(m.point.limbPhase) || !std::isfinite(m.point.dutyFactor)) continue;
+    const QPointF c = px(m.point.limbPhase, std::clamp(m.point.dutyFactor, 0.0, 1.0));
+    drawMarker(p, c, fp * 0.6, m.colour, style.foreground);
+    avoid.push_back(QRectF(c - QPointF(fp * 0.6, fp * 0.6), c + QPointF(fp * 0.6, fp * 0.6)));
+  }
+  for (const MeanPoint& m : means) {
+    if (!std::isfinite(m.point.limbPhase) || !std::isfinite(m.point.dutyFactor)) continue;
+    const QPointF c = px(m.point.limbPhase, std::clamp(m.point.dutyFactor, 0.0, 1.0));
     p.setPen(style.foreground);
-    p.setFont(style.font(-1, true));
-    const QString text =
-        QStringLiteral("mean · %1").arg(QString::fromStdString(report.hildebrand->band));
-    const QRectF keepOut(QPointF(plot.left(), px(0, 0.5).y() - fp * 1.3),
-                         QPointF(plot.left() + fp * 6, px(0, 0.5).y() + fp * 1.3));
-    drawMeanLabel(
-        p, plot, c, fp, text,
-        {keepOut, QRectF(px(0, 0.5) - QPointF(0, fp * 0.45), px(1, 0.5) + QPointF(0, fp * 0.45))});
+    const QString text = QStringLiteral("%1 · %2 · n = %3")
+                             .arg(m.name, shortBandName(m.point.limbPhase))
+                             .arg(m.point.n);
+    avoid.push_back(drawMeanLabel(p, plot, c, fp, text, avoid));
   }
   if (plotted == 0) {
     // Above the walking label, so the message never runs over the 50 % line's labels.

@@ -17,6 +17,7 @@ class FigureView : public QWidget {
                                    const figures::FigureStyle&)>;
   FigureView(const QString& accessibleName, Paint paint, QWidget* parent = nullptr);
   void setReport(std::shared_ptr<const analysis::Report> report);
+  const std::shared_ptr<const analysis::Report>& report() const { return report_; }
   QSize sizeHint() const override { return {360, 300}; }
 
  protected:

@@ -2,7 +2,11 @@
 
 #include <QAction>
 #include <QMenu>
+#include <algorithm>
 #include <cmath>
+
+#include "analysis/bouts.h"
+#include "analysis/summary.h"
 
 namespace stridemark::ui {
 
@@ -139,64 +143,125 @@ SummaryView::SummaryView(QWidget* parent) : QTextBrowser(parent) {
   setOpenLinks(false);
 }
 
-void SummaryView::setReport(std::shared_ptr<const analysis::Report> report) {
-  setHtml(report ? summaryHtml(*report) : QString());
+void SummaryView::setReport(std::shared_ptr<const analysis::Report> report, const QString& scope) {
+  // Laying the text out again is most of the dock's cost after an edit (a few ms); one moved
+  // tag in a long trial seldom changes a printed figure, so the same text is not set again.
+  QString html = report ? summaryHtml(*report, scope) : QString();
+  if (html == shown_) return;
+  shown_ = std::move(html);
+  setHtml(shown_);
 }
 
-QString SummaryView::summaryHtml(const analysis::Report& r) {
+namespace {
+
+QString limbTable(const analysis::Summary& s, const model::LimbSet& limbs) {
   QString html = QStringLiteral(
-      "<h4>Per limb</h4><table cellspacing=4><tr><th align=left>limb</th>"
+      "<table cellspacing=4><tr><th align=left>limb</th>"
       "<th>strides</th><th>stride s</th><th>stance s</th>"
       "<th>swing s</th><th>duty %</th><th>phase %</th></tr>");
-  for (int i = 0; i < r.limbs.size(); ++i) {
-    const auto& s = r.limbSummary.size() > static_cast<std::size_t>(i)
-                        ? r.limbSummary[static_cast<std::size_t>(i)]
-                        : analysis::LimbSummary{};
-    const auto& ph = r.phase.size() > static_cast<std::size_t>(i)
-                         ? r.phase[static_cast<std::size_t>(i)]
-                         : analysis::PhaseSummary{};
+  for (int i = 0; i < limbs.size(); ++i) {
+    const auto at = static_cast<std::size_t>(i);
+    const auto& l = s.limbs.size() > at ? s.limbs[at] : analysis::LimbSummary{};
+    const auto& ph = s.phase.size() > at ? s.phase[at] : analysis::PhaseSummary{};
     html += QStringLiteral(
                 "<tr><td><b>%1</b></td><td align=right>%2</td><td align=right>%3</td>"
                 "<td align=right>%4</td><td align=right>%5</td><td align=right>%6</td>"
                 "<td align=right>%7 (r %8)</td></tr>")
-                .arg(QString::fromStdString(r.limbs.label(i)))
-                .arg(s.strides)
-                .arg(stat(s.strideS, 1, 3), stat(s.stanceS, 1, 3), stat(s.swingS, 1, 3),
-                     stat(s.dutyFactor, 100, 1), num(ph.mean * 100, 1), num(ph.r, 2));
+                .arg(QString::fromStdString(limbs.label(i)))
+                .arg(l.strides)
+                .arg(stat(l.strideS, 1, 3), stat(l.stanceS, 1, 3), stat(l.swingS, 1, 3),
+                     stat(l.dutyFactor, 100, 1), num(ph.mean * 100, 1), num(ph.r, 2));
   }
-  html += QStringLiteral("</table>");
-  if (r.hildebrand) {
+  return html + QStringLiteral("</table>");
+}
+
+QString speedText(const analysis::SpeedSummary& v) {
+  QString text = QStringLiteral("<p>Speed %1 m/s; stride length %2 m")
+                     .arg(num(v.ms, 2), num(v.strideLengthM, 2));
+  if (v.froude) text += QStringLiteral("; Froude number %1").arg(num(*v.froude, 3));
+  if (v.relativeStrideLength)
+    text += QStringLiteral("; relative stride length %1").arg(num(*v.relativeStrideLength, 2));
+  return text + QStringLiteral("</p>");
+}
+
+// Every figure of one summary (a gait's, a bout's or the pooled trial's), in the same order.
+QString summaryBody(const analysis::Summary& s, const model::LimbSet& limbs) {
+  QString html = limbTable(s, limbs);
+  if (s.hildebrand)
     html += QStringLiteral(
-                "<h4>Gait map point</h4><p>hind duty factor %1 %, limb phase %2 % — "
-                "%3</p>")
-                .arg(num(r.hildebrand->dutyFactor * 100, 1), num(r.hildebrand->limbPhase * 100, 1),
-                     QString::fromStdString(r.hildebrand->band));
-  }
-  QString sym = symmetryRows(QStringLiteral("stance"), r.symmetry.stanceS) +
-                symmetryRows(QStringLiteral("swing"), r.symmetry.swingS) +
-                symmetryRows(QStringLiteral("duty factor"), r.symmetry.dutyFactor);
+                "<p>Gait map point: hind duty factor %1 %, limb phase %2 % — %3 (n = %4)</p>")
+                .arg(num(s.hildebrand->dutyFactor * 100, 1), num(s.hildebrand->limbPhase * 100, 1),
+                     QString::fromStdString(s.hildebrand->band))
+                .arg(s.hildebrand->n);
+  const QString sym = symmetryRows(QStringLiteral("stance"), s.symmetry.stanceS) +
+                      symmetryRows(QStringLiteral("swing"), s.symmetry.swingS) +
+                      symmetryRows(QStringLiteral("duty factor"), s.symmetry.dutyFactor);
   if (!sym.isEmpty())
-    html += QStringLiteral("<h4>Symmetry index (right vs left)</h4><table cellspacing=4>%1</table>")
+    html += QStringLiteral("<p>Symmetry index (right vs left)</p><table cellspacing=4>%1</table>")
                 .arg(sym);
-  if (r.speed) {
-    html += QStringLiteral("<h4>Speed</h4><p>%1 m/s; stride length %2 m")
-                .arg(num(r.speed->ms, 2), num(r.speed->strideLengthM, 2));
-    if (r.speed->froude) html += QStringLiteral("; Froude number %1").arg(num(*r.speed->froude, 3));
-    if (r.speed->relativeStrideLength)
-      html +=
-          QStringLiteral("; relative stride length %1").arg(num(*r.speed->relativeStrideLength, 2));
+  if (s.speed) html += speedText(*s.speed);
+  if (!s.support.empty()) {
+    html += QStringLiteral("<p>Support: ");
+    for (std::size_t k = 0; k < s.support.size(); ++k)
+      html += QStringLiteral("%1 limbs %2 %&nbsp;&nbsp; ").arg(k).arg(num(s.support[k] * 100, 1));
     html += QStringLiteral("</p>");
-  } else {
+  }
+  return html;
+}
+
+QString strideCount(int n) {
+  return n == 1 ? QStringLiteral("1 stride") : QStringLiteral("%1 strides").arg(n);
+}
+
+int boutsOf(const analysis::Report& r, const std::string& gait) {
+  return static_cast<int>(std::count_if(r.bouts.begin(), r.bouts.end(),
+                                        [&](const analysis::Bout& b) { return b.gait == gait; }));
+}
+
+}  // namespace
+
+QString SummaryView::summaryHtml(const analysis::Report& r, const QString& scope) {
+  QString html;
+  if (!scope.isEmpty())
+    html += QStringLiteral("<p><b>Showing: %1</b></p>").arg(scope.toHtmlEscaped());
+  // Per gait first (docs/methods.md §11): pooled means of a walk and a trot describe neither.
+  for (const auto& gait : analysis::gaitsInOrder(r.bouts)) {
+    const auto it = r.byGait.find(gait);
+    if (it == r.byGait.end()) continue;
+    const int bouts = boutsOf(r, gait);
+    html += QStringLiteral("<h3>%1 — %2%3</h3>")
+                .arg(QString::fromStdString(gait), strideCount(it->second.strides),
+                     r.mixedGaits
+                         ? QStringLiteral(" in %1 bout%2").arg(bouts).arg(bouts == 1 ? "" : "s")
+                         : QString());
+    html += summaryBody(it->second, r.limbs);
+  }
+  const analysis::Summary pooled = analysis::trialSummary(r);
+  if (r.byGait.empty()) {
+    html += QStringLiteral("<h3>All strides — %1</h3>").arg(strideCount(pooled.strides));
+    html += summaryBody(pooled, r.limbs);
+  } else if (r.mixedGaits) {
+    html += QStringLiteral(
+                "<h3>All strides pooled — %1</h3><p><i>Mixed gaits: these means mix every "
+                "gait above; read the per-gait figures.</i></p>")
+                .arg(strideCount(pooled.strides));
+    html += summaryBody(pooled, r.limbs);
+  }
+  const bool anySpeed =
+      pooled.speed || std::any_of(r.byGait.begin(), r.byGait.end(),
+                                  [](const auto& g) { return g.second.speed.has_value(); });
+  if (!anySpeed)
     html += QStringLiteral(
         "<p><i>Enter speed and leg length on the Trial card to get the Froude "
         "number.</i></p>");
-  }
-  if (!r.support.empty()) {
-    html += QStringLiteral("<h4>Support</h4><p>");
-    for (std::size_t k = 0; k < r.support.size(); ++k)
-      html += QStringLiteral("%1 limbs: %2 %&nbsp;&nbsp; ").arg(k).arg(num(r.support[k] * 100, 1));
-    html += QStringLiteral("</p>");
-  }
+  const auto excluded =
+      std::count_if(r.strides.begin(), r.strides.end(),
+                    [](const analysis::StrideRecord& s) { return s.excluded.has_value(); });
+  if (excluded > 0)
+    html += QStringLiteral(
+                "<p><i>%1 excluded by hand (reasons in the Stride sheet); not in these "
+                "figures.</i></p>")
+                .arg(strideCount(static_cast<int>(excluded)));
   return html;
 }
 

@@ -1,6 +1,6 @@
 #pragma once
-// Checks (annotation problems, click to jump) and the summary panel (per-limb means, Hildebrand
-// point, symmetry indices, speed and Froude number).
+// Checks (annotation problems, click to jump) and the summary panel (per gait, then pooled:
+// per-limb means, Hildebrand point, symmetry indices, speed and Froude number).
 #include <QListWidget>
 #include <QTextBrowser>
 #include <memory>
@@ -44,8 +44,15 @@ class SummaryView : public QTextBrowser {
   Q_OBJECT
  public:
   explicit SummaryView(QWidget* parent = nullptr);
-  void setReport(std::shared_ptr<const analysis::Report> report);
-  static QString summaryHtml(const analysis::Report& report);
+  // `scope`: what the report covers when it is not the whole trial (the scope selector's
+  // text), shown on top.
+  void setReport(std::shared_ptr<const analysis::Report> report, const QString& scope = {});
+  // Per gait first when the trial has bouts (docs/methods.md §11), then the pooled figures
+  // only when gaits are mixed (labelled as such) or no bout was found.
+  static QString summaryHtml(const analysis::Report& report, const QString& scope = {});
+
+ private:
+  QString shown_;  // the text set last
 };
 
 }  // namespace stridemark::ui
