@@ -96,6 +96,46 @@ void checkStrideTimes(const Report& report, std::vector<Problem>& problems) {
            "(Trial card, or --fps)"});
 }
 
+bool hiddenFoot(const StrideRecord& s) {
+  return s.note && s.note->find(" is hidden at ") != std::string::npos;
+}
+
+std::string unclassifiedAdvice(const StrideRecord& s, const model::LimbSet& limbs) {
+  if (!s.incompleteLimb) return "check the tags of this stride";
+  const std::string& label = limbs.label(*s.incompleteLimb);
+  if (s.touchdownSlipped)
+    return "check " + label + "'s tags here: a touchdown may be missed or extra, or its cycle " +
+           "changed length (a change of speed)";
+  if (hiddenFoot(s)) return "tag the foot where it can be seen, or leave the stride out";
+  return "tag the missing event, or leave the stride out";
+}
+
+// A problem already points at this limb near the stride (a missing tag, a suspicious cycle).
+// A hidden foot always gets its own: the person must decide what it did there.
+bool alreadyExplained(const StrideRecord& s, const std::vector<Problem>& problems) {
+  if (hiddenFoot(s)) return false;
+  const std::int64_t span = s.endFrame - s.startFrame;
+  return std::any_of(problems.begin(), problems.end(), [&](const Problem& p) {
+    return p.limb && p.limb == s.incompleteLimb && p.frame >= s.startFrame - span &&
+           p.frame <= s.endFrame + span;
+  });
+}
+
+// Every stride left unclassified once the bouts are known says why, with the limb, in
+// `problems` (docs/methods.md §1.5), unless a problem about that limb there says it already
+// or the limb's tags simply begin or end inside it.
+void explainUnclassified(const Report& report, std::vector<Problem>& problems) {
+  std::vector<Problem> added;
+  for (const StrideRecord& s : report.strides) {
+    if (s.gait != "unclassified" || s.cutByTagEnds || alreadyExplained(s, problems)) continue;
+    added.push_back({s.startFrame, s.incompleteLimb,
+                     "stride " + std::to_string(s.startFrame) + "-" + std::to_string(s.endFrame) +
+                         " is unclassified: " + s.note.value_or("its phases fit no gait") + " - " +
+                         unclassifiedAdvice(s, report.limbs)});
+  }
+  problems.insert(problems.end(), added.begin(), added.end());
+}
+
 void sortProblems(std::vector<Problem>& problems) {
   std::stable_sort(problems.begin(), problems.end(), [](const Problem& a, const Problem& b) {
     if (a.frame != b.frame) return a.frame < b.frame;
@@ -145,8 +185,8 @@ std::map<std::string, Summaries> summariseBouts(Report& report, const SummaryInp
   for (auto& [gait, all] : members) {
     const auto single = std::find_if(report.bouts.begin(), report.bouts.end(),
                                      [&](const Bout& b) { return b.gait == gait; });
-    report.byGait[gait] = boutsOf[gait] == 1 ? single->summary
-                                             : summariseStrides(report.strides, all, in);
+    report.byGait[gait] =
+        boutsOf[gait] == 1 ? single->summary : summariseStrides(report.strides, all, in);
     out[gait] = {std::move(all), &report.byGait[gait]};
   }
   report.mixedGaits = report.byGait.size() > 1;
@@ -202,14 +242,14 @@ Report analyse(const model::Annotation& annotation, const AnalysisOptions& optio
   CycleScan scan = scanCycles(annotation);
   checkTracks(annotation, reference, scan);
   const SupportTimeline support(annotation.limbs, scan.tracks);
-  report.strides =
-      buildStrides(annotation, reference, scan, support, strideSettings(options), scan.problems);
+  report.strides = buildStrides(annotation, reference, scan, support, strideSettings(options));
   report.cycles = allCycles(scan);
   checkStrideTimes(report, scan.problems);
 
   markExclusions(annotation, report.strides);
   report.bouts = findBouts(report.strides, options.minBoutStrides);
   report.transitions = findTransitions(report.bouts, report.strides);
+  explainUnclassified(report, scan.problems);
   const SummaryInputs in{annotation.limbs, annotation.captureRate, reference,
                          speedSchedule(options), options.legLengthM};
   const auto byGait = summariseBouts(report, in);

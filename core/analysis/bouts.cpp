@@ -63,6 +63,18 @@ void trimUnsteadyEdges(std::vector<StrideRecord>& strides, std::vector<Run>& bou
   }
 }
 
+// A stride between bouts of two gaits that is incomplete only because a limb's touchdown
+// slipped into or out of its window (the cycles change length there) is a transition too.
+void labelSlippedBetween(std::vector<StrideRecord>& strides, const std::vector<Run>& bouts) {
+  for (std::size_t b = 0; b + 1 < bouts.size(); ++b) {
+    const std::size_t last = bouts[b].members.back(), next = bouts[b + 1].members.front();
+    if (bouts[b].gait == bouts[b + 1].gait || !joined(strides, last, next)) continue;
+    for (std::size_t i = last + 1; i < next; ++i)
+      if (strides[i].gait == "unclassified" && strides[i].touchdownSlipped)
+        strides[i].gait = "transition";
+  }
+}
+
 }  // namespace
 
 std::vector<Bout> findBouts(std::vector<StrideRecord>& strides, int minStrides) {
@@ -88,6 +100,7 @@ std::vector<Bout> findBouts(std::vector<StrideRecord>& strides, int minStrides) 
       for (const std::size_t i : runs[r].members) strides[i].gait = "transition";
   }
   trimUnsteadyEdges(strides, kept);
+  labelSlippedBetween(strides, kept);
   std::vector<Bout> bouts;
   for (const Run& run : kept) {
     bouts.push_back(boutOf(strides, run));

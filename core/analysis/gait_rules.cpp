@@ -68,6 +68,10 @@ void labelQuadrupedStride(StrideRecord& s, const QuadrupedLimbs& limbs, double m
     return;
   }
   s.gait = lags.gait;
+  if (s.gait == "unclassified")
+    s.note =
+        "the forefeet land together while the hindfeet land apart, which no gait of "
+        "docs/methods.md §3.1 does";
   s.lead = lags.lead;
   s.hindLead = lags.hindLead;
 }

@@ -66,7 +66,12 @@ struct StrideRecord {
   // cycle is tagged; steady: every limb's own cycle is within the tolerance of this stride.
   bool complete = false;
   bool steady = true;
-  std::optional<std::string> note;       // why the stride is unclassified or left out of summaries
+  std::optional<std::string> note;    // why the stride is unclassified or left out of summaries
+  std::optional<int> incompleteLimb;  // the limb the note of an incomplete stride is about
+  // That limb lands 0 or 2 times in the window although its tags are whole: its cycle changed
+  // length here (a change of speed or gait), or a tag is missed or extra.
+  bool touchdownSlipped = false;
+  bool cutByTagEnds = false;  // the limb's tags begin or end inside the stride (not a mistake)
   std::optional<std::string> excluded;   // a person's reason for leaving it out of statistics
   int bout = -1;                         // index into Report::bouts, -1 when in none
   bool aerial = false;                   // a whole-body suspension inside the stride

@@ -53,15 +53,14 @@ class StrideBuilder {
         hidden_[static_cast<std::size_t>(h.limb)].push_back(h);
   }
 
-  // `problem` gets what makes the stride incomplete, when a person can fix it.
-  StrideRecord build(const LimbCycle& reference, std::optional<Problem>& problem) {
+  StrideRecord build(const LimbCycle& reference) {
     StrideRecord s;
     s.startFrame = reference.touchdown;
     s.endFrame = reference.nextTouchdown;
     s.durationS = framesToSeconds(reference.strideFrames(), fps_);
     fillLimbs(s);
     fillSupport(s);  // the labels read the suspension
-    problem = checkComplete(s);
+    checkComplete(s);
     checkSteady(s);
     GaitTolerances tol = settings_.tolerances;
     const double frames = static_cast<double>(reference.strideFrames());
@@ -171,25 +170,29 @@ class StrideBuilder {
 
   // Complete (docs/methods.md §1.5): each limb lands once in the window, its own cycle from
   // there is tagged to the next touchdown with its lift-off, and it is never hidden there.
-  std::optional<Problem> checkComplete(StrideRecord& s) const {
+  void checkComplete(StrideRecord& s) const {
     s.complete = true;
-    std::optional<Problem> problem;
     for (int limb = 0; limb < limbs_.size(); ++limb) {
       const std::optional<std::string> missing = whatIsMissing(s, limb);
       if (!missing) continue;
-      if (s.complete) {
-        s.complete = false;
-        s.note = *missing;
-        // Hidden feet are the person's to resolve; a slipped touchdown at a change of gait is
-        // not a mistake, and missing tags have their own problem already.
-        if (missing->find(" is hidden at ") != std::string::npos)
-          problem = Problem{s.startFrame, limb,
-                            "stride " + std::to_string(s.startFrame) + "-" +
-                                std::to_string(s.endFrame) + " is unclassified: " + *missing +
-                                " - tag the foot where it can be seen, or leave the stride out"};
-      }
+      s.complete = false;
+      s.note = *missing;
+      s.incompleteLimb = limb;
+      s.touchdownSlipped = s.touchdownCount[static_cast<std::size_t>(limb)] != 1 &&
+                           missing->find(" is hidden at ") == std::string::npos;
+      s.cutByTagEnds = beyondTags(s, limb);
+      return;
     }
-    return problem;
+  }
+
+  // The limb's tags end (or begin) inside this stride: the data stop, nothing is wrong.
+  bool beyondTags(const StrideRecord& s, int limb) const {
+    const auto i = static_cast<std::size_t>(limb);
+    const std::vector<std::int64_t>& touchdowns = track(limb).touchdowns;
+    if (touchdowns.empty()) return true;  // never tagged: a problem of its own says so
+    if (s.touchdownCount[i] == 0)
+      return s.endFrame <= touchdowns.front() || s.startFrame >= touchdowns.back();
+    return s.touchdownCount[i] == 1 && !firstCycles_[i] && firsts_[i] == touchdowns.back();
   }
 
   std::optional<std::string> whatIsMissing(const StrideRecord& s, int limb) const {
@@ -278,8 +281,7 @@ class StrideBuilder {
 
 std::vector<StrideRecord> buildStrides(const model::Annotation& annotation, int referenceLimb,
                                        const CycleScan& scan, const SupportTimeline& support,
-                                       const StrideSettings& settings,
-                                       std::vector<Problem>& problems) {
+                                       const StrideSettings& settings) {
   const std::vector<FlaggedSpan> flags = mergedFlags(scan.tracks);
   StrideBuilder builder(annotation, scan, support, settings);
   const std::vector<LimbCycle>& reference =
@@ -288,9 +290,7 @@ std::vector<StrideRecord> buildStrides(const model::Annotation& annotation, int 
   strides.reserve(reference.size());  // records are large: no regrowth
   for (const LimbCycle& cycle : reference) {
     if (touchesFlag(flags, cycle.touchdown, cycle.nextTouchdown)) continue;
-    std::optional<Problem> problem;
-    strides.push_back(builder.build(cycle, problem));
-    if (problem) problems.push_back(std::move(*problem));
+    strides.push_back(builder.build(cycle));
   }
   return strides;
 }

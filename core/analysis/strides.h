@@ -19,10 +19,9 @@ struct StrideSettings {
 };
 
 // Strides of every reference cycle that touches no annotation problem, in order. Incomplete
-// strides are "unclassified", with a note and, where a tag is missing, a problem.
+// strides are "unclassified", with a note naming the limb (the problems come with the bouts).
 std::vector<StrideRecord> buildStrides(const model::Annotation& annotation, int referenceLimb,
                                        const CycleScan& scan, const SupportTimeline& support,
-                                       const StrideSettings& settings,
-                                       std::vector<Problem>& problems);
+                                       const StrideSettings& settings);
 
 }  // namespace stridemark::analysis

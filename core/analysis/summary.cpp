@@ -184,6 +184,17 @@ Summary trialSummary(const Report& report) {
   return s;
 }
 
+void setTrialMembers(Report& report, const Summary& summary) {
+  report.limbSummary = summary.limbs;
+  report.phase = summary.phase;
+  report.hildebrand = summary.hildebrand;
+  report.support = summary.support;
+  report.supportByCombination = summary.supportByCombination;
+  report.symmetry = summary.symmetry;
+  report.speed = summary.speed;
+  report.dap = summary.dap;
+}
+
 Summary summariseStrides(const std::vector<StrideRecord>& strides, const std::vector<int>& members,
                          const SummaryInputs& in) {
   Summary out;

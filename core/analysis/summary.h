@@ -24,6 +24,9 @@ struct SummaryInputs {
 // stride count is the strides those members were made from.
 Summary trialSummary(const Report& report);
 
+// The inverse: sets the report's trial-level members to `summary` (a scope's view of a report).
+void setTrialMembers(Report& report, const Summary& summary);
+
 // Summary of strides[i] for each i in `members` (ascending).
 Summary summariseStrides(const std::vector<StrideRecord>& strides, const std::vector<int>& members,
                          const SummaryInputs& in);

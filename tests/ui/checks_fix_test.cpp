@@ -54,11 +54,7 @@ const analysis::Report& currentReport(MainWindow& w) {
 
 struct Desk {
   Desk() {
-    w.setRecoveryPolicy(RecoveryPolicy::discard);
-    w.setBareClipPolicy(BareClipPolicy::useDefaults);
-    w.setAskBeforeDiscard(false);
-    w.resize(1400, 900);
-    w.show();
+    test::showUnattended(w);
     checks = w.findChild<ChecksList*>();
     fix = w.findChild<QToolButton*>(QStringLiteral("checksFixButton"));
   }

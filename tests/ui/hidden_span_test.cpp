@@ -40,11 +40,7 @@ void answerPicker(const std::function<void(HiddenSpanDialog&)>& choose, bool* se
 
 struct Desk {
   explicit Desk(const test::SampleClip& clip) {
-    w.setRecoveryPolicy(RecoveryPolicy::discard);
-    w.setBareClipPolicy(BareClipPolicy::useDefaults);
-    w.setAskBeforeDiscard(false);
-    w.resize(1200, 800);
-    w.show();
+    test::showUnattended(w, 1200, 800);
     EXPECT_TRUE(w.openVideo(QString::fromStdString(clip.video.string())));
     // Window shortcuts (Ctrl+H, Delete) need the window to be the active one.
     w.activateWindow();

@@ -11,6 +11,7 @@
 
 #include "synth/synth.h"
 #include "tests/ui/test_support.h"
+#include "ui/main_window.h"
 #include "ui/session/guarded.h"
 
 namespace stridemark::ui::test {
@@ -40,6 +41,14 @@ QString screenshotDir() {
       QStringLiteral(STRIDEMARK_BINARY_DIR) + QStringLiteral("/tests/ui/screenshots");
   QDir().mkpath(dir);
   return dir;
+}
+
+void showUnattended(MainWindow& w, int width, int height) {
+  w.setRecoveryPolicy(RecoveryPolicy::discard);
+  w.setBareClipPolicy(BareClipPolicy::useDefaults);
+  w.setAskBeforeDiscard(false);
+  w.resize(width, height);
+  w.show();
 }
 
 bool waitUntil(const std::function<bool()>& done, int ms) {

@@ -47,11 +47,7 @@ model::Project walkThenTrot() {
 
 struct Desk {
   Desk() {
-    w.setRecoveryPolicy(RecoveryPolicy::discard);
-    w.setBareClipPolicy(BareClipPolicy::useDefaults);
-    w.setAskBeforeDiscard(false);
-    w.resize(1400, 900);
-    w.show();
+    test::showUnattended(w);
     w.document()->reset(walkThenTrot(), {});
     settle();
     gaitMap = w.findChild<FigureView*>();

@@ -48,11 +48,7 @@ TEST(TagKeysNext, TheDockSaysWhatEachKeyRecordsAsThePlayheadMovesAndAfterEachTag
   QTemporaryDir dir;
   const auto clip = midStanceTrot(dir.path().toStdString());
   MainWindow w;
-  w.setRecoveryPolicy(RecoveryPolicy::discard);
-  w.setBareClipPolicy(BareClipPolicy::useDefaults);
-  w.setAskBeforeDiscard(false);
-  w.resize(1400, 900);
-  w.show();
+  test::showUnattended(w);
   ASSERT_TRUE(w.openVideo(QString::fromStdString(clip.video.string())));
   auto* legend = w.findChild<TagKeyLegend*>();
   ASSERT_NE(legend, nullptr);

@@ -33,11 +33,7 @@ TEST(Tagging, WholeTrotTrialByKeyPressesReproducesGroundTruth) {
   ASSERT_GT(truth.events.size(), 20u);
 
   MainWindow w;
-  w.setRecoveryPolicy(RecoveryPolicy::discard);
-  w.setBareClipPolicy(BareClipPolicy::useDefaults);
-  w.setAskBeforeDiscard(false);
-  w.resize(1200, 800);
-  w.show();
+  test::showUnattended(w, 1200, 800);
   ASSERT_TRUE(w.openVideo(QString::fromStdString(clip.video.string())));
   w.lanes()->setFocus();
   auto* target = w.lanes();

@@ -8,7 +8,15 @@
 
 #include "model/annotation.h"
 
+namespace stridemark::ui {
+class MainWindow;
+}
+
 namespace stridemark::ui::test {
+
+// Shows `w` at the given size with no prompt that would wait for a person: a journal is
+// discarded, a bare clip takes the defaults, unsaved changes are dropped on close.
+void showUnattended(MainWindow& w, int width = 1400, int height = 900);
 
 // Messages that reached ui::reportError since the last clear().
 QStringList& recordedErrors();

@@ -57,17 +57,11 @@ struct MeanPoint {
   QColor colour;
 };
 
-// Okabe & Ito (2008) colours for gaits in the order they first appear, starting away from the
-// first limb colours' orange so a gait's point does not read as a limb.
+// Gaits take the palette's colours in the order they first appear, starting away from the
+// first limb's orange so a gait's point does not read as a limb.
 QColor gaitColour(int index) {
-  static const std::array<QColor, 5> colours{
-      QColor(0xd5, 0x5e, 0x00),  // vermillion
-      QColor(0x00, 0x72, 0xb2),  // blue
-      QColor(0x00, 0x9e, 0x73),  // bluish green
-      QColor(0xcc, 0x79, 0xa7),  // reddish purple
-      QColor(0x56, 0xb4, 0xe9),  // sky blue
-  };
-  return colours[static_cast<std::size_t>(std::max(index, 0)) % colours.size()];
+  static const std::array<std::size_t, 5> order{4, 1, 2, 3, 5};  // vermillion, blue, ...
+  return okabeIto()[order[static_cast<std::size_t>(std::max(index, 0)) % order.size()]];
 }
 
 // The mean's label goes beside its marker, on whichever side keeps it inside the plot and

@@ -1,5 +1,6 @@
 #include "ui/figures/figure_style.h"
 
+#include <algorithm>
 #include <array>
 
 namespace stridemark::ui::figures {
@@ -26,8 +27,8 @@ QFont FigureStyle::font(int deltaPx, bool bold) const {
   return f;
 }
 
-QColor limbColour(int limbIndex) {
-  // Okabe & Ito (2008) palette, ordered so that the first four limbs differ most.
+const std::array<QColor, 7>& okabeIto() {
+  // Okabe & Ito (2008), ordered so that the first four limbs differ most.
   static const std::array<QColor, 7> colours{
       QColor(0xe6, 0x9f, 0x00),  // orange
       QColor(0x00, 0x72, 0xb2),  // blue
@@ -37,7 +38,12 @@ QColor limbColour(int limbIndex) {
       QColor(0x56, 0xb4, 0xe9),  // sky blue
       QColor(0xb8, 0xa9, 0x00),  // yellow, darkened to read on white
   };
-  return colours[static_cast<std::size_t>(limbIndex) % colours.size()];
+  return colours;
+}
+
+QColor limbColour(int limbIndex) {
+  const auto& colours = okabeIto();
+  return colours[static_cast<std::size_t>(std::max(limbIndex, 0)) % colours.size()];
 }
 
 Qt::BrushStyle limbPattern(const model::LimbSet& limbs, int limbIndex) {

@@ -2,6 +2,8 @@
 // Colours, fonts and limb cues shared by every figure painter. Painters draw in a logical
 // pixel coordinate system with pixel-size fonts, so the same code is right on screen, PNG,
 // SVG and PDF (Qt 6.4's QPdfWriter draws point-size fonts about 4x too large).
+#include <array>
+
 #include <QColor>
 #include <QFont>
 #include <QPalette>
@@ -24,7 +26,9 @@ struct FigureStyle {
   QFont font(int deltaPx = 0, bool bold = false) const;
 };
 
-// Okabe-Ito colour-blind-safe palette, in our own limb order.
+// The Okabe-Ito colour-blind-safe palette, in our own limb order; every figure colour that
+// stands for a limb or a gait comes from it.
+const std::array<QColor, 7>& okabeIto();
 QColor limbColour(int limbIndex);
 // Second cue beside colour: right-side limbs are hatched, left-side solid; the label is
 // always drawn too.

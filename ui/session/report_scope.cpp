@@ -3,6 +3,7 @@
 #include <algorithm>
 
 #include "analysis/bouts.h"
+#include "analysis/summary.h"
 
 namespace stridemark::ui {
 
@@ -19,17 +20,6 @@ const Summary* summaryOf(const Report& report, const ReportScope& scope) {
   }
   const int bout = boutIndex(report, scope);
   return bout < 0 ? nullptr : &report.bouts[static_cast<std::size_t>(bout)].summary;
-}
-
-void setTrialMembers(Report& out, const Summary& summary) {
-  out.limbSummary = summary.limbs;
-  out.phase = summary.phase;
-  out.hildebrand = summary.hildebrand;
-  out.support = summary.support;
-  out.supportByCombination = summary.supportByCombination;
-  out.symmetry = summary.symmetry;
-  out.speed = summary.speed;
-  out.dap = summary.dap;
 }
 
 }  // namespace
@@ -81,7 +71,7 @@ std::shared_ptr<const Report> scopedReport(const std::shared_ptr<const Report>& 
   out->bouts = report->bouts;  // strides keep their bout index
   for (const int i : scopeStrides(*report, scope))
     out->strides.push_back(report->strides[static_cast<std::size_t>(i)]);
-  setTrialMembers(*out, *summary);
+  analysis::setTrialMembers(*out, *summary);
   out->byGait[scope.gait] = *summary;
   out->mixedGaits = false;
   return out;

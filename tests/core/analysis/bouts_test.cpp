@@ -2,6 +2,8 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+
 #include "analysis/analyse.h"
 #include "event_train.h"
 
@@ -121,10 +123,12 @@ TEST(Bouts, WalkToTrotTransitionFromTags) {
   EXPECT_EQ(r.bouts[0].gait, "walk");
   // Source: docs/methods.md §1.5: in the last walk stride LF's cycle (3700-5100) is 1.17x the
   // stride, so it is unsteady where the gaits meet: a transition. In the next one RF lands at
-  // 5600 only (trot offset 1.0): no touchdown in 4600-5600, so it is unclassified.
+  // 5600 only (trot offset 1.0): no touchdown in 4600-5600, its touchdown slipped out of the
+  // window as the cycles changed length, so between the bouts it is a transition as well
+  // (METHODS §1.5: an unsteady stride between two bouts of different gaits is `transition`).
   EXPECT_EQ(r.bouts[0].lastStride, 1);
   EXPECT_EQ(r.strides[2].gait, "transition");
-  EXPECT_EQ(r.strides[3].gait, "unclassified");
+  EXPECT_EQ(r.strides[3].gait, "transition");
   EXPECT_EQ(r.bouts[1].gait, "trot");
   EXPECT_EQ(r.bouts[1].startFrame, 5600);
   ASSERT_EQ(r.transitions.size(), 1u);
@@ -137,6 +141,35 @@ TEST(Bouts, WalkToTrotTransitionFromTags) {
   EXPECT_NEAR(r.byGait.at("walk").limbs[2].dutyFactor.mean, 0.7, 1e-9);
   EXPECT_NEAR(r.byGait.at("trot").limbs[2].dutyFactor.mean, 0.4, 1e-9);
   EXPECT_EQ(r.bouts[0].summary.strides, 2);
+}
+
+TEST(Bouts, UnclassifiedStrideOutsideATransitionSaysWhichLimbAndWhy) {
+  // Source: METHODS §1.5 (an incomplete stride is `unclassified` and `problems` says which limb
+  // and what is missing). The walk-to-trot tags above, with bouts of 3 strides: the two walk
+  // strides are no bout, so the stride where RF's touchdown slipped out of the window is no
+  // transition: it stays unclassified and a problem names RF and frame 4600.
+  model::Annotation a;
+  a.captureRate = {1200, 1};
+  a.referenceLimb = 2;
+  const double walkOffsets[] = {0.25, 0.75, 0.0, 0.5};
+  const double trotOffsets[] = {0.5, 1.0, 0.0, 0.5};
+  for (int limb = 0; limb < 4; ++limb) {
+    addCycles(a, limb, 1000, 1200, walkOffsets[limb], 0.7, 3);
+    addCycles(a, limb, 4600, 1000, trotOffsets[limb], 0.4, 4);
+  }
+  a.normalize();
+  AnalysisOptions options;
+  options.minBoutStrides = 3;
+  const Report r = analyse(a, options);
+  ASSERT_EQ(r.strides.size(), 6u);
+  ASSERT_EQ(r.strides[3].gait, "unclassified");
+  const auto it = std::find_if(r.problems.begin(), r.problems.end(),
+                               [](const Problem& p) { return p.frame == 4600; });
+  ASSERT_NE(it, r.problems.end());
+  EXPECT_EQ(it->limb, 1);
+  EXPECT_NE(it->message.find("stride 4600-5600 is unclassified: RF has no touchdown in it"),
+            std::string::npos)
+      << it->message;
 }
 
 }  // namespace
