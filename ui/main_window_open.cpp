@@ -78,9 +78,9 @@ std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFi
     journalled = ProjectDocument::readJournal(journalFile);
   } catch (const Error& e) {
     if (e.category() != ErrorCategory::format) {  // unreadable (permissions): leave it be
-      reportError(this, tr("Recover unsaved work"),
-                  tr("%1\nIt was not recovered; %2.").arg(QString::fromStdString(e.what()),
-                                                          opensInstead));
+      reportError(
+          this, tr("Recover unsaved work"),
+          tr("%1\nIt was not recovered; %2.").arg(QString::fromStdString(e.what()), opensInstead));
       return std::nullopt;
     }
     setAsideDamagedJournal(journalFile, QString::fromStdString(e.what()), opensInstead);
@@ -132,10 +132,9 @@ void MainWindow::keepLock(std::unique_ptr<ProjectLock> lock) {
 }
 
 void MainWindow::removeLeftovers(const QString& base) {
-  const auto removed = formats::removeStaleTemporaries(base.toStdString()).size() +
-                       formats::removeStaleTemporaries(
-                           ProjectDocument::journalPathFor(base).toStdString())
-                           .size();
+  const auto removed =
+      formats::removeStaleTemporaries(base.toStdString()).size() +
+      formats::removeStaleTemporaries(ProjectDocument::journalPathFor(base).toStdString()).size();
   if (removed > 0)
     statusBar()->showMessage(
         tr("Removed %1 temporary file(s) left beside %2 by a save that was cut off.")
@@ -155,8 +154,8 @@ bool MainWindow::openVideo(const QString& path) {
   std::unique_ptr<ProjectLock> lock;  // an unsaved clip's journal sits beside the clip
   if (!lockFor(path, &lock)) return false;
   removeLeftovers(path);
-  const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path),
-                                        tr("the clip opens without it"));
+  const auto journalled =
+      offerRecovery(ProjectDocument::journalPathFor(path), tr("the clip opens without it"));
   ClipSetup setup;
   if (!journalled && !askClipSetup(*source, note, &setup)) return false;  // cancelled
   stopPlayback();

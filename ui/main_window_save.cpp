@@ -8,8 +8,8 @@
 #include <QSettings>
 #include <QStatusBar>
 
-#include "ui/main_window.h"
 #include "ui/document/project_lock.h"
+#include "ui/main_window.h"
 #include "ui/main_window_files.h"
 #include "ui/session/guarded.h"
 

@@ -102,8 +102,8 @@ AtomicFile::AtomicFile(std::filesystem::path target, Durability durability)
     : target_(std::move(target)), durability_(durability) {
   std::filesystem::path folder = target_.parent_path();
   if (folder.empty()) folder = ".";
-  std::string pattern = (folder / target_.filename()).string() + ".tmp-" +
-                        std::to_string(::getpid()) + "-XXXXXX";
+  std::string pattern =
+      (folder / target_.filename()).string() + ".tmp-" + std::to_string(::getpid()) + "-XXXXXX";
   std::vector<char> name(pattern.begin(), pattern.end());
   name.push_back('\0');
   fd_ = ::mkstemp(name.data());

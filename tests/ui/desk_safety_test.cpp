@@ -95,8 +95,8 @@ TEST(FullDisk, JournalKeepsItsLastGoodStateAndTheDeskSaysSo) {
   if (!disk.mounted())
     GTEST_SKIP() << "cannot mount a small tmpfs here (" << disk.why()
                  << "): the full-disk test needs root or CAP_SYS_ADMIN";
-  const QString project = writeEmptyProject(base.filePath(QStringLiteral("small")),
-                                            QStringLiteral("full.stridemark"));
+  const QString project =
+      writeEmptyProject(base.filePath(QStringLiteral("small")), QStringLiteral("full.stridemark"));
   const QString journalFile = project + QStringLiteral(".smjournal");
   MainWindow w;
   quietWindow(w);
@@ -159,8 +159,8 @@ TEST(OneWindowPerProject, SecondDeskRefusesNamingTheHolderAndADeadHolderBlocksNo
   // The application, started on the same project, says who has it.
   auto second = test::startDeskProcess(kDesk, {project}, settings.path());
   const QByteArray said = test::readUntil(*second, "another Stridemark desk", true);
-  EXPECT_TRUE(said.contains("shared.stridemark is open in another Stridemark desk (" +
-                            holder.toLatin1()))
+  EXPECT_TRUE(
+      said.contains("shared.stridemark is open in another Stridemark desk (" + holder.toLatin1()))
       << said.constData();
   test::killHard(*second);
   // A third window refuses too, and does not open anything.
@@ -175,8 +175,8 @@ TEST(OneWindowPerProject, SecondDeskRefusesNamingTheHolderAndADeadHolderBlocksNo
   // The holder dies without clean-up: its lock file stays, its lock does not.
   test::killHard(*first);
   ASSERT_TRUE(QFile::exists(project + QStringLiteral(".smlock")));
-  auto after = test::startDeskProcess(kDesk, {QStringLiteral("--recover"), project},
-                                      settings.path());
+  auto after =
+      test::startDeskProcess(kDesk, {QStringLiteral("--recover"), project}, settings.path());
   EXPECT_TRUE(waitForLockHolder(project, after->processId()))
       << test::readUntil(*after, "\n", true, 200).constData();
   test::killHard(*after);
@@ -245,8 +245,10 @@ TEST(Leftovers, OpeningAProjectRemovesOnlyTemporariesOfDeadWriters) {
   MainWindow w;
   quietWindow(w);
   ASSERT_TRUE(w.openProject(project));
-  for (const auto& name : stale) EXPECT_FALSE(QFile::exists(dir.filePath(name))) << name.toStdString();
-  for (const auto& name : kept) EXPECT_TRUE(QFile::exists(dir.filePath(name))) << name.toStdString();
+  for (const auto& name : stale)
+    EXPECT_FALSE(QFile::exists(dir.filePath(name))) << name.toStdString();
+  for (const auto& name : kept)
+    EXPECT_TRUE(QFile::exists(dir.filePath(name))) << name.toStdString();
 }
 
 }  // namespace

@@ -43,8 +43,9 @@ int main(int argc, char** argv) {
                      (mode == QLatin1String("random") && args.size() == 4) ||
                      (mode == QLatin1String("hold") && args.size() == 2);
   if (!valid) {
-    std::fprintf(stderr, "usage: desk_journal_child tag PROJECT N | random PROJECT SEED N | "
-                         "hold PROJECT\n");
+    std::fprintf(stderr,
+                 "usage: desk_journal_child tag PROJECT N | random PROJECT SEED N | "
+                 "hold PROJECT\n");
     return 2;
   }
   // Settings of its own: never the person's, never another test's.

@@ -49,8 +49,8 @@ QString writeEmptyProject(const QTemporaryDir& dir) {
 
 void runAndKill(const QString& project, int edits) {
   QTemporaryDir settings;
-  auto child = test::startChild({QStringLiteral("tag"), project, QString::number(edits)},
-                                settings.path());
+  auto child =
+      test::startChild({QStringLiteral("tag"), project, QString::number(edits)}, settings.path());
   const QByteArray out = test::readUntil(*child, "done\n");
   ASSERT_TRUE(out.contains("done\n")) << out.constData();
   test::killHard(*child);  // SIGKILL on Unix: no destructor, no flush, no clean-up runs
@@ -72,6 +72,18 @@ struct DeskState {
   model::TrialCard trial;
   friend bool operator==(const DeskState&, const DeskState&) = default;
 };
+
+// Which parts of two states differ, for the failure message.
+std::string differences(const DeskState& got, const DeskState& want) {
+  std::string out;
+  if (got.events != want.events)
+    out += " events (" + std::to_string(got.events.size()) + " recovered, " +
+           std::to_string(want.events.size()) + " acknowledged)";
+  if (got.hidden != want.hidden) out += " hidden spans";
+  if (got.excluded != want.excluded) out += " excluded strides";
+  if (!(got.trial == want.trial)) out += " trial card";
+  return out;
+}
 
 DeskState stateOf(const ProjectDocument& doc) {
   const auto& a = doc.annotation();
@@ -143,8 +155,8 @@ TEST(Recovery, KilledSessionLosesNothing) {
 TEST(Recovery, RandomKillsLoseNoAcknowledgedEdit) {
   const std::uint64_t seed = killTestSeed();
   const int rounds = std::max(12, qEnvironmentVariableIntValue("STRIDEMARK_KILL_ROUNDS"));
-  std::cout << "kill test seed " << seed << " (STRIDEMARK_KILL_SEED=" << seed
-            << " repeats it), " << rounds << " rounds" << std::endl;
+  std::cout << "kill test seed " << seed << " (STRIDEMARK_KILL_SEED=" << seed << " repeats it), "
+            << rounds << " rounds" << std::endl;
   RecordProperty("kill_seed", std::to_string(seed));
   std::mt19937_64 master(seed);
   QTemporaryDir settings;
@@ -162,16 +174,19 @@ TEST(Recovery, RandomKillsLoseNoAcknowledgedEdit) {
     const int killAfter = static_cast<int>(test::draw(master, 0, edits + 3));
     const auto extraMicros = test::draw(master, 0, killAfter == 0 ? 600000 : 3000);
     const QString label = QStringLiteral("round %1 (seed %2, %3 edits, kill after %4 acks + %5 us)")
-                              .arg(round).arg(roundSeed).arg(edits).arg(killAfter).arg(extraMicros);
-    auto child = test::startChild({QStringLiteral("random"), project, QString::number(roundSeed),
-                                   QString::number(edits)},
-                                  settings.path());
+                              .arg(round)
+                              .arg(roundSeed)
+                              .arg(edits)
+                              .arg(killAfter)
+                              .arg(extraMicros);
+    auto child = test::startChild(
+        {QStringLiteral("random"), project, QString::number(roundSeed), QString::number(edits)},
+        settings.path());
     QByteArray out;
     if (killAfter > 0)
-      out = test::readUntil(*child, killAfter > edits ? QByteArray("done\n")
-                                                      : QStringLiteral("\nack %1\n")
-                                                            .arg(killAfter - 1)
-                                                            .toLatin1());
+      out = test::readUntil(
+          *child, killAfter > edits ? QByteArray("done\n")
+                                    : QStringLiteral("\nack %1\n").arg(killAfter - 1).toLatin1());
     QThread::usleep(static_cast<unsigned long>(extraMicros));
     test::killHard(*child);
     out += child->readAllStandardOutput();
@@ -199,8 +214,8 @@ TEST(Recovery, RandomKillsLoseNoAcknowledgedEdit) {
       lost += static_cast<int>(ackedState - matching);
     }
     EXPECT_TRUE(matchesAcked || matchesInFlight)
-        << label.toStdString() << ": last acknowledged edit " << last << ", recovered "
-        << got.events.size() << " events, expected " << states[ackedState].events.size();
+        << label.toStdString() << ": last acknowledged edit " << last << "; differs in"
+        << differences(got, states[ackedState]);
   }
   std::cout << "kill test: " << rounds << " rounds, " << acknowledged
             << " acknowledged edits, edits lost " << lost << ", in-flight edit also kept in "
@@ -264,20 +279,26 @@ struct Damage {
 // Common practice, no source: each way a journal goes bad that a crash, a disk or a hand can
 // cause. Each must be refused before recovery is offered, and kept aside, not deleted.
 const Damage kDamages[] = {
-    {"one digit changed", [](const QByteArray& good) {
+    {"one digit changed",
+     [](const QByteArray& good) {
        QByteArray bad = good;
        bad.replace(",10]", ",19]");  // the first tag's frame: still valid JSON
        return bad;
      }},
     {"cut short", [](const QByteArray& good) { return good.chopped(9); }},
     {"garbage appended", [](const QByteArray& good) { return good + "\n{\"x\":1}"; }},
-    {"header gone", [](const QByteArray& good) { return QByteArray("stridemark.journal.v2\n") + payloadOf(good); }},
-    {"checksum right, hidden span ends before it starts", [](const QByteArray& good) {
+    {"header gone",
+     [](const QByteArray& good) {
+       return QByteArray("stridemark.journal.v2\n") + payloadOf(good);
+     }},
+    {"checksum right, hidden span ends before it starts",
+     [](const QByteArray& good) {
        QByteArray payload = payloadOf(good);
        payload.replace("\"hidden\":[]", "\"hidden\":[[0,50,20]]");
        return withHeader(payload);
      }},
-    {"v1 (no checksum), negative frame", [](const QByteArray& good) {
+    {"v1 (no checksum), negative frame",
+     [](const QByteArray& good) {
        QByteArray payload = payloadOf(good);
        payload.replace("stridemark.journal.v2", "stridemark.journal.v1");
        payload.replace(",10]", ",-10]");

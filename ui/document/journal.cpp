@@ -69,7 +69,6 @@ QByteArray checkedPayload(const QByteArray& bytes) {
   return payload;
 }
 
-
 // Written with core's plain JSON writer: the journal is rewritten on every edit, and building
 // a QJsonDocument of a 20,000-event trial took ~12 ms of each edit
 // (tests/bench/desk_rescore_bench).
@@ -128,8 +127,8 @@ QByteArray encodePayload(const model::Project& project, const QString& projectPa
   out.key("trial");
   out.beginObject();
   const std::pair<const char*, const std::string*> texts[] = {
-      {"subject", &t.subject},   {"species", &t.species}, {"condition", &t.condition},
-      {"observer", &t.observer}, {"exam_date", &t.examDate}, {"notes", &t.notes},
+      {"subject", &t.subject},         {"species", &t.species},    {"condition", &t.condition},
+      {"observer", &t.observer},       {"exam_date", &t.examDate}, {"notes", &t.notes},
       {"speed_source", &t.speedSource}};
   for (const auto& [key, value] : texts) {
     out.key(key);
@@ -184,7 +183,8 @@ model::Project decodePayload(const QByteArray& bytes, bool v2) {
   a.limbs = model::LimbSet::fromName(root["limb_set"].toString().toStdString());
   a.captureRate = parseRate(root["capture_rate"].toString().toStdString(), "capture rate");
   a.referenceLimb = root["reference_limb"].toInt();
-  if (a.referenceLimb < 0 || a.referenceLimb >= a.limbs.size()) bad(QStringLiteral("bad reference limb"));
+  if (a.referenceLimb < 0 || a.referenceLimb >= a.limbs.size())
+    bad(QStringLiteral("bad reference limb"));
   for (const auto& item : root["events"].toArray()) {
     const auto e = item.toArray();
     const int limb = e.at(0).toInt(-1);

@@ -20,8 +20,7 @@ namespace {
 QByteArray holderNote() {
   return QStringLiteral("pid=%1 host=%2 since=%3\n")
       .arg(::getpid())
-      .arg(QSysInfo::machineHostName(),
-           QDateTime::currentDateTimeUtc().toString(Qt::ISODate))
+      .arg(QSysInfo::machineHostName(), QDateTime::currentDateTimeUtc().toString(Qt::ISODate))
       .toUtf8();
 }
 
@@ -34,7 +33,8 @@ QString readNote(int fd) {
 // After a holder removes its lock file, a waiter may lock the removed file: only a lock on
 // the file the path names now counts.
 bool lockIsOnCurrentFile(int fd, const QByteArray& path) {
-  struct stat locked {}, named {};
+  struct stat locked {
+  }, named{};
   return ::fstat(fd, &locked) == 0 && ::stat(path.constData(), &named) == 0 &&
          locked.st_dev == named.st_dev && locked.st_ino == named.st_ino;
 }

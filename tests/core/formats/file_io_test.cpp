@@ -99,12 +99,12 @@ TEST(FileIo, StaleTemporariesOfDeadWritersAreRemovedAndNothingElse) {
   const auto stale = folder / ("trial.stridemark.tmp-" + dead + "-a1B2c3");
   const std::vector<std::string> kept = {
       "trial.stridemark",
-      "trial.stridemark.tmp-" + alive + "-a1B2c3",    // a live writer (this process)
-      "trial.stridemark.tmp-Zq81xy",                  // older naming without a pid
-      "trial.stridemark.tmp-" + dead + "-a1B2",       // not mkstemp's six characters
-      "trial.stridemark.tmp-" + dead + "-a1B2c3.bak", // something else entirely
-      "other.stridemark.tmp-" + dead + "-a1B2c3",     // another file's temporary
-      "trial.stridemark.tmp-x" + dead + "-a1B2c3",    // not a pid
+      "trial.stridemark.tmp-" + alive + "-a1B2c3",     // a live writer (this process)
+      "trial.stridemark.tmp-Zq81xy",                   // older naming without a pid
+      "trial.stridemark.tmp-" + dead + "-a1B2",        // not mkstemp's six characters
+      "trial.stridemark.tmp-" + dead + "-a1B2c3.bak",  // something else entirely
+      "other.stridemark.tmp-" + dead + "-a1B2c3",      // another file's temporary
+      "trial.stridemark.tmp-x" + dead + "-a1B2c3",     // not a pid
   };
   testing::writeText(stale, "half a save");
   for (const auto& name : kept) testing::writeText(folder / name, "keep me");
