@@ -123,7 +123,8 @@ void MainWindow::setAsideDamagedJournal(const QString& journalFile, const QStrin
 }
 
 bool MainWindow::lockFor(const QString& base, std::unique_ptr<ProjectLock>* lock) {
-  if (lock_ && lock_->guarded() == base) return true;  // this window owns it already
+  // This window owns it already (the same file, however the path is spelled).
+  if (lock_ && lock_->guarded() == ProjectLock::normalPath(base)) return true;
   return runGuarded(this, tr("Open"), [&] { *lock = ProjectLock::acquire(base); });
 }
 

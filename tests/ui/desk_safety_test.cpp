@@ -196,6 +196,8 @@ TEST(OneWindowPerProject, SecondWindowAndSaveAsOntoAnOpenProjectAreRefused) {
   quietWindow(first);
   quietWindow(second);
   ASSERT_TRUE(first.openProject(a));
+  EXPECT_TRUE(first.openProject(dir.path() + QStringLiteral("/./a.stridemark")))
+      << "a window refused its own project spelled another way";
   test::recordedErrors().clear();
   EXPECT_FALSE(second.openProject(a));
   ASSERT_EQ(test::recordedErrors().size(), 1);

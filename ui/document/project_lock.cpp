@@ -6,6 +6,8 @@
 #include <unistd.h>
 
 #include <QDateTime>
+#include <QDir>
+#include <QFileInfo>
 #include <QSysInfo>
 #include <cerrno>
 #include <cstring>
@@ -51,7 +53,8 @@ bool lockIsOnCurrentFile(int fd, const QByteArray& path) {
 
 }  // namespace
 
-std::unique_ptr<ProjectLock> ProjectLock::acquire(const QString& guarded) {
+std::unique_ptr<ProjectLock> ProjectLock::acquire(const QString& projectOrVideoPath) {
+  const QString guarded = normalPath(projectOrVideoPath);
   const QByteArray path = pathFor(guarded).toLocal8Bit();
   for (int attempt = 0; attempt < 5; ++attempt) {
     const int fd = ::open(path.constData(), O_RDWR | O_CREAT | O_CLOEXEC, 0644);
@@ -79,6 +82,10 @@ std::unique_ptr<ProjectLock> ProjectLock::acquire(const QString& guarded) {
     return std::unique_ptr<ProjectLock>(new ProjectLock(guarded, fd));
   }
   refuse(guarded, QString());
+}
+
+QString ProjectLock::normalPath(const QString& path) {
+  return QDir::cleanPath(QFileInfo(path).absoluteFilePath());
 }
 
 ProjectLock::~ProjectLock() {

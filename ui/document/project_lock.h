@@ -12,6 +12,8 @@ class ProjectLock {
  public:
   inline static const QString kSuffix = QStringLiteral(".smlock");
   static QString pathFor(const QString& projectOrVideoPath) { return projectOrVideoPath + kSuffix; }
+  // One spelling per file (absolute, no "." or ".."), so a window knows its own lock.
+  static QString normalPath(const QString& path);
 
   // Takes the lock for `projectOrVideoPath`, or throws stridemark::Error(io) naming the project
   // and the process that holds it. In a folder where no lock file can be made (read-only
@@ -21,6 +23,7 @@ class ProjectLock {
   ProjectLock(const ProjectLock&) = delete;
   ProjectLock& operator=(const ProjectLock&) = delete;
 
+  // The absolute path of the project or clip this lock guards.
   QString guarded() const { return guarded_; }
   bool held() const { return fd_ >= 0; }
 
