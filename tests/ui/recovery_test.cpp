@@ -307,7 +307,8 @@ const Damage kDamages[] = {
 };
 
 // Defect #8 of issue 17: a damaged journal was recovered unchecked and the desk then saved a
-// project it could not reopen.
+// project it could not reopen. Common practice, no source: check before trusting, keep the
+// evidence, say what happened.
 TEST(Recovery, DamagedJournalIsSetAsideAndTheSavedProjectOpens) {
   for (const auto& damage : kDamages) {
     SCOPED_TRACE(damage.name);
@@ -339,7 +340,8 @@ TEST(Recovery, DamagedJournalIsSetAsideAndTheSavedProjectOpens) {
   }
 }
 
-// A second damaged journal does not replace the first one kept aside.
+// A second damaged journal does not replace the first one kept aside. Common practice, no
+// source: never delete what may be the only copy of someone's work.
 TEST(Recovery, AnEarlierDamagedJournalIsNeverOverwritten) {
   QTemporaryDir dir;
   const QString project = writeEmptyProject(dir);
