@@ -8,6 +8,7 @@
 #include <QStatusBar>
 #include <algorithm>
 
+#include "ui/document/project_lock.h"
 #include "ui/keys/cheat_sheet.h"
 #include "ui/session/guarded.h"
 #include "ui/widgets/footfall_lanes.h"
@@ -37,6 +38,14 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   status_ = new QLabel;
   status_->setAccessibleName(tr("Status"));
   statusBar()->addPermanentWidget(status_);
+  journalWarning_ = new QLabel;
+  journalWarning_->setObjectName(QStringLiteral("journalWarning"));
+  journalWarning_->setAccessibleName(tr("Autosave warning"));
+  journalWarning_->setWordWrap(true);
+  journalWarning_->setStyleSheet(
+      QStringLiteral("QLabel { color: white; background: #b00020; padding: 2px 6px; }"));
+  journalWarning_->hide();
+  statusBar()->addPermanentWidget(journalWarning_, 1);
   buildProxyStatus();
   buildDocks();
   buildActions();
@@ -68,8 +77,9 @@ void MainWindow::connectDocument() {
   });
   connect(&doc_, &ProjectDocument::pathChanged, this, &MainWindow::updateTitle);
   connect(doc_.undoStack(), &QUndoStack::cleanChanged, this, &MainWindow::updateTitle);
-  connect(&doc_, &ProjectDocument::journalFailed, this,
-          [this](const QString& message) { reportError(this, tr("Autosave journal"), message); });
+  // Not a dialog per keystroke: a red line that stays until a journal write succeeds again.
+  connect(&doc_, &ProjectDocument::journalFailed, this, &MainWindow::showJournalWarning);
+  connect(&doc_, &ProjectDocument::journalWritten, this, [this] { showJournalWarning({}); });
   connect(&runner_, &AnalysisRunner::finished, this, &MainWindow::onReport);
   connect(&runner_, &AnalysisRunner::failed, this, [this](const QString& message, std::uint64_t) {
     statusBar()->showMessage(tr("Analysis: %1").arg(message), 8000);
@@ -91,6 +101,16 @@ void MainWindow::restoreSettings() {
       ->setChecked(settings.value(QStringLiteral("video/stepOnProxy"), true).toBool());
   const auto budgetMiB = settings.value(QStringLiteral("video/cacheBudgetMiB"), 0).toULongLong();
   if (budgetMiB > 0) videoOptions_.budgetBytes = static_cast<std::size_t>(budgetMiB) << 20;
+}
+
+void MainWindow::showJournalWarning(const QString& message) {
+  journalWarning_->setText(message);
+  journalWarning_->setToolTip(message);
+  journalWarning_->setVisible(!message.isEmpty());
+}
+
+QString MainWindow::journalWarning() const {
+  return journalWarning_->isVisibleTo(this) ? journalWarning_->text() : QString();
 }
 
 QAction* MainWindow::action(ActionId id) const {

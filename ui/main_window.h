@@ -44,6 +44,7 @@ class StrideSheetPanel;
 class FigureView;
 class ChecksList;
 class SummaryView;
+class ProjectLock;
 
 // What to do when a journal from a crashed session exists (tests choose without a dialog).
 enum class RecoveryPolicy { ask, recover, discard };
@@ -108,6 +109,9 @@ class MainWindow : public QMainWindow {
   QComboBox* scopeSelector() const { return scopeBox_; }
   StrideSheetPanel* strideSheetPanel() const { return sheetPanel_; }
   QPushButton* proxyCancelButton() const { return proxyCancel_; }
+  // The red status-bar warning shown while the autosave journal cannot be written; empty when
+  // the last write succeeded.
+  QString journalWarning() const;
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
 
  protected:
@@ -133,7 +137,18 @@ class MainWindow : public QMainWindow {
   void rebuildRecentMenu();
   // Opening (main_window_open.cpp).
   void openDialog();
-  std::optional<model::Project> offerRecovery(const QString& journalFile);
+  // `opensInstead` says what the person gets when the journal is not recovered.
+  std::optional<model::Project> offerRecovery(const QString& journalFile,
+                                              const QString& opensInstead);
+  void setAsideDamagedJournal(const QString& journalFile, const QString& why,
+                              const QString& opensInstead);
+  // The lock for `base` (project or unsaved clip): nothing in *lock when this window already
+  // holds it; false after showing whose it is when another desk does.
+  bool lockFor(const QString& base, std::unique_ptr<ProjectLock>* lock);
+  void keepLock(std::unique_ptr<ProjectLock> lock);
+  // Temporary files that a killed save or journal write left beside `base` (we own it now).
+  void removeLeftovers(const QString& base);
+  void showJournalWarning(const QString& message);
   QString projectBesideClip(const QString& videoPath, QString* note) const;
   bool askClipSetup(const VideoSource& source, const QString& note, ClipSetup* setup);
   bool openVideoForProject(const QString& projectPath);
@@ -210,6 +225,8 @@ class MainWindow : public QMainWindow {
   SummaryView* summary_ = nullptr;
   TagKeyLegend* legend_ = nullptr;
   QLabel* status_ = nullptr;
+  QLabel* journalWarning_ = nullptr;
+  std::unique_ptr<ProjectLock> lock_;
   QMenu* recentMenu_ = nullptr;
   QMenu* viewMenu_ = nullptr;
   std::map<ActionId, QAction*> actions_;

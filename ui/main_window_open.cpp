@@ -9,8 +9,11 @@
 #include <QStatusBar>
 
 #include "common/error.h"
+#include "formats/file_io.h"
 #include "formats/project_file.h"
+#include "ui/document/journal.h"
 #include "ui/document/project_io.h"
+#include "ui/document/project_lock.h"
 #include "ui/main_window.h"
 #include "ui/main_window_files.h"
 #include "ui/session/guarded.h"
@@ -68,11 +71,22 @@ bool MainWindow::openPath(const QString& path) {
   return isProjectFile(path) ? openProject(path) : openVideo(path);
 }
 
-std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFile) {
+std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFile,
+                                                        const QString& opensInstead) {
   std::optional<model::Project> journalled;
-  const bool readable = runGuarded(this, tr("Recover unsaved work"),
-                                   [&] { journalled = ProjectDocument::readJournal(journalFile); });
-  if (!readable || !journalled) return std::nullopt;
+  try {
+    journalled = ProjectDocument::readJournal(journalFile);
+  } catch (const Error& e) {
+    if (e.category() != ErrorCategory::format) {  // unreadable (permissions): leave it be
+      reportError(
+          this, tr("Recover unsaved work"),
+          tr("%1\nIt was not recovered; %2.").arg(QString::fromStdString(e.what()), opensInstead));
+      return std::nullopt;
+    }
+    setAsideDamagedJournal(journalFile, QString::fromStdString(e.what()), opensInstead);
+    return std::nullopt;
+  }
+  if (!journalled) return std::nullopt;
   bool recover = recovery_ == RecoveryPolicy::recover;
   if (recovery_ == RecoveryPolicy::ask) {
     const auto answer = QMessageBox::question(
@@ -90,6 +104,46 @@ std::optional<model::Project> MainWindow::offerRecovery(const QString& journalFi
   return journalled;
 }
 
+// A damaged journal is never recovered (its project could not be saved and reopened) and
+// never deleted (it may hold the only copy of someone's tags): it is renamed for inspection.
+void MainWindow::setAsideDamagedJournal(const QString& journalFile, const QString& why,
+                                        const QString& opensInstead) {
+  QString kept;
+  try {
+    kept = journal::moveAside(journalFile);
+  } catch (const Error& e) {
+    reportError(this, tr("Recover unsaved work"),
+                tr("%1\n%2\nIt was not recovered; %3.")
+                    .arg(why, QString::fromStdString(e.what()), opensInstead));
+    return;
+  }
+  reportError(this, tr("Recover unsaved work"),
+              tr("%1\nIt was not recovered. It is kept as %2 for inspection (not deleted); %3.")
+                  .arg(why, kept, opensInstead));
+}
+
+bool MainWindow::lockFor(const QString& base, std::unique_ptr<ProjectLock>* lock) {
+  // This window owns it already (the same file, however the path is spelled).
+  if (lock_ && lock_->guarded() == ProjectLock::normalPath(base)) return true;
+  return runGuarded(this, tr("Open"), [&] { *lock = ProjectLock::acquire(base); });
+}
+
+void MainWindow::keepLock(std::unique_ptr<ProjectLock> lock) {
+  if (lock) lock_ = std::move(lock);  // releases the previous project's lock
+}
+
+void MainWindow::removeLeftovers(const QString& base) {
+  const auto removed =
+      formats::removeStaleTemporaries(base.toStdString()).size() +
+      formats::removeStaleTemporaries(ProjectDocument::journalPathFor(base).toStdString()).size();
+  if (removed > 0)
+    statusBar()->showMessage(
+        tr("Removed %1 temporary file(s) left beside %2 by a save that was cut off.")
+            .arg(removed)
+            .arg(QFileInfo(base).fileName()),
+        8000);
+}
+
 bool MainWindow::openVideo(const QString& path) {
   QString note;
   if (const QString project = projectBesideClip(path, &note); !project.isEmpty())
@@ -98,10 +152,16 @@ bool MainWindow::openVideo(const QString& path) {
   if (!runGuarded(this, tr("Open video"),
                   [&] { source = std::make_unique<VideoSource>(path, videoOptions_); }))
     return false;
-  const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path));
+  std::unique_ptr<ProjectLock> lock;  // an unsaved clip's journal sits beside the clip
+  if (!lockFor(path, &lock)) return false;
+  removeLeftovers(path);
+  const auto journalled =
+      offerRecovery(ProjectDocument::journalPathFor(path), tr("the clip opens without it"));
   ClipSetup setup;
   if (!journalled && !askClipSetup(*source, note, &setup)) return false;  // cancelled
   stopPlayback();
+  showJournalWarning({});
+  keepLock(std::move(lock));
   const bool imported = !setup.events.empty();
   // Imported tags are unsaved work: marked modified, so the journal keeps them.
   doc_.reset(journalled ? *journalled : projectForClip(*source, setup), QString(),
@@ -159,8 +219,15 @@ bool MainWindow::askClipSetup(const VideoSource& source, const QString& note, Cl
 bool MainWindow::openProject(const QString& path) {
   model::Project project;
   if (!runGuarded(this, tr("Open project"), [&] { project = loadProjectFile(path); })) return false;
+  std::unique_ptr<ProjectLock> lock;
+  if (!lockFor(path, &lock)) return false;
   stopPlayback();
-  const auto journalled = offerRecovery(ProjectDocument::journalPathFor(path));
+  removeLeftovers(path);
+  const auto journalled =
+      offerRecovery(ProjectDocument::journalPathFor(path),
+                    tr("the saved project %1 is opened instead").arg(QFileInfo(path).fileName()));
+  showJournalWarning({});
+  keepLock(std::move(lock));
   doc_.reset(journalled ? *journalled : project, path, journalled.has_value());
   attachVideo(nullptr);
   openVideoForProject(path);

@@ -8,6 +8,7 @@
 #include <QSettings>
 #include <QStatusBar>
 
+#include "ui/document/project_lock.h"
 #include "ui/main_window.h"
 #include "ui/main_window_files.h"
 #include "ui/session/guarded.h"
@@ -17,8 +18,11 @@ namespace stridemark::ui {
 bool MainWindow::saveProjectAs(const QString& path) {
   QString target = path;
   if (!isProjectFile(target)) target += projectExtension();
+  std::unique_ptr<ProjectLock> lock;  // never save over a project another desk has open
+  if (!lockFor(target, &lock)) return false;
   const bool ok = runGuarded(this, tr("Save project"), [&] { doc_.saveAs(target); });
   if (ok) {
+    keepLock(std::move(lock));
     addRecent(target);
     statusBar()->showMessage(tr("Saved %1").arg(target), 4000);
   }

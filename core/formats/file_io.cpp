@@ -1,9 +1,12 @@
 #include "formats/file_io.h"
 
 #include <fcntl.h>
+#include <signal.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include <algorithm>
+#include <cctype>
 #include <cerrno>
 #include <cstdio>
 #include <cstring>
@@ -33,7 +36,45 @@ void syncFolder(const std::filesystem::path& folder) {
   ::close(fd);
 }
 
+// The writer's pid when `name` is `<base>.tmp-<pid>-XXXXXX` (mkstemp's six characters), else 0.
+pid_t temporaryWriter(const std::string& name, const std::string& base) {
+  const std::string prefix = base + ".tmp-";
+  if (name.size() <= prefix.size() + 7 || name.compare(0, prefix.size(), prefix) != 0) return 0;
+  const std::string rest = name.substr(prefix.size());
+  const auto dash = rest.find('-');
+  if (dash == 0 || dash == std::string::npos || dash > 9 || rest.size() - dash - 1 != 6) return 0;
+  const std::string digits = rest.substr(0, dash);
+  if (!std::all_of(digits.begin(), digits.end(), [](unsigned char c) { return std::isdigit(c); }))
+    return 0;
+  const std::string suffix = rest.substr(dash + 1);
+  if (!std::all_of(suffix.begin(), suffix.end(), [](unsigned char c) { return std::isalnum(c); }))
+    return 0;
+  return static_cast<pid_t>(std::stol(digits));
+}
+
+// kill(pid, 0) probes without sending: EPERM means alive but someone else's.
+bool processIsRunning(pid_t pid) {
+  return pid == ::getpid() || ::kill(pid, 0) == 0 || errno != ESRCH;
+}
+
 }  // namespace
+
+std::vector<std::filesystem::path> removeStaleTemporaries(const std::filesystem::path& target) {
+  std::vector<std::filesystem::path> removed;
+  std::filesystem::path folder = target.parent_path();
+  if (folder.empty()) folder = ".";
+  const std::string base = target.filename().string();
+  std::error_code ec;
+  for (std::filesystem::directory_iterator it(folder, ec), end; !ec && it != end;
+       it.increment(ec)) {
+    const pid_t writer = temporaryWriter(it->path().filename().string(), base);
+    if (writer <= 0 || processIsRunning(writer)) continue;
+    std::error_code kindError;
+    if (!it->is_regular_file(kindError) || it->is_symlink(kindError)) continue;
+    if (std::filesystem::remove(it->path(), kindError)) removed.push_back(it->path());
+  }
+  return removed;
+}
 
 std::string readWholeFile(const std::filesystem::path& path) {
   std::error_code ec;
@@ -61,7 +102,8 @@ AtomicFile::AtomicFile(std::filesystem::path target, Durability durability)
     : target_(std::move(target)), durability_(durability) {
   std::filesystem::path folder = target_.parent_path();
   if (folder.empty()) folder = ".";
-  std::string pattern = (folder / target_.filename()).string() + ".tmp-XXXXXX";
+  std::string pattern =
+      (folder / target_.filename()).string() + ".tmp-" + std::to_string(::getpid()) + "-XXXXXX";
   std::vector<char> name(pattern.begin(), pattern.end());
   name.push_back('\0');
   fd_ = ::mkstemp(name.data());

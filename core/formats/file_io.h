@@ -1,9 +1,11 @@
 #pragma once
 // Whole-file reads and crash-safe writes. A save either replaces the old file completely or
-// leaves it untouched: we write `<file>.tmp-XXXXXX` beside it, fsync, then rename over it.
+// leaves it untouched: we write `<file>.tmp-<pid>-XXXXXX` beside it, fsync, then rename over it.
+// The writer's pid in the name lets a later run tell a killed writer's leftovers from a live one's.
 #include <filesystem>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace stridemark::formats {
 
@@ -42,5 +44,11 @@ class AtomicFile {
 // One-shot form of AtomicFile for content already in memory.
 void writeFileAtomically(const std::filesystem::path& path, std::string_view content,
                          Durability durability = Durability::survivePowerLoss);
+
+// Removes what killed writers left of `target`: only regular files named exactly
+// `<target name>.tmp-<pid>-XXXXXX` whose pid is no running process on this machine; nothing else.
+// A pid means nothing on another machine, so call this only for files this process owns (the
+// desk holds the project's lock). Best effort, never throws; returns the files removed.
+std::vector<std::filesystem::path> removeStaleTemporaries(const std::filesystem::path& target);
 
 }  // namespace stridemark::formats

@@ -4,10 +4,12 @@
 #include <QJsonArray>
 #include <QJsonDocument>
 #include <QJsonObject>
-#include <QSaveFile>
+#include <QRegularExpression>
 
 #include "common/error.h"
+#include "formats/file_io.h"
 #include "formats/json_out.h"
+#include "formats/project_file.h"
 
 namespace stridemark::ui::journal {
 
@@ -19,6 +21,7 @@ model::TrialCard decodeTrial(const QJsonObject& o) {
   t.species = o["species"].toString().toStdString();
   t.condition = o["condition"].toString().toStdString();
   t.observer = o["observer"].toString().toStdString();
+  t.examDate = o["exam_date"].toString().toStdString();
   t.notes = o["notes"].toString().toStdString();
   if (o.contains("speed_m_s")) t.speedMs = o["speed_m_s"].toDouble();
   t.speedSource = o["speed_source"].toString(QStringLiteral("belt")).toStdString();
@@ -30,20 +33,46 @@ model::TrialCard decodeTrial(const QJsonObject& o) {
   return t;
 }
 
-[[noreturn]] void fail(const QString& file, const QString& what) {
-  throw Error(ErrorCategory::format,
-              QStringLiteral("%1: autosave journal is unreadable (%2). Delete or rename it to "
-                             "open the project without recovery.")
-                  .arg(file, what)
-                  .toStdString());
+// What is wrong with a payload, before the file name is known to the message.
+struct BadPayload {
+  QString what;
+};
+
+[[noreturn]] void bad(const QString& what) {
+  throw BadPayload{what};
 }
 
-}  // namespace
+[[noreturn]] void fail(const QString& file, const QString& what) {
+  throw Error(ErrorCategory::format,
+              QStringLiteral("%1: autosave journal is damaged (%2)").arg(file, what).toStdString());
+}
+
+// v2: "stridemark.journal.v2 fnv1a64=<hex> bytes=<n>\n" then exactly n payload bytes whose
+// FNV-1a matches. Returns the payload, or throws naming the first check that failed.
+QByteArray checkedPayload(const QByteArray& bytes) {
+  const qsizetype newline = bytes.indexOf('\n');
+  if (newline < 0) bad(QStringLiteral("no header line"));
+  static const QRegularExpression header(
+      QStringLiteral("^stridemark\\.journal\\.v2 fnv1a64=([0-9a-f]{16}) bytes=([0-9]{1,12})$"));
+  const auto match = header.match(QString::fromLatin1(bytes.left(newline)));
+  if (!match.hasMatch()) bad(QStringLiteral("header line is not a v2 journal header"));
+  const QByteArray payload = bytes.mid(newline + 1);
+  const qint64 declared = match.captured(2).toLongLong();
+  if (payload.size() != declared)
+    bad(QStringLiteral("%1 payload bytes where the header promises %2 (cut short or appended to)")
+            .arg(payload.size())
+            .arg(declared));
+  const QString sum = QStringLiteral("%1").arg(fnv1a64(payload), 16, 16, QLatin1Char('0'));
+  if (sum != match.captured(1))
+    bad(QStringLiteral("checksum %1 where the header promises %2 (the content was changed)")
+            .arg(sum, match.captured(1)));
+  return payload;
+}
 
 // Written with core's plain JSON writer: the journal is rewritten on every edit, and building
 // a QJsonDocument of a 20,000-event trial took ~12 ms of each edit
 // (tests/bench/desk_rescore_bench).
-QByteArray encode(const model::Project& project, const QString& projectPath) {
+QByteArray encodePayload(const model::Project& project, const QString& projectPath) {
   const auto& a = project.annotation;
   formats::JsonOut out(0);  // compact: one line
   const auto text = [&out](const QString& s) { out.string(s.toStdString()); };
@@ -98,8 +127,9 @@ QByteArray encode(const model::Project& project, const QString& projectPath) {
   out.key("trial");
   out.beginObject();
   const std::pair<const char*, const std::string*> texts[] = {
-      {"subject", &t.subject},   {"species", &t.species}, {"condition", &t.condition},
-      {"observer", &t.observer}, {"notes", &t.notes},     {"speed_source", &t.speedSource}};
+      {"subject", &t.subject},         {"species", &t.species},    {"condition", &t.condition},
+      {"observer", &t.observer},       {"exam_date", &t.examDate}, {"notes", &t.notes},
+      {"speed_source", &t.speedSource}};
   for (const auto& [key, value] : texts) {
     out.key(key);
     out.string(*value);
@@ -140,36 +170,37 @@ QByteArray encode(const model::Project& project, const QString& projectPath) {
   return QByteArray(json.data(), static_cast<qsizetype>(json.size()));
 }
 
-model::Project decode(const QByteArray& bytes, const QString& file) {
+model::Project decodePayload(const QByteArray& bytes, bool v2) {
   QJsonParseError err{};
   const auto json = QJsonDocument::fromJson(bytes, &err);
   if (json.isNull())
-    fail(file, QStringLiteral("JSON error at byte %1: %2").arg(err.offset).arg(err.errorString()));
+    bad(QStringLiteral("JSON error at byte %1: %2").arg(err.offset).arg(err.errorString()));
   const auto root = json.object();
-  if (root["schema"].toString() != QLatin1String(kSchema))
-    fail(file, QStringLiteral("unknown schema"));
+  if (root["schema"].toString() != QLatin1String(v2 ? kSchema : kSchemaV1))
+    bad(QStringLiteral("unknown schema"));
   model::Project p;
   auto& a = p.annotation;
   a.limbs = model::LimbSet::fromName(root["limb_set"].toString().toStdString());
   a.captureRate = parseRate(root["capture_rate"].toString().toStdString(), "capture rate");
   a.referenceLimb = root["reference_limb"].toInt();
-  if (a.referenceLimb < 0 || a.referenceLimb >= a.limbs.size()) fail(file, "bad reference limb");
+  if (a.referenceLimb < 0 || a.referenceLimb >= a.limbs.size())
+    bad(QStringLiteral("bad reference limb"));
   for (const auto& item : root["events"].toArray()) {
     const auto e = item.toArray();
     const int limb = e.at(0).toInt(-1);
-    if (e.size() != 3 || limb < 0 || limb >= a.limbs.size()) fail(file, "bad event entry");
+    if (e.size() != 3 || limb < 0 || limb >= a.limbs.size()) bad(QStringLiteral("bad event entry"));
     a.events.push_back(
         {e.at(2).toInteger(), limb,
          e.at(1).toInt() == 0 ? model::EventKind::touchdown : model::EventKind::liftoff});
   }
   for (const auto& item : root["hidden"].toArray()) {
     const auto h = item.toArray();
-    if (h.size() != 3) fail(file, "bad hidden span entry");
+    if (h.size() != 3) bad(QStringLiteral("bad hidden span entry"));
     a.hidden.push_back({h.at(0).toInt(), h.at(1).toInteger(), h.at(2).toInteger()});
   }
   for (const auto& item : root["excluded"].toArray()) {
     const auto x = item.toArray();
-    if (x.size() != 2) fail(file, "bad excluded stride entry");
+    if (x.size() != 2) bad(QStringLiteral("bad excluded stride entry"));
     a.excluded.push_back({x.at(0).toInteger(), x.at(1).toString().toStdString()});
   }
   if (root.contains("clip")) {
@@ -192,14 +223,52 @@ model::Project decode(const QByteArray& bytes, const QString& file) {
   return p;
 }
 
+}  // namespace
+
+std::uint64_t fnv1a64(const QByteArray& bytes) {
+  std::uint64_t hash = 14695981039346656037ULL;  // FNV-1a 64-bit offset basis and prime
+  for (const char c : bytes) {
+    hash ^= static_cast<unsigned char>(c);
+    hash *= 1099511628211ULL;
+  }
+  return hash;
+}
+
+QByteArray encode(const model::Project& project, const QString& projectPath) {
+  const QByteArray payload = encodePayload(project, projectPath);
+  const QByteArray header = QStringLiteral("%1 fnv1a64=%2 bytes=%3\n")
+                                .arg(QLatin1String(kSchema))
+                                .arg(fnv1a64(payload), 16, 16, QLatin1Char('0'))
+                                .arg(payload.size())
+                                .toLatin1();
+  return header + payload;
+}
+
+model::Project decode(const QByteArray& bytes, const QString& file) {
+  try {
+    const bool v1 = bytes.startsWith('{');  // v1 journals were the bare JSON
+    model::Project journalled = decodePayload(v1 ? bytes : checkedPayload(bytes), !v1);
+    // The project reader's checks are stricter than the journal's layout: recovering only what
+    // it accepts means a recovered project can be saved and opened again.
+    return formats::parseProjectJson(formats::projectJsonText(journalled),
+                                     file.toStdString() + " (as a project)");
+  } catch (const BadPayload& e) {
+    fail(file, e.what);
+  } catch (const Error& e) {
+    fail(file, QString::fromStdString(e.what()));
+  }
+}
+
 void write(const QString& file, const model::Project& project, const QString& projectPath) {
-  QSaveFile out(file);
-  if (!out.open(QIODevice::WriteOnly) || out.write(encode(project, projectPath)) < 0 ||
-      !out.commit()) {
+  try {
+    formats::writeFileAtomically(file.toStdString(), encode(project, projectPath).toStdString(),
+                                 formats::Durability::survivePowerLoss);
+  } catch (const Error& e) {
     throw Error(ErrorCategory::io,
-                QStringLiteral("%1: cannot write the autosave journal (%2). Check free space "
-                               "and write permission of the folder; save the project elsewhere.")
-                    .arg(file, out.errorString())
+                QStringLiteral("Autosave journal not updated: %1. The last good journal is "
+                               "kept, but edits since then are only in memory: free space on "
+                               "that disk, or save the project elsewhere (File > Save As).")
+                    .arg(QString::fromStdString(e.what()))
                     .toStdString());
   }
 }
@@ -213,6 +282,20 @@ std::optional<model::Project> read(const QString& file) {
                                        .toStdString());
   }
   return decode(in.readAll(), file);
+}
+
+QString moveAside(const QString& file) {
+  QString target = file + QLatin1String(kDamagedSuffix);
+  for (int n = 2; QFile::exists(target); ++n)
+    target = file + QLatin1String(kDamagedSuffix) + QStringLiteral("-%1").arg(n);
+  if (!QFile::rename(file, target)) {
+    throw Error(ErrorCategory::io,
+                QStringLiteral("%1: could not move the damaged journal aside to %2; move it "
+                               "yourself before opening the project again.")
+                    .arg(file, target)
+                    .toStdString());
+  }
+  return target;
 }
 
 }  // namespace stridemark::ui::journal

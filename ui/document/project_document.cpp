@@ -15,17 +15,21 @@ namespace stridemark::ui {
 ProjectDocument::ProjectDocument(QObject* parent) : QObject(parent) {
   // The journal follows the history: every push, undo or redo rewrites it.
   connect(&undo_, &QUndoStack::indexChanged, this, [this] {
-    if (resetting_) return;
-    try {
-      if (undo_.isClean()) {
-        removeJournal();
-      } else {
-        writeJournal();
-      }
-    } catch (const Error& e) {
-      emit journalFailed(QString::fromStdString(e.what()));
-    }
+    if (!resetting_) syncJournal();
   });
+}
+
+void ProjectDocument::syncJournal() {
+  try {
+    if (undo_.isClean()) {
+      removeJournal();
+    } else {
+      writeJournal();
+    }
+    emit journalWritten();
+  } catch (const Error& e) {
+    emit journalFailed(QString::fromStdString(e.what()));
+  }
 }
 
 ProjectDocument::~ProjectDocument() {
@@ -62,7 +66,7 @@ void ProjectDocument::reset(model::Project project, const QString& projectPath, 
   if (modified) {
     // A recovered state is unsaved: mark clean at an index that can never be reached again.
     undo_.resetClean();
-    writeJournal();
+    syncJournal();
   }
   ++revision_;
   emit projectReset();

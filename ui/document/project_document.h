@@ -79,13 +79,17 @@ class ProjectDocument : public QObject {
   void trialChanged();
   void projectReset();
   void pathChanged(const QString& path);
-  // The journal could not be written (disk full, read-only folder): the UI must warn.
+  // The journal could not be written (disk full, read-only folder): the UI must warn until
+  // journalWritten() says a later write succeeded. The message names the file and the reason.
   void journalFailed(const QString& message);
+  void journalWritten();
 
  private:
   friend class EditCommand;
   model::Project& mutableProject() { return project_; }
   void afterEdit(bool trialToo);
+  // Writes (or, when clean, removes) the journal; reports the outcome by signal, never throws.
+  void syncJournal();
 
   model::Project project_;
   QUndoStack undo_;

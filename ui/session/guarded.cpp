@@ -1,6 +1,7 @@
 #include "ui/session/guarded.h"
 
 #include <QMessageBox>
+#include <cstdio>
 #include <exception>
 
 #include "common/error.h"
@@ -25,6 +26,10 @@ void reportError(QWidget* parent, const QString& title, const QString& text) {
     sink()(parent, title, text);
     return;
   }
+  // Also on stderr: seen when the desk runs from a terminal or a script, and kept in its log.
+  std::fprintf(stderr, "stridemark-desk: %s: %s\n", title.toLocal8Bit().constData(),
+               text.toLocal8Bit().constData());
+  std::fflush(stderr);
   QMessageBox::warning(parent, title, text);
 }
 

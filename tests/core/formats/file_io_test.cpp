@@ -2,6 +2,8 @@
 
 #include <gtest/gtest.h>
 #include <sys/stat.h>
+#include <sys/wait.h>
+#include <unistd.h>
 
 #include "common/error.h"
 #include "test_support.h"
@@ -62,6 +64,57 @@ TEST(FileIo, RegenerableOutputIsReplacedWholeOrNotAtAll) {
   for ([[maybe_unused]] const auto& entry : std::filesystem::directory_iterator(folder.path()))
     ++entries;
   EXPECT_EQ(entries, 1u);
+}
+
+// A pid that certainly ran and has ended: a child that exits at once, reaped.
+pid_t finishedPid() {
+  const pid_t child = ::fork();
+  if (child == 0) ::_exit(0);
+  int status = 0;
+  ::waitpid(child, &status, 0);
+  return child;
+}
+
+// Common practice, no source: the temporary file names its writer, so a later run can tell a
+// killed writer's leftover from a live writer's file.
+TEST(FileIo, TemporaryFileNamesItsWriter) {
+  testing::TempFolder folder;
+  AtomicFile file(folder / "trial.stridemark");
+  file.write("x");
+  std::vector<std::string> names;
+  for (const auto& entry : std::filesystem::directory_iterator(folder.path()))
+    names.push_back(entry.path().filename().string());
+  ASSERT_EQ(names.size(), 1u);
+  const std::string expected = "trial.stridemark.tmp-" + std::to_string(::getpid()) + "-";
+  EXPECT_EQ(names[0].substr(0, expected.size()), expected) << names[0];
+  EXPECT_EQ(names[0].size(), expected.size() + 6) << names[0];
+}
+
+// Common practice, no source: clean-up removes only our own pattern, only for a dead writer.
+TEST(FileIo, StaleTemporariesOfDeadWritersAreRemovedAndNothingElse) {
+  testing::TempFolder folder;
+  const auto target = folder / "trial.stridemark";
+  const std::string dead = std::to_string(finishedPid());
+  const std::string alive = std::to_string(::getpid());
+  const auto stale = folder / ("trial.stridemark.tmp-" + dead + "-a1B2c3");
+  const std::vector<std::string> kept = {
+      "trial.stridemark",
+      "trial.stridemark.tmp-" + alive + "-a1B2c3",     // a live writer (this process)
+      "trial.stridemark.tmp-Zq81xy",                   // older naming without a pid
+      "trial.stridemark.tmp-" + dead + "-a1B2",        // not mkstemp's six characters
+      "trial.stridemark.tmp-" + dead + "-a1B2c3.bak",  // something else entirely
+      "other.stridemark.tmp-" + dead + "-a1B2c3",      // another file's temporary
+      "trial.stridemark.tmp-x" + dead + "-a1B2c3",     // not a pid
+  };
+  testing::writeText(stale, "half a save");
+  for (const auto& name : kept) testing::writeText(folder / name, "keep me");
+  std::filesystem::create_directory(folder / ("trial.stridemark.tmp-" + dead + "-dir123"));
+  const auto removed = removeStaleTemporaries(target);
+  ASSERT_EQ(removed.size(), 1u);
+  EXPECT_EQ(removed[0], stale);
+  EXPECT_FALSE(std::filesystem::exists(stale));
+  for (const auto& name : kept) EXPECT_TRUE(std::filesystem::exists(folder / name)) << name;
+  EXPECT_TRUE(std::filesystem::is_directory(folder / ("trial.stridemark.tmp-" + dead + "-dir123")));
 }
 
 }  // namespace
