@@ -28,6 +28,8 @@ int runFrame(const FrameOptions& options) {
   av_log_set_level(AV_LOG_ERROR);
   auto index =
       std::make_shared<const video::FrameIndex>(video::FrameIndex::openCached(options.video));
+  if (!index->sidecarProblem().empty())
+    std::cerr << "stridemark: note: " << index->sidecarProblem() << '\n';
   if (options.index < 0 || options.index >= index->frameCount())
     throw Error(ErrorCategory::seek, options.video + ": frame " + std::to_string(options.index) +
                                          " does not exist; the clip has frames 0.." +

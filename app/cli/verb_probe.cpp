@@ -77,6 +77,8 @@ void addProbeVerb(CLI::App& app, VerbAction& action) {
     action = [options] {
       av_log_set_level(AV_LOG_ERROR);
       const video::VideoInfo info = video::probeVideo(options->video);
+      if (!info.indexCacheNote.empty())
+        std::cerr << "stridemark: note: " << info.indexCacheNote << '\n';
       if (options->json)
         std::cout << toJson(info).dump(2) << '\n';
       else

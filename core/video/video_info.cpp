@@ -133,6 +133,7 @@ VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
   info.keyframeInterval.median = medianOf(intervals);
 
   addRateWarnings(info, steps, median);
+  info.indexCacheNote = index.sidecarProblem();
   info.damagedFrames = index.damagedFrames();
   if (!info.damagedFrames.empty())
     info.warnings.push_back(

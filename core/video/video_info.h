@@ -37,10 +37,12 @@ struct VideoInfo {
   KeyframeIntervalStats keyframeInterval;
   std::vector<std::int64_t> damagedFrames;
   std::vector<std::string> warnings;
+  std::string indexCacheNote;  // FrameIndex::sidecarProblem(): a cache was rebuilt, and why
 };
 
-// Opens the file, scans the index (or loads it from the index cache) and fills VideoInfo. Throws stridemark::Error with a message
-// naming the file for missing/empty/unreadable files and files without video.
+// Opens the file, scans the index (or loads it from the index cache) and fills VideoInfo. Throws
+// stridemark::Error with a message naming the file for missing/empty/unreadable files and files
+// without video.
 VideoInfo probeVideo(const std::string& path);
 // Same, reusing an index already built for this file.
 VideoInfo describeVideo(const std::string& path, const FrameIndex& index);
