@@ -1,5 +1,6 @@
 // `stridemark frame VIDEO --index N (--png OUT | --md5)`: one exact frame, as a PNG or as the
-// MD5 of its raw planes in native pixel format (the value `ffmpeg -f framemd5` prints).
+// MD5 of its raw planes in native pixel format (the value `ffmpeg -f framemd5` prints). Frames
+// of videos with a display rotation are turned upright first, as ffmpeg does by default.
 #include <iostream>
 #include <memory>
 
