@@ -78,9 +78,9 @@ TEST(ExportVideoDefects, DamagedFramesAreSkippedAndListedAndTheClipFinishes) {
   const std::set<std::int64_t> bad = framesFfmpegCannotDecode(dir / "trot.mp4", 10, 129);
   // Common practice, no source: the damage must really break frames for the test to count.
   ASSERT_FALSE(bad.empty());
-  const CommandResult r = run(stridemarkBinary() + " export '" +
-                              (dir / "trot.stridemark").string() + "' --out '" +
-                              (dir / "out").string() + "' --clip --from 10 --to 129 --figures none");
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (dir / "trot.stridemark").string() + "' --out '" +
+          (dir / "out").string() + "' --clip --from 10 --to 129 --figures none");
   // Source: issue 17 item 11: one undecodable frame must not abort the marked clip.
   ASSERT_EQ(r.exitCode, 0) << r.out;
   std::string list;
@@ -103,9 +103,9 @@ TEST(ExportVideoDefects, RotatedVideoGivesAnUprightClip) {
                 .exitCode,
             0);
   formats::writeProjectFile(dir / "trot.stridemark", trotProject("trot.mp4", 200));
-  const CommandResult r = run(stridemarkBinary() + " export '" +
-                              (dir / "trot.stridemark").string() + "' --out '" +
-                              (dir / "out").string() + "' --clip --from 10 --to 49 --figures none");
+  const CommandResult r =
+      run(stridemarkBinary() + " export '" + (dir / "trot.stridemark").string() + "' --out '" +
+          (dir / "out").string() + "' --clip --from 10 --to 49 --figures none");
   ASSERT_EQ(r.exitCode, 0) << r.out;
   EXPECT_NE(r.out.find("turned upright"), std::string::npos) << r.out;
   // Source: ffprobe: the 320x240 stored picture, turned a quarter, is 240 wide and 320 high,

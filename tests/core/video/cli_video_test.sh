@@ -86,8 +86,8 @@ done
 # Issue 17 item 11: damaged packets. probe lists what ffmpeg cannot decode; frame N fails
 # naming the frame.
 cp "$clip" "$dir/damaged.mp4"
-read -r pos size < <(ffprobe -v error -select_streams v:0 -show_entries packet=pos,size \
-  -of csv=p=0 "$clip" | sed -n 20p | awk -F, '{print $1, $2}')
+read -r size pos < <(ffprobe -v error -select_streams v:0 -show_entries packet=pos,size \
+  -of csv=p=0 "$clip" | sed -n 20p | tr , " ")  # ffprobe prints size before pos
 /usr/bin/python3 - "$dir/damaged.mp4" "$pos" "$size" <<'PY'
 import random, sys
 path, pos, size = sys.argv[1], int(sys.argv[2]), int(sys.argv[3])
