@@ -85,6 +85,15 @@ ui::exports::ExportProgress stderrProgress() {
   };
 }
 
+// "3, 17, 40" (the first 20, then how many more).
+std::string frameList(const std::vector<std::int64_t>& frames) {
+  std::string text;
+  for (std::size_t i = 0; i < frames.size() && i < 20; ++i)
+    text += (i ? ", " : "") + std::to_string(frames[i]);
+  if (frames.size() > 20) text += " and " + std::to_string(frames.size() - 20) + " more";
+  return text;
+}
+
 int runExport(const ExportArgs& args) {
   ui::exports::ExportOptions options;
   options.projectPath = args.project;
@@ -107,7 +116,17 @@ int runExport(const ExportArgs& args) {
   if (outcome.clip.frames > 0) {
     std::cerr << "export: marked clip " << outcome.clip.frames << " frames, " << outcome.clip.width
               << "x" << outcome.clip.height << '\n';
+    if (outcome.clip.rotationApplied)
+      std::cerr << "export: note: the video asks for a " << outcome.clip.rotationDegrees
+                << " degree display rotation; the clip is turned upright\n";
+    else if (outcome.clip.rotationDegrees != 0)
+      std::cerr << "export: warning: the video asks for a " << outcome.clip.rotationDegrees
+                << " degree display rotation that could not be applied; the clip is as stored\n";
   }
+  if (!outcome.clip.skippedDamaged.empty())
+    std::cerr << "export: warning: marked clip skipped " << outcome.clip.skippedDamaged.size()
+              << " damaged frame(s): " << frameList(outcome.clip.skippedDamaged) << " ("
+              << outcome.clip.firstDamageReason << ")\n";
   if (outcome.clipProblem) {
     std::cerr << "stridemark: no marked clip: " << *outcome.clipProblem << '\n';
     return kExitBadInput;

@@ -1,5 +1,6 @@
 // `stridemark frame VIDEO --index N (--png OUT | --md5)`: one exact frame, as a PNG or as the
-// MD5 of its raw planes in native pixel format (the value `ffmpeg -f framemd5` prints).
+// MD5 of its raw planes in native pixel format (the value `ffmpeg -f framemd5` prints). Frames
+// of videos with a display rotation are turned upright first, as ffmpeg does by default.
 #include <iostream>
 #include <memory>
 
@@ -25,18 +26,24 @@ struct FrameOptions {
 };
 
 int runFrame(const FrameOptions& options) {
-  av_log_set_level(AV_LOG_ERROR);
+  av_log_set_level(AV_LOG_FATAL);  // our own messages name the frame and the reason
   auto index =
       std::make_shared<const video::FrameIndex>(video::FrameIndex::openCached(options.video));
+  if (!index->sidecarProblem().empty())
+    std::cerr << "stridemark: note: " << index->sidecarProblem() << '\n';
   if (options.index < 0 || options.index >= index->frameCount())
     throw Error(ErrorCategory::seek, options.video + ": frame " + std::to_string(options.index) +
                                          " does not exist; the clip has frames 0.." +
                                          std::to_string(index->frameCount() - 1) + ".");
   video::FrameReader reader(options.video, index);
   const video::DecodedFrame frame = reader.frameAt(options.index);
+  // A concealed picture is not the recorded frame: never hand it out as an exact one.
   if (frame.damaged)
-    std::cerr << "stridemark: warning: " << options.video << ": frame " << options.index
-              << " decoded with errors (damaged data)\n";
+    throw Error(ErrorCategory::decode,
+                options.video + ": frame " + std::to_string(options.index) +
+                    " is damaged: it decoded with errors (the decoder concealed damaged data), "
+                    "so it is not the recorded picture. `stridemark probe` lists every damaged "
+                    "frame; pick a neighbouring frame.");
   if (options.md5) std::cout << frame.md5() << '\n';
   if (!options.png.empty()) video::writePng(frame, options.png);
   return 0;

@@ -19,7 +19,16 @@ namespace {
 struct ProbeOptions {
   std::string video;
   bool json = false;
+  bool quick = false;
 };
+
+std::string frameList(const std::vector<std::int64_t>& frames) {
+  std::string text;
+  for (std::size_t i = 0; i < frames.size() && i < 20; ++i)
+    text += (i ? ", " : "") + std::to_string(frames[i]);
+  if (frames.size() > 20) text += " and " + std::to_string(frames.size() - 20) + " more";
+  return text;
+}
 
 nlohmann::json toJson(const video::VideoInfo& info) {
   nlohmann::json j;
@@ -42,7 +51,15 @@ nlohmann::json toJson(const video::VideoInfo& info) {
   j["keyframe_interval"] = {{"min", info.keyframeInterval.min},
                             {"median", info.keyframeInterval.median},
                             {"max", info.keyframeInterval.max}};
+  j["stored_width"] = info.storedWidth;
+  j["stored_height"] = info.storedHeight;
+  j["rotation"] = info.rotation.degrees;  // counter-clockwise, as ffprobe's display matrix
+  j["rotation_applied"] = info.rotation.applied;
   j["damaged_frames"] = info.damagedFrames;
+  j["damaged_frames_checked"] = info.everyFrameDecoded ? "every frame decoded" : "container flags";
+  nlohmann::json details = nlohmann::json::array();
+  for (const auto& d : info.damage) details.push_back({{"frame", d.frame}, {"reason", d.reason}});
+  j["damaged_frame_details"] = details;
   j["warnings"] = info.warnings;
   return j;
 }
@@ -60,7 +77,21 @@ void printText(const video::VideoInfo& info) {
       << ")\n"
       << "  duration      " << std::fixed << std::setprecision(3) << info.durationSeconds << " s\n"
       << "  keyframes     every " << info.keyframeInterval.min << ".." << info.keyframeInterval.max
-      << " frames (median " << info.keyframeInterval.median << ")\n";
+      << " frames (median " << info.keyframeInterval.median << ")\n"
+      << "  rotation      " << info.rotation.degrees << " degrees"
+      << (info.rotation.degrees == 0 ? ""
+          : info.rotation.applied
+              ? " (counter-clockwise; applied: frames are turned upright)"
+              : " (counter-clockwise; NOT applied: " + info.rotation.notApplied + ")")
+      << '\n'
+      << "  damaged       "
+      << (info.damage.empty()
+              ? std::string("none")
+              : std::to_string(info.damage.size()) + " frame(s): " + frameList(info.damagedFrames))
+      << (info.everyFrameDecoded ? " (every frame decoded)"
+                                 : " (container flags only; run without --quick to decode)")
+      << '\n';
+  for (const auto& d : info.damage) out << "    frame " << d.frame << ": " << d.reason << '\n';
   for (const auto& w : info.warnings) out << "  warning: " << w << '\n';
   std::cout << out.str();
 }
@@ -70,13 +101,20 @@ void printText(const video::VideoInfo& info) {
 void addProbeVerb(CLI::App& app, VerbAction& action) {
   auto options = std::make_shared<ProbeOptions>();
   CLI::App* verb = app.add_subcommand(
-      "probe", "Frame count, capture/file rate, size, codec and keyframe spacing of a video");
+      "probe",
+      "Frame count, rates, size, rotation, codec, keyframe spacing and damaged frames of a video");
   verb->add_option("VIDEO", options->video, "video file")->required();
   verb->add_flag("--json", options->json, "print JSON instead of text");
+  verb->add_flag("--quick", options->quick,
+                 "skip decoding every frame (damaged frames are then only those the container "
+                 "flags)");
   verb->callback([options, &action] {
     action = [options] {
-      av_log_set_level(AV_LOG_ERROR);
-      const video::VideoInfo info = video::probeVideo(options->video);
+      // Decoder complaints about damaged frames would flood stderr; probe lists them itself.
+      av_log_set_level(AV_LOG_FATAL);
+      const video::VideoInfo info = video::probeVideo(options->video, !options->quick);
+      if (!info.indexCacheNote.empty())
+        std::cerr << "stridemark: note: " << info.indexCacheNote << '\n';
       if (options->json)
         std::cout << toJson(info).dump(2) << '\n';
       else

@@ -16,35 +16,24 @@ namespace stridemark::video {
 namespace {
 
 constexpr std::uint64_t kMiB = 1 << 20;
-constexpr char kMagic[8] = {'S', 'M', 'K', 'F', 'I', 'D', 'X', '\n'};
-
-std::uint64_t fnv1a(const char* data, std::size_t size, std::uint64_t hash) {
-  for (std::size_t i = 0; i < size; ++i) {
-    hash ^= static_cast<unsigned char>(data[i]);
-    hash *= 1099511628211ULL;
-  }
-  return hash;
-}
 
 std::uint64_t hashRange(std::ifstream& in, std::uint64_t offset, std::uint64_t size) {
   std::vector<char> buffer(static_cast<std::size_t>(size));
   in.seekg(static_cast<std::streamoff>(offset));
   in.read(buffer.data(), static_cast<std::streamsize>(size));
-  return fnv1a(buffer.data(), static_cast<std::size_t>(in.gcount()), 14695981039346656037ULL);
-}
-
-template <typename T>
-void writeValue(std::ofstream& out, T value) {
-  out.write(reinterpret_cast<const char*>(&value), sizeof value);
-}
-
-template <typename T>
-bool readValue(std::ifstream& in, T& value) {
-  in.read(reinterpret_cast<char*>(&value), sizeof value);
-  return static_cast<bool>(in);
+  return detail::fnv1a64(std::string_view(buffer.data(), static_cast<std::size_t>(in.gcount())));
 }
 
 }  // namespace
+
+std::uint64_t detail::fnv1a64(std::string_view bytes) {
+  std::uint64_t hash = 14695981039346656037ULL;
+  for (const char c : bytes) {
+    hash ^= static_cast<unsigned char>(c);
+    hash *= 1099511628211ULL;
+  }
+  return hash;
+}
 
 std::string signatureText(const VideoSignature& s) {
   char text[64];
@@ -209,82 +198,17 @@ std::vector<std::int64_t> FrameIndex::damagedFrames() const {
   return out;
 }
 
-void FrameIndex::saveSidecar(const std::string& sidecarPath) const {
-  const std::string temp = sidecarPath + ".part";
-  {
-    std::ofstream out(temp, std::ios::binary | std::ios::trunc);
-    if (!out) throw Error(ErrorCategory::io, sidecarPath + ": cannot write the index cache.");
-    out.write(kMagic, sizeof kMagic);
-    writeValue(out, kSidecarVersion);
-    writeValue(out, signature_.fileSize);
-    writeValue(out, signature_.headHash);
-    writeValue(out, signature_.tailHash);
-    writeValue(out, static_cast<std::int32_t>(streamIndex_));
-    writeValue(out, timeBase_.num);
-    writeValue(out, timeBase_.den);
-    writeValue(out, static_cast<std::uint8_t>(synthesised_));
-    writeValue(out, missingPackets_);
-    writeValue(out, static_cast<std::uint64_t>(packets_.size()));
-    for (const auto& p : packets_) {
-      writeValue(out, p.pts);
-      writeValue(out, p.dts);
-      writeValue(out, p.pos);
-      writeValue(out, p.size);
-      writeValue(out, static_cast<std::uint8_t>((p.keyframe ? 1 : 0) | (p.damaged ? 2 : 0) |
-                                                (p.discarded ? 4 : 0)));
-    }
-    if (!out) throw Error(ErrorCategory::io, sidecarPath + ": writing the index cache failed.");
-  }
-  std::error_code ec;
-  std::filesystem::rename(temp, sidecarPath, ec);
-  if (ec) throw Error(ErrorCategory::io, sidecarPath + ": cannot replace the index cache.");
-}
-
-std::optional<FrameIndex> FrameIndex::loadSidecar(const std::string& sidecarPath,
-                                                  const VideoSignature& expected) {
-  std::ifstream in(sidecarPath, std::ios::binary);
-  if (!in) return std::nullopt;
-  char magic[sizeof kMagic] = {};
-  in.read(magic, sizeof magic);
-  std::uint32_t version = 0;
-  if (!in || std::memcmp(magic, kMagic, sizeof kMagic) != 0 || !readValue(in, version) ||
-      version != kSidecarVersion)
-    return std::nullopt;
-  FrameIndex index;
-  std::int32_t stream = 0;
-  std::uint8_t synthesised = 0;
-  std::uint64_t count = 0;
-  if (!readValue(in, index.signature_.fileSize) || !readValue(in, index.signature_.headHash) ||
-      !readValue(in, index.signature_.tailHash) || !(index.signature_ == expected) ||
-      !readValue(in, stream) || !readValue(in, index.timeBase_.num) ||
-      !readValue(in, index.timeBase_.den) || !readValue(in, synthesised) ||
-      !readValue(in, index.missingPackets_) || !readValue(in, count) ||
-      count > expected.fileSize)  // every packet takes at least one byte of the file
-    return std::nullopt;
-  index.streamIndex_ = stream;
-  index.packets_.resize(static_cast<std::size_t>(count));
-  for (auto& p : index.packets_) {
-    std::uint8_t flags = 0;
-    if (!readValue(in, p.pts) || !readValue(in, p.dts) || !readValue(in, p.pos) ||
-        !readValue(in, p.size) || !readValue(in, flags))
-      return std::nullopt;
-    p.keyframe = flags & 1;
-    p.damaged = flags & 2;
-    p.discarded = flags & 4;
-  }
-  index.finish();
-  index.synthesised_ = synthesised != 0;
-  if (index.frameCount() == 0) return std::nullopt;
-  index.loadedFromSidecar_ = true;
-  return index;
-}
-
 FrameIndex FrameIndex::buildOrLoad(const std::string& path, const std::string& sidecarPath,
                                    const std::function<bool(double)>& progress) {
   if (!std::filesystem::exists(path))
     throw Error(ErrorCategory::io, path + ": file not found. Check the path and try again.");
-  if (auto cached = loadSidecar(sidecarPath, computeSignature(path))) return std::move(*cached);
+  std::string problem;
+  if (auto cached = loadSidecar(sidecarPath, computeSignature(path), &problem))
+    return std::move(*cached);
   FrameIndex index = build(path, progress);
+  if (!problem.empty())
+    index.sidecarProblem_ =
+        sidecarPath + ": the index cache " + problem + "; ignored it and rebuilt the index.";
   try {
     index.saveSidecar(sidecarPath);
     index.sidecarWritten_ = true;
@@ -321,8 +245,7 @@ std::string defaultSidecarPath(const std::string& videoPath) {
   const std::string absolute = fs::absolute(videoPath, ec).lexically_normal().string();
   char name[32];
   std::snprintf(name, sizeof name, "%016llx.smindex",
-                static_cast<unsigned long long>(
-                    fnv1a(absolute.data(), absolute.size(), 14695981039346656037ULL)));
+                static_cast<unsigned long long>(detail::fnv1a64(absolute)));
   return (folder / name).string();
 }
 

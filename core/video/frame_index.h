@@ -1,12 +1,14 @@
 #pragma once
 // The frame index: built by a demux-only scan (no decoding). Frame n is the n-th presented
 // frame in pts order; packets that an edit list hides (AV_PKT_FLAG_DISCARD) stay in the decode
-// order but get no frame number. Saved to a sidecar bound to the file by a signature (size +
-// hash of the first and last MiB) and a format version, so a stale sidecar is rebuilt.
+// order but get no frame number. Saved to a text sidecar bound to the file by its signature
+// (computeSignature), a format version and a checksum of the payload, so a stale, foreign or
+// damaged sidecar is rebuilt and never trusted (issue 17 item 5).
 #include <cstdint>
 #include <functional>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "common/rational.h"
@@ -43,9 +45,14 @@ std::string signatureText(const VideoSignature& signature);
 // STRIDEMARK_INDEX_CACHE is "off" or no folder is known.
 std::string defaultSidecarPath(const std::string& videoPath);
 
+namespace detail {
+// 64-bit FNV-1a: the signature's hash and the sidecar's checksum.
+std::uint64_t fnv1a64(std::string_view bytes);
+}  // namespace detail
+
 class FrameIndex {
  public:
-  static constexpr std::uint32_t kSidecarVersion = 1;
+  static constexpr std::uint32_t kSidecarVersion = 2;  // 2: text with a checksum (1: binary)
 
   // Demux-only scan of the first video stream. `progress(fraction)` may return false to
   // cancel, which throws Error(io, "... cancelled"). Damaged packets are recorded, not fatal.
@@ -58,9 +65,12 @@ class FrameIndex {
   // buildOrLoad with the per-user index cache (defaultSidecarPath), or a plain build when
   // there is no usable cache folder.
   static FrameIndex openCached(const std::string& path);
-  // Returns nothing when the sidecar is missing, unreadable, of another version or stale.
+  // Returns nothing when the sidecar is missing, unreadable, of another version, damaged
+  // (checksum or content) or of another video. `problem` then says why, in a few words (empty
+  // when the file is simply missing).
   static std::optional<FrameIndex> loadSidecar(const std::string& sidecarPath,
-                                               const VideoSignature& expected);
+                                               const VideoSignature& expected,
+                                               std::string* problem = nullptr);
   void saveSidecar(const std::string& sidecarPath) const;  // throws Error(io)
 
   std::int64_t frameCount() const { return static_cast<std::int64_t>(frameToPacket_.size()); }
@@ -84,6 +94,9 @@ class FrameIndex {
   const VideoSignature& signature() const { return signature_; }
   bool sidecarWritten() const { return sidecarWritten_; }
   bool loadedFromSidecar() const { return loadedFromSidecar_; }
+  // One line, set by buildOrLoad when a sidecar was there but not trusted (damaged, foreign,
+  // other version) and the index was rebuilt instead: for a note on stderr or in the desk.
+  const std::string& sidecarProblem() const { return sidecarProblem_; }
   bool timestampsSynthesised() const { return synthesised_; }
   // Packets the container announced but the scan could not read (truncated file).
   std::int64_t missingPackets() const { return missingPackets_; }
@@ -104,6 +117,7 @@ class FrameIndex {
   bool loadedFromSidecar_ = false;
   std::int64_t missingPackets_ = 0;
   std::string scanProblem_;
+  std::string sidecarProblem_;
 };
 
 }  // namespace stridemark::video

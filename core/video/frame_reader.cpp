@@ -25,6 +25,7 @@ struct FrameReader::State {
   std::string path;
   const FrameIndex* index = nullptr;
   ReaderOptions options;
+  DisplayRotation rotation;
   std::shared_ptr<FramePool> pool;
   detail::OpenedInput input;
   detail::CodecContextPtr codec;
@@ -32,6 +33,9 @@ struct FrameReader::State {
   detail::FramePtr frame = detail::makeFrame();
   PacketKey keyKind = PacketKey::count;
   std::unordered_map<std::int64_t, std::int64_t> packetByKey;
+  // Packets (decode positions) the decoder refused, with its error text: their frames are
+  // damaged for good, so no retry from an earlier keyframe can help.
+  std::unordered_map<std::int64_t, std::string> rejected;
 
   // Decoder sequence state.
   bool positioned = false;       // demuxer and decoder continue a valid sequence
@@ -151,14 +155,22 @@ std::int64_t FrameReader::State::identify(const AVPacket& p) const {
 }
 
 DecodedFrame FrameReader::State::copyOut(std::int64_t n) const {
-  const PlaneLayout layout = planeLayoutFor(frame->width, frame->height, frame->format);
+  const bool turn = rotation.applied;
+  const PlaneLayout layout =
+      planeLayoutFor(turnedWidth(rotation, frame->width, frame->height),
+                     turnedHeight(rotation, frame->width, frame->height), frame->format);
   DecodedFrame out(n, layout, pool);
-  auto dst = out.mutablePlanes();
-  std::uint8_t* dstData[4] = {dst[0], dst[1], dst[2], dst[3]};
-  int dstLines[4] = {layout.linesize[0], layout.linesize[1], layout.linesize[2],
-                     layout.linesize[3]};
-  av_image_copy(dstData, dstLines, const_cast<const std::uint8_t**>(frame->data), frame->linesize,
-                static_cast<AVPixelFormat>(frame->format), frame->width, frame->height);
+  if (turn) {
+    copyTurned(frame->data, frame->linesize, frame->width, frame->height, frame->format, rotation,
+               out);
+  } else {
+    auto dst = out.mutablePlanes();
+    std::uint8_t* dstData[4] = {dst[0], dst[1], dst[2], dst[3]};
+    int dstLines[4] = {layout.linesize[0], layout.linesize[1], layout.linesize[2],
+                       layout.linesize[3]};
+    av_image_copy(dstData, dstLines, const_cast<const std::uint8_t**>(frame->data), frame->linesize,
+                  static_cast<AVPixelFormat>(frame->format), frame->width, frame->height);
+  }
   out.pts = framePts();
   out.keyframe = frame->key_frame != 0;
   out.pictureType = pictureTypeLetter(frame->pict_type);
@@ -204,7 +216,9 @@ RunResult FrameReader::State::feedOnePacket(std::int64_t first) {
                             : AVDISCARD_DEFAULT;
     const int sent = avcodec_send_packet(codec.get(), packet.get());
     av_packet_unref(packet.get());
-    (void)sent;  // a packet the decoder rejects shows up as a missing frame, handled by run()
+    // A packet the decoder rejects shows up as a missing frame in run(); remember why.
+    if (sent < 0 && sent != AVERROR(EAGAIN) && position >= 0)
+      rejected.emplace(position, detail::avErrorText(sent));
     return RunResult::done;
   }
 }
@@ -265,6 +279,9 @@ FrameReader::FrameReader(const std::string& path, std::shared_ptr<const FrameInd
                                          ": the frame index belongs to another stream; delete "
                                          "the index cache and open the file again");
   state_->openDecoder();
+  if (options.upright)
+    state_->rotation =
+        displayRotationOf(*state_->input.stream(), state_->input.stream()->codecpar->format);
   // A freshly opened file is positioned at its first packet: frame 0 needs no seek.
   state_->positioned = true;
   for (PacketKey kind : {PacketKey::pos, PacketKey::dts, PacketKey::pts}) {
@@ -279,6 +296,10 @@ FrameReader::FrameReader(const std::string& path, std::shared_ptr<const FrameInd
 
 FrameReader::~FrameReader() = default;
 
+const DisplayRotation& FrameReader::rotation() const {
+  return state_->rotation;
+}
+
 std::int64_t FrameReader::seekCount() const {
   return state_->seeks;
 }
@@ -287,7 +308,8 @@ std::int64_t FrameReader::nextSequentialFrame() const {
   return state_->positioned ? state_->lastOutput + 1 : -1;
 }
 
-std::int64_t FrameReader::decodeSpan(std::int64_t first, std::int64_t last, const FrameSink& sink) {
+std::int64_t FrameReader::decodeSpan(std::int64_t first, std::int64_t last, const FrameSink& sink,
+                                     const DamageSink& onDamaged) {
   const std::int64_t count = index_->frameCount();
   if (first < 0 || last >= count || first > last)
     throw Error(ErrorCategory::seek, state_->path + ": frames " + std::to_string(first) + ".." +
@@ -312,21 +334,28 @@ std::int64_t FrameReader::decodeSpan(std::int64_t first, std::int64_t last, cons
       s.positioned = false;
       continue;
     }
-    // missed: frame delivered+1 did not come out; go back further, then give up loudly.
+    // missed: frame delivered+1 did not come out; go back further, then give up loudly (or
+    // skip it when the caller takes damaged frames).
     if (delivered + 1 != stuckAt) {
       stuckAt = delivered + 1;
       backoff = 0;
     }
-    if (++backoff > kMaxBackoffs) {
-      const PacketEntry& p = index_->frame(stuckAt);
-      throw Error(ErrorCategory::decode,
-                  s.path + ": frame " + std::to_string(stuckAt) +
-                      " cannot be decoded (the decoder skipped it even when starting " +
-                      std::to_string(kMaxBackoffs) + " keyframes earlier; packet at byte " +
-                      std::to_string(p.pos) +
-                      "). The file may be damaged there; re-export the clip from the camera.");
-    }
     s.positioned = false;
+    const auto refused = s.rejected.find(index_->decodePosition(stuckAt));
+    const bool hopeless = refused != s.rejected.end();  // an earlier start cannot help
+    if (!hopeless && ++backoff <= kMaxBackoffs) continue;
+    const std::string reason = hopeless ? "the decoder rejected its data (" + refused->second + ")"
+                                        : "the decoder produced no picture for it, even starting " +
+                                              std::to_string(kMaxBackoffs) + " keyframes earlier";
+    if (!onDamaged)
+      throw Error(ErrorCategory::decode,
+                  s.path + ": frame " + std::to_string(stuckAt) + " is damaged: " + reason +
+                      " (packet at byte " + std::to_string(index_->frame(stuckAt).pos) +
+                      "). Other frames may be fine: `stridemark probe` lists every damaged "
+                      "frame; re-copy the clip from the camera if it should be whole.");
+    onDamaged(stuckAt, reason);
+    delivered = stuckAt;  // skip it
+    if (delivered == last) return delivered;
   }
 }
 

@@ -21,12 +21,16 @@
 
 #include "video/decoded_frame.h"
 #include "video/frame_index.h"
+#include "video/rotation.h"
 
 namespace stridemark::video {
 
 struct ReaderOptions {
   int decodeThreads = 1;  // 1 for latency (random access), 2 for throughput (refill, play)
   bool skipNonReferencePreroll = true;
+  // Turn frames upright when the stream carries a display rotation (rotation.h), as the ffmpeg
+  // CLI does; false gives the stored orientation.
+  bool upright = true;
 };
 
 class FrameReader {
@@ -46,12 +50,19 @@ class FrameReader {
   // Decodes frames first..last (inclusive, presentation order) and hands each to `sink` in
   // order. `sink` returns false to stop early (cancellation). Returns the last frame number
   // delivered, or first-1 when none was.
+  //
+  // A frame the decoder cannot produce throws Error(decode) naming it, unless `onDamaged` is
+  // given: then it is reported there (frame number, reason), skipped, and decoding goes on.
+  // Frames decoded with errors reach `sink` with DecodedFrame::damaged set.
   using FrameSink = std::function<bool(DecodedFrame&&)>;
-  std::int64_t decodeSpan(std::int64_t first, std::int64_t last, const FrameSink& sink);
+  using DamageSink = std::function<void(std::int64_t frame, const std::string& reason)>;
+  std::int64_t decodeSpan(std::int64_t first, std::int64_t last, const FrameSink& sink,
+                          const DamageSink& onDamaged = {});
 
   // The frame number the decoder would output next without seeking (-1 when unknown).
   std::int64_t nextSequentialFrame() const;
   const FrameIndex& index() const { return *index_; }
+  const DisplayRotation& rotation() const;
   std::int64_t seekCount() const;  // seeks done so far (for tests and benchmarks)
 
  private:

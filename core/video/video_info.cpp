@@ -84,7 +84,21 @@ void addRateWarnings(VideoInfo& info, const std::vector<std::int64_t>& steps, do
   }
 }
 
+void listDamagedFrameNumbers(VideoInfo& info) {
+  info.damagedFrames.clear();
+  for (const auto& d : info.damage) info.damagedFrames.push_back(d.frame);
+}
+
 }  // namespace
+
+void addDamageWarning(VideoInfo& info) {
+  listDamagedFrameNumbers(info);
+  if (info.damage.empty()) return;
+  info.warnings.push_back(
+      std::to_string(info.damage.size()) + " damaged frame(s), first at frame " +
+      std::to_string(info.damage.front().frame) + " (" + info.damage.front().reason +
+      "); `frame` refuses them and a marked-clip export skips them");
+}
 
 VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
   detail::OpenedInput input = detail::openVideoInput(path);
@@ -97,8 +111,11 @@ VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
   info.pixelFormatId = par.format;
   const char* pixName = av_get_pix_fmt_name(static_cast<AVPixelFormat>(par.format));
   info.pixelFormat = pixName ? pixName : "unknown";
-  info.width = par.width;
-  info.height = par.height;
+  info.storedWidth = par.width;
+  info.storedHeight = par.height;
+  info.rotation = displayRotationOf(stream, par.format);
+  info.width = turnedWidth(info.rotation, par.width, par.height);
+  info.height = turnedHeight(info.rotation, par.width, par.height);
   info.frameCount = index.frameCount();
   info.timeBase = index.timeBase();
   info.fileRate = toRational(stream.avg_frame_rate);
@@ -133,11 +150,20 @@ VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
   info.keyframeInterval.median = medianOf(intervals);
 
   addRateWarnings(info, steps, median);
-  info.damagedFrames = index.damagedFrames();
-  if (!info.damagedFrames.empty())
-    info.warnings.push_back(
-        std::to_string(info.damagedFrames.size()) + " damaged frame(s), first at frame " +
-        std::to_string(info.damagedFrames.front()) + "; check them before scoring");
+  if (info.rotation.applied)
+    info.warnings.push_back("the file asks for a " + std::to_string(info.rotation.degrees) +
+                            " degree counter-clockwise display rotation: frames, frame MD5s and "
+                            "exports are turned upright, as the ffmpeg CLI shows them");
+  else if (info.rotation.degrees != 0)
+    info.warnings.push_back("the file asks for a " + std::to_string(info.rotation.degrees) +
+                            " degree display rotation that is NOT applied (" +
+                            info.rotation.notApplied +
+                            "): frames are shown as stored, and frame MD5s differ from "
+                            "`ffmpeg -f framemd5`; use `-noautorotate` there to compare");
+  info.indexCacheNote = index.sidecarProblem();
+  for (const std::int64_t n : index.damagedFrames())
+    info.damage.push_back({n, "the container flags its data as corrupt"});
+  addDamageWarning(info);
   if (index.missingPackets() > 0)
     info.warnings.push_back(
         "the file ends early: " + std::to_string(index.missingPackets()) +
@@ -152,9 +178,18 @@ VideoInfo describeVideo(const std::string& path, const FrameIndex& index) {
   return info;
 }
 
-VideoInfo probeVideo(const std::string& path) {
+VideoInfo probeVideo(const std::string& path, bool decodeEveryFrame) {
   const FrameIndex index = FrameIndex::openCached(path);
-  return describeVideo(path, index);
+  VideoInfo info = describeVideo(path, index);
+  if (!decodeEveryFrame) return info;
+  // Replace the index's view (container flags only) by a full decode's.
+  std::erase_if(info.warnings, [](const std::string& w) {
+    return w.find("damaged frame(s)") != std::string::npos;
+  });
+  info.damage = findDamagedFrames(path, index);
+  info.everyFrameDecoded = true;
+  addDamageWarning(info);
+  return info;
 }
 
 }  // namespace stridemark::video

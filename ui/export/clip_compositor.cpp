@@ -1,12 +1,14 @@
 #include "ui/export/clip_compositor.h"
 
 #include <QPainter>
+#include <algorithm>
 #include <bit>
 #include <condition_variable>
 #include <deque>
 #include <exception>
 #include <mutex>
 #include <optional>
+#include <set>
 #include <thread>
 
 #include <opencv2/core/utility.hpp>
@@ -121,27 +123,90 @@ Layout layoutFor(int width, int height, const ClipSettings& s) {
   return l;
 }
 
+// Damaged frames of the range, found while decoding: skipped, listed in the result.
+class DamageList {
+ public:
+  void add(std::int64_t frame, const std::string& reason) {
+    std::lock_guard lock(mutex_);
+    if (frames_.insert(frame).second && firstReason_.empty()) firstReason_ = reason;
+  }
+  std::int64_t count() const {
+    std::lock_guard lock(mutex_);
+    return static_cast<std::int64_t>(frames_.size());
+  }
+  void copyTo(ClipResult& result) const {
+    std::lock_guard lock(mutex_);
+    result.skippedDamaged.assign(frames_.begin(), frames_.end());
+    result.firstDamageReason = firstReason_;
+  }
+
+ private:
+  mutable std::mutex mutex_;
+  std::set<std::int64_t> frames_;
+  std::string firstReason_;
+};
+
+// A picture the encoder can take: decoded without errors and of the clip's size.
+bool usable(const video::DecodedFrame& frame, const Layout& layout, DamageList& damage) {
+  if (frame.damaged) {
+    damage.add(frame.index(), "decoded with errors (the decoder concealed damaged data)");
+    return false;
+  }
+  if (frame.width() != static_cast<int>(layout.videoArea.width()) ||
+      frame.height() != static_cast<int>(layout.videoArea.height())) {
+    damage.add(frame.index(), "its size differs from the clip's first frame");
+    return false;
+  }
+  return true;
+}
+
 // Worker: decode the span, convert each frame into a recycled RGBA image and draw on it.
+// Damaged frames are skipped, so one bad frame does not cost the whole clip.
 void produceFrames(video::FrameReader& reader, const ClipSettings& s, const Layout& layout,
-                   const OverlayModel& overlay, ImageQueue& queue,
+                   const OverlayModel& overlay, ImageQueue& queue, DamageList& damage,
                    const std::atomic<bool>& cancel) {
   video::FrameConverter converter;
-  reader.decodeSpan(s.first, s.last, [&](video::DecodedFrame&& frame) {
-    if (cancel.load()) return false;
-    std::optional<QImage> image = queue.takeSpare();
-    if (!image) return false;
-    converter.convert(frame, video::PackedFormat::bgra, image->bits(),
-                      static_cast<int>(image->bytesPerLine()));
-    QPainter painter(&*image);
-    if (s.sidePanel) {
-      painter.fillRect(layout.panelArea, Qt::white);
-      s.sidePanel(painter, layout.panelArea, frame.index());
-    }
-    if (s.drawOverlay) drawOverlay(painter, layout.videoArea, overlay, frame.index());
-    painter.end();
-    queue.pushReady({std::move(*image), frame.index()});
-    return true;
-  });
+  const auto skip = [&damage](std::int64_t frame, const std::string& reason) {
+    damage.add(frame, reason);
+  };
+  reader.decodeSpan(
+      s.first, s.last,
+      [&](video::DecodedFrame&& frame) {
+        if (cancel.load()) return false;
+        if (!usable(frame, layout, damage)) return true;
+        std::optional<QImage> image = queue.takeSpare();
+        if (!image) return false;
+        converter.convert(frame, video::PackedFormat::bgra, image->bits(),
+                          static_cast<int>(image->bytesPerLine()));
+        QPainter painter(&*image);
+        if (s.sidePanel) {
+          painter.fillRect(layout.panelArea, Qt::white);
+          s.sidePanel(painter, layout.panelArea, frame.index());
+        }
+        if (s.drawOverlay) drawOverlay(painter, layout.videoArea, overlay, frame.index());
+        painter.end();
+        queue.pushReady({std::move(*image), frame.index()});
+        return true;
+      },
+      skip);
+}
+
+// The size of the clip's pictures: from the first frame of the range that decodes cleanly.
+std::optional<QSize> firstGoodFrameSize(video::FrameReader& reader, const ClipSettings& s,
+                                        DamageList& damage) {
+  std::optional<QSize> size;
+  reader.decodeSpan(
+      s.first, s.last,
+      [&](video::DecodedFrame&& frame) {
+        if (frame.damaged) {
+          damage.add(frame.index(), "decoded with errors (the decoder concealed damaged data)");
+          return true;
+        }
+        size = QSize(frame.width(), frame.height());
+        return false;
+      },
+      [&damage](std::int64_t frame, const std::string& reason) { damage.add(frame, reason); });
+  return size;
 }
 
 }  // namespace
@@ -170,9 +235,16 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
   video::ReaderOptions readerOptions;
   readerOptions.decodeThreads = s.decoderThreads;
   video::FrameReader reader(s.videoPath, index, readerOptions);
-  // The first frame tells us the size (and fails early on an undecodable file).
-  const video::DecodedFrame probe = reader.frameAt(s.first);
-  const Layout layout = layoutFor(probe.width(), probe.height(), s);
+  // The first good frame tells us the size (and fails early on an undecodable range).
+  DamageList damage;
+  const std::optional<QSize> pictureSize = firstGoodFrameSize(reader, s, damage);
+  if (!pictureSize)
+    throw Error(ErrorCategory::export_,
+                "every frame of " + std::to_string(s.first) + "-" + std::to_string(s.last) +
+                    " of '" + s.videoPath +
+                    "' is damaged, so no marked clip was made. `stridemark probe` lists the "
+                    "damaged frames; choose another range with --from/--to.");
+  const Layout layout = layoutFor(pictureSize->width(), pictureSize->height(), s);
 
   video::EncoderOptions options;
   options.path = outPath;
@@ -192,7 +264,7 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
   std::exception_ptr workerError;
   std::thread worker([&] {
     try {
-      produceFrames(reader, s, layout, overlay, queue, cancel);
+      produceFrames(reader, s, layout, overlay, queue, damage, cancel);
     } catch (...) {
       workerError = std::current_exception();
     }
@@ -227,19 +299,26 @@ ClipResult renderMarkedClip(const ClipSettings& s, const OverlayModel& overlay,
     encoder.write(planar.data, planar.cols);
     queue.giveBack(std::move(item->image));
     ++done;
-    if (progress) progress(done, total);
+    if (progress) progress(std::min(total, done + damage.count()), total);
   }
   queue.close();
   if (worker.joinable()) worker.join();
   if (workerError) std::rethrow_exception(workerError);
   if (cancel.load()) throw cancelledError();
-  if (done != total) {
+  if (done + damage.count() < total) {
     throw Error(ErrorCategory::export_, "marked clip stopped after " + std::to_string(done) +
                                             " of " + std::to_string(total) + " frames of '" +
                                             s.videoPath + "'.");
   }
   encoder.finish();
-  return {done, layout.output.width(), layout.output.height()};
+  ClipResult result;
+  result.frames = done;
+  result.width = layout.output.width();
+  result.height = layout.output.height();
+  damage.copyTo(result);
+  result.rotationDegrees = reader.rotation().degrees;
+  result.rotationApplied = reader.rotation().applied;
+  return result;
 }
 
 }  // namespace stridemark::ui::exports

@@ -10,6 +10,7 @@
 #include <functional>
 #include <memory>
 #include <string>
+#include <vector>
 
 #include "common/rational.h"
 #include "ui/export/clip_overlay.h"
@@ -43,9 +44,14 @@ struct ClipSettings {
 using ClipProgress = std::function<void(std::int64_t done, std::int64_t total)>;
 
 struct ClipResult {
-  std::int64_t frames = 0;
+  std::int64_t frames = 0;  // frames encoded
   int width = 0;
   int height = 0;
+  // Damaged frames of the range that were skipped (not encoded), with the decoder's reason.
+  std::vector<std::int64_t> skippedDamaged;
+  std::string firstDamageReason;
+  int rotationDegrees = 0;  // display rotation of the video (rotation.h); frames are upright
+  bool rotationApplied = false;
 };
 
 // The default playback rate: slow motion for high-speed footage (capture above 60 fps is
