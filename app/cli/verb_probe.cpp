@@ -5,6 +5,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "cli/arguments.h"
 #include "cli/verbs.h"
 #include "video/video_info.h"
 
@@ -71,7 +72,7 @@ void addProbeVerb(CLI::App& app, VerbAction& action) {
   auto options = std::make_shared<ProbeOptions>();
   CLI::App* verb = app.add_subcommand(
       "probe", "Frame count, capture/file rate, size, codec and keyframe spacing of a video");
-  verb->add_option("VIDEO", options->video, "video file")->required();
+  verb->add_option("VIDEO", options->video, "video file")->required()->check(regularFileInput());
   verb->add_flag("--json", options->json, "print JSON instead of text");
   verb->callback([options, &action] {
     action = [options] {
