@@ -19,13 +19,17 @@ std::string cut(std::string_view text) {
 
 }  // namespace
 
+std::string shortened(std::string_view text) {
+  return text.size() <= kShown ? std::string(text) : cut(text);
+}
+
 std::string shownValue(std::string_view text) {
   if (text.size() <= kShown) return "'" + std::string(text) + "'";
   return "'" + cut(text) + "'";
 }
 
 std::string withLongWordsCut(std::string_view message) {
-  constexpr std::size_t kLongest = 60;
+  constexpr std::size_t kLongest = 120;  // paths stay whole, runaway numbers do not
   std::string result;
   std::size_t pos = 0;
   while (pos < message.size()) {

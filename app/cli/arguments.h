@@ -21,7 +21,11 @@ struct UsageProblem {
 // 300-digit number cannot flood a message.
 std::string shownValue(std::string_view text);
 
-// A CLI11 message with every word longer than 60 characters cut the same way.
+// The same without the quotes.
+std::string shortened(std::string_view text);
+
+// A CLI11 message with every word longer than 120 characters cut to its first 40 (paths stay
+// whole; a runaway number does not).
 std::string withLongWordsCut(std::string_view message);
 
 // A frame number: decimal digits only, 0 up to 2^63 - 1. No sign, no hex, no exponent, no

@@ -93,7 +93,7 @@ std::optional<std::int64_t> wholeFrame(std::string_view text) {
 }
 
 model::SpeedStep parseSpeedStep(const std::string& value) {
-  const std::string what = "--speed " + shownValue(value) + ": ";
+  const std::string what = "--speed " + shortened(value) + ": ";
   const std::size_t at = value.find('@');
   const std::string_view text(value);
   const auto speed = wholeNumber(text.substr(0, at));
@@ -117,7 +117,7 @@ SpeedSchedule parseSpeedSchedule(const std::vector<std::string>& values) {
     const model::SpeedStep step = parseSpeedStep(values[i]);
     if (i == 0) {
       if (step.fromFrame != 0) {
-        throw UsageProblem{"--speed " + shownValue(values[i]) +
+        throw UsageProblem{"--speed " + shortened(values[i]) +
                            ": a speed change needs a speed from the start first — give --speed "
                            "V (m/s from frame 0) before any --speed V@FRAME"};
       }
@@ -126,8 +126,8 @@ SpeedSchedule parseSpeedSchedule(const std::vector<std::string>& values) {
     }
     const std::int64_t previous = schedule.changes.empty() ? 0 : schedule.changes.back().fromFrame;
     if (step.fromFrame <= previous) {
-      throw UsageProblem{"--speed " + shownValue(values[i]) + " after --speed " +
-                         shownValue(values[i - 1]) +
+      throw UsageProblem{"--speed " + shortened(values[i]) + " after --speed " +
+                         shortened(values[i - 1]) +
                          ": speed changes must start at later and later frames — give one "
                          "speed from the start, then V@FRAME in ascending frame order"};
     }

@@ -64,5 +64,18 @@ TEST(FileIo, RegenerableOutputIsReplacedWholeOrNotAtAll) {
   EXPECT_EQ(entries, 1u);
 }
 
+// Source: issue 17 defect 11 (a FIFO as input blocked forever): reading one fails at once.
+TEST(FileIo, ReadingAFifoFailsAtOnceInsteadOfWaiting) {
+  testing::TempFolder folder;
+  const auto fifo = folder / "events.csv";
+  ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+  try {
+    readWholeFile(fifo);
+    FAIL() << "reading a FIFO succeeded";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("is a FIFO"), std::string::npos) << e.what();
+  }
+}
+
 }  // namespace
 }  // namespace stridemark::formats
