@@ -1,5 +1,7 @@
 #include "cli/run.h"
 
+#include "cli/arguments.h"
+
 #include <exception>
 #include <iostream>
 #include <string>
@@ -28,12 +30,16 @@ int runVerbs(int argc, char** argv, std::span<const AddVerb> verbs) {
   } catch (const CLI::CallForVersion& e) {
     return app.exit(e);
   } catch (const CLI::ParseError& e) {
-    app.exit(e);
+    // CLI11 quotes the value it refused; a 300-digit number must not flood the terminal.
+    std::cerr << withLongWordsCut(e.what()) << "\nRun with --help for more information.\n";
     return kExitUsage;
   }
   // The one place where core errors reach the user.
   try {
     return action ? action() : kExitUsage;
+  } catch (const UsageProblem& problem) {
+    std::cerr << "stridemark: " << problem.message << '\n';
+    return kExitUsage;
   } catch (const Error& e) {
     std::cerr << "stridemark: " << e.what() << '\n';
     return kExitBadInput;

@@ -15,6 +15,7 @@
 #include <sstream>
 #include <string>
 
+#include "cli/arguments.h"
 #include "cli/run.h"
 #include "cli/verbs.h"
 #include "common/error.h"
@@ -32,8 +33,8 @@ struct ExportArgs {
   std::string project;
   std::string out;
   bool clip = false;
-  std::optional<std::int64_t> from;
-  std::optional<std::int64_t> to;
+  std::string from;  // frame numbers as given; parsed strictly (no hex, no clamping)
+  std::string to;
   std::string playback;
   std::string figures = "svg,png,pdf";
   bool report = false;
@@ -101,8 +102,8 @@ int runExport(const ExportArgs& args) {
   options.figureFormats = parseFigureList(args.figures);
   options.report = args.report;
   options.clip = args.clip;
-  options.from = args.from;
-  options.to = args.to;
+  if (!args.from.empty()) options.from = parseFrameNumber(args.from, "--from");
+  if (!args.to.empty()) options.to = parseFrameNumber(args.to, "--to");
   if (!args.playback.empty()) options.playback = parseRate(args.playback, "--playback");
   options.sideBySide = args.sideBySide;
   options.encoderThreads = args.threads;
@@ -150,13 +151,18 @@ void addExportVerb(CLI::App& app, VerbAction& action) {
   auto args = std::make_shared<ExportArgs>();
   CLI::App* verb = app.add_subcommand(
       "export", "Export tables, figures, a PDF report and a marked clip of a scored project");
-  verb->add_option("PROJECT", args->project, "project file")->required();
-  verb->add_option("--out", args->out, "output folder (created when missing)")->required();
+  verb->add_option("PROJECT", args->project, "project file")->required()->check(regularFileInput());
+  verb->add_option("--out", args->out, "output folder (created when missing)")
+      ->required()
+      ->check(nonEmptyPath("a folder for the export"));
   verb->add_flag("--clip", args->clip, "also render the marked clip (H.264 MP4)");
+  const auto frameNumber = [](const char* flag) {
+    return checkedBy([flag](const std::string& v) { parseFrameNumber(v, flag); });
+  };
   verb->add_option("--from", args->from, "first frame of the clip (default: first tagged frame)")
-      ->check(CLI::NonNegativeNumber);
+      ->check(frameNumber("--from"));
   verb->add_option("--to", args->to, "last frame of the clip (default: last tagged frame)")
-      ->check(CLI::NonNegativeNumber);
+      ->check(frameNumber("--to"));
   verb->add_option("--playback", args->playback,
                    "frame rate the clip plays at (default: 30 for capture above 60 fps, else "
                    "the capture rate)");

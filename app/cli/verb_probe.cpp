@@ -5,6 +5,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "cli/arguments.h"
 #include "cli/verbs.h"
 #include "video/video_info.h"
 
@@ -103,7 +104,7 @@ void addProbeVerb(CLI::App& app, VerbAction& action) {
   CLI::App* verb = app.add_subcommand(
       "probe",
       "Frame count, rates, size, rotation, codec, keyframe spacing and damaged frames of a video");
-  verb->add_option("VIDEO", options->video, "video file")->required();
+  verb->add_option("VIDEO", options->video, "video file")->required()->check(regularFileInput());
   verb->add_flag("--json", options->json, "print JSON instead of text");
   verb->add_flag("--quick", options->quick,
                  "skip decoding every frame (damaged frames are then only those the container "

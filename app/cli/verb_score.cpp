@@ -11,11 +11,13 @@
 #include <string>
 
 #include "analysis/analyse.h"
+#include "cli/arguments.h"
 #include "cli/run.h"
 #include "cli/verbs.h"
 #include "common/error.h"
 #include "formats/events_csv.h"
 #include "formats/file_io.h"
+#include "formats/output_set.h"
 #include "formats/project_file.h"
 #include "formats/report_json.h"
 #include "formats/tables_csv.h"
@@ -32,11 +34,6 @@ struct ScoreOptions {
   std::optional<double> legLength;
   std::string json;
   std::string csv;
-};
-
-// A flag that does not fit the input (exit 2, like other usage errors).
-struct UsageProblem {
-  std::string message;
 };
 
 bool isProjectText(const std::filesystem::path& path, std::string_view content) {
@@ -96,7 +93,7 @@ std::optional<std::int64_t> wholeFrame(std::string_view text) {
 }
 
 model::SpeedStep parseSpeedStep(const std::string& value) {
-  const std::string what = "--speed " + value + ": ";
+  const std::string what = "--speed " + shortened(value) + ": ";
   const std::size_t at = value.find('@');
   const std::string_view text(value);
   const auto speed = wholeNumber(text.substr(0, at));
@@ -120,7 +117,7 @@ SpeedSchedule parseSpeedSchedule(const std::vector<std::string>& values) {
     const model::SpeedStep step = parseSpeedStep(values[i]);
     if (i == 0) {
       if (step.fromFrame != 0) {
-        throw UsageProblem{"--speed " + values[i] +
+        throw UsageProblem{"--speed " + shortened(values[i]) +
                            ": a speed change needs a speed from the start first — give --speed "
                            "V (m/s from frame 0) before any --speed V@FRAME"};
       }
@@ -129,7 +126,8 @@ SpeedSchedule parseSpeedSchedule(const std::vector<std::string>& values) {
     }
     const std::int64_t previous = schedule.changes.empty() ? 0 : schedule.changes.back().fromFrame;
     if (step.fromFrame <= previous) {
-      throw UsageProblem{"--speed " + values[i] + " after --speed " + values[i - 1] +
+      throw UsageProblem{"--speed " + shortened(values[i]) + " after --speed " +
+                         shortened(values[i - 1]) +
                          ": speed changes must start at later and later frames — give one "
                          "speed from the start, then V@FRAME in ascending frame order"};
     }
@@ -223,14 +221,44 @@ model::Project loadInput(const ScoreOptions& options) {
   return project;
 }
 
-void writeJson(const ScoreOptions& options, const analysis::Report& report) {
-  if (options.json == "-") {
-    const std::string text = formats::reportJsonText(report);
-    if (std::fwrite(text.data(), 1, text.size(), stdout) != text.size() || std::fflush(stdout))
-      throw Error(ErrorCategory::io, "could not write the report to standard output");
-  } else {
-    formats::writeReportJsonFile(options.json, report);
-    std::cerr << "wrote " << options.json << '\n';
+void writeJsonToStdout(const analysis::Report& report) {
+  const std::string text = formats::reportJsonText(report);
+  if (std::fwrite(text.data(), 1, text.size(), stdout) != text.size() || std::fflush(stdout))
+    throw Error(ErrorCategory::io, "could not write the report to standard output");
+}
+
+// What score reads: the input and, for a project, its video. No output may replace them.
+std::vector<NamedInput> inputsOf(const ScoreOptions& options, const model::Project& project) {
+  std::vector<NamedInput> inputs{{"the input", options.input}};
+  if (project.video) {
+    std::filesystem::path video(project.video->path);
+    if (video.is_relative()) video = std::filesystem::path(options.input).parent_path() / video;
+    inputs.push_back({"the project's video", video});
+  }
+  return inputs;
+}
+
+// Refuses (exit 2) outputs that would replace an input, a user's file among the table names, or
+// each other, before anything is written.
+void checkOutputs(const ScoreOptions& options, const std::vector<NamedInput>& inputs) {
+  const bool jsonFile = !options.json.empty() && options.json != "-";
+  if (jsonFile) refuseToReplaceInputs(options.json, "--json", inputs);
+  if (options.csv.empty()) return;
+  for (const auto& table : formats::allTableNames()) {
+    const std::filesystem::path path = std::filesystem::path(options.csv) / table;
+    refuseToReplaceInputs(path, "--csv " + options.csv + " writes the table", inputs);
+    std::error_code ec;
+    if (jsonFile && std::filesystem::weakly_canonical(path, ec) ==
+                        std::filesystem::weakly_canonical(options.json, ec)) {
+      throw UsageProblem{"--json " + options.json + " is also the table " + path.string() +
+                         " of --csv " + options.csv + " — give the report another name"};
+    }
+  }
+  if (const auto foreign = formats::firstForeignTable(options.csv)) {
+    throw UsageProblem{"--csv " + options.csv + ": " + foreign->string() +
+                       " is not a table stridemark wrote (a file of yours, such as hand-tagged "
+                       "events?); writing the tables there would replace it — choose an empty "
+                       "or new folder for the tables, or move that file"};
   }
 }
 
@@ -238,31 +266,27 @@ int runScore(const ScoreOptions& options) {
   try {
     const SpeedSchedule speed = parseSpeedSchedule(options.speeds);
     const model::Project project = loadInput(options);
+    checkOutputs(options, inputsOf(options, project));
     const analysis::Report report =
         analysis::analyse(project, analysisOptions(options, speed, project.annotation));
-    if (!options.json.empty()) writeJson(options, report);
-    if (!options.csv.empty()) {
-      const auto files =
-          formats::writeTables(options.csv, project.annotation, report, {options.input});
-      std::cerr << "wrote " << files.size() << " tables to " << options.csv << '\n';
-    }
+    // The report and the tables are one set: all are replaced, or none (output_set.h).
+    formats::OutputSet outputs(formats::Durability::regenerable);
+    if (!options.json.empty() && options.json != "-")
+      outputs.add(options.json, formats::reportJsonText(report));
+    if (!options.csv.empty())
+      formats::addTables(outputs, options.csv, project.annotation, report, {options.input});
+    outputs.commit();
+    if (options.json == "-") writeJsonToStdout(report);
+    if (!options.json.empty() && options.json != "-") std::cerr << "wrote " << options.json << '\n';
+    if (!options.csv.empty())
+      std::cerr << "wrote " << formats::allTableNames().size() << " tables to " << options.csv
+                << '\n';
     if (options.json.empty() && options.csv.empty()) printSummary(options, report);
     return kExitOk;
   } catch (const UsageProblem& problem) {
     std::cerr << "stridemark score: " << problem.message << '\n';
     return kExitUsage;
   }
-}
-
-std::function<std::string(const std::string&)> checkedBy(void (*parse)(const std::string&)) {
-  return [parse](const std::string& value) -> std::string {
-    try {
-      parse(value);
-      return {};
-    } catch (const Error& e) {
-      return e.what();
-    }
-  };
 }
 
 }  // namespace
@@ -273,7 +297,8 @@ void addScoreVerb(CLI::App& app, VerbAction& action) {
       "score", "Score touchdown/lift-off tags: strides, duty factors, phases, gaits, symmetry");
   verb->add_option("INPUT", options->input,
                    "events CSV (limb,event,frame) or project file (.stridemark)")
-      ->required();
+      ->required()
+      ->check(regularFileInput());
   verb->add_option("--fps", options->fps,
                    "capture rate in frames per second (240, 239.76, 30000/1001); required for "
                    "an events CSV without a '# fps:' line, overrides a project's rate")
@@ -293,8 +318,10 @@ void addScoreVerb(CLI::App& app, VerbAction& action) {
   verb->add_option("--leg-length", options->legLength, "leg length (hip height), m")
       ->check(CLI::PositiveNumber);
   verb->add_option("--json", options->json,
-                   "write the report (stridemark.report.v1) to this file, or - for stdout");
-  verb->add_option("--csv", options->csv, "write tidy CSV tables into this folder");
+                   "write the report (stridemark.report.v1) to this file, or - for stdout")
+      ->check(nonEmptyPath("a file name for the report, or - for standard output"));
+  verb->add_option("--csv", options->csv, "write tidy CSV tables into this folder")
+      ->check(nonEmptyPath("a folder for the tables (. for the current folder)"));
   verb->callback([options, &action] { action = [options] { return runScore(*options); }; });
 }
 

@@ -16,7 +16,11 @@ namespace {
 
 constexpr std::string_view kHeaderHelp =
     "the first line that is not a comment must name the columns limb,event,frame "
-    "(or limb,event,time_s)";
+    "(or limb,event,time_s, or limb,event,frame,time_s as in the tables `score --csv` writes)";
+
+// limb, event, frame or time_s, and time_s beside frame.
+constexpr std::size_t kMostColumns = 4;
+using Fields = std::array<std::string_view, kMostColumns>;
 
 [[noreturn]] void failAt(std::string_view file, long line, const std::string& message) {
   throw Error(ErrorCategory::format, atLine(file, line, message));
@@ -29,7 +33,7 @@ std::string shown(std::string_view s) {
 }
 
 // Splits one line at commas into `fields`; returns how many fields the line has.
-std::size_t splitFields(std::string_view line, std::array<std::string_view, 3>& fields) {
+std::size_t splitFields(std::string_view line, Fields& fields) {
   std::size_t count = 0;
   while (true) {
     const std::size_t comma = line.find(',');
@@ -44,18 +48,18 @@ std::size_t splitFields(std::string_view line, std::array<std::string_view, 3>& 
   }
 }
 
-// Walks the text line by line; strips the line ending (LF or CRLF).
+// Walks the text line by line; a line ends at LF, CRLF or a lone CR (old Mac spreadsheets).
 class LineCursor {
  public:
   explicit LineCursor(std::string_view text) : text_(text) {}
   bool next(std::string_view& line) {
     if (pos_ >= text_.size()) return false;
-    const void* hit = std::memchr(text_.data() + pos_, '\n', text_.size() - pos_);
-    const std::size_t end =
-        hit ? static_cast<std::size_t>(static_cast<const char*>(hit) - text_.data()) : text_.size();
+    std::size_t end = text_.find_first_of("\r\n", pos_);
+    if (end == std::string_view::npos) end = text_.size();
     line = text_.substr(pos_, end - pos_);
-    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
     pos_ = end + 1;
+    if (end < text_.size() && text_[end] == '\r' && pos_ < text_.size() && text_[pos_] == '\n')
+      ++pos_;
     ++number_;
     return true;
   }
@@ -72,10 +76,11 @@ struct Columns {
   int event = -1;
   int frame = -1;
   int time = -1;
+  std::size_t count = 3;
 };
 
 Columns parseHeader(std::string_view line, std::string_view file, long lineNumber) {
-  std::array<std::string_view, 3> fields;
+  Fields fields;
   const std::size_t count = splitFields(line, fields);
   auto bad = [&](const std::string& what) {
     failAt(file, lineNumber,
@@ -84,10 +89,11 @@ Columns parseHeader(std::string_view line, std::string_view file, long lineNumbe
   if (count != 3 && line.find_first_of(";\t") != std::string_view::npos) {
     bad("separates columns with ';' or tabs, not commas");
   }
-  if (count != 3)
+  if (count != 3 && count != kMostColumns)
     bad("has " + std::to_string(count) + (count == 1 ? " column" : " columns") + ", not 3");
   Columns columns;
-  for (int i = 0; i < 3; ++i) {
+  columns.count = count;
+  for (int i = 0; i < static_cast<int>(count); ++i) {
     const std::string_view name = fields[static_cast<std::size_t>(i)];
     int* slot = name == "limb"     ? &columns.limb
                 : name == "event"  ? &columns.event
@@ -98,8 +104,10 @@ Columns parseHeader(std::string_view line, std::string_view file, long lineNumbe
     if (*slot >= 0) bad("names the column " + shown(name) + " twice");
     *slot = i;
   }
-  if (columns.frame >= 0 && columns.time >= 0) bad("has both frame and time_s");
+  if (count == 3 && columns.frame >= 0 && columns.time >= 0) bad("has both frame and time_s");
   if (columns.limb < 0 || columns.event < 0) bad("lacks the limb or event column");
+  if (count == kMostColumns && (columns.frame < 0 || columns.time < 0))
+    bad("has 4 columns, but only time_s may stand beside frame");
   return columns;
 }
 
@@ -120,7 +128,7 @@ void readHeaderComment(std::string_view line, std::string_view file, long lineNu
   const std::string_view key = text::trim(body.substr(0, colon));
   const std::string_view value = text::trim(body.substr(colon + 1));
   try {
-    if (key == "fps" || key == "capture_rate") {
+    if (key == "fps" || key == "capture_rate" || key == "capture_rate_fps") {
       into.rate = parseRate(value, "capture rate");
     } else if (key == "limbs" || key == "limb_set") {
       into.limbs = model::LimbSet::fromName(value);
@@ -201,6 +209,19 @@ std::int64_t parseTime(std::string_view field, Rational rate, std::string_view f
   return secondsToFrame(seconds, rate);
 }
 
+// time_s beside frame (our tables write both): frame counts, time_s must agree with it.
+void checkTimeMatchesFrame(std::string_view field, std::int64_t frame,
+                           const std::optional<Rational>& rate, std::string_view file, long line) {
+  if (!rate) return;  // nothing to compare with; the frame is what counts
+  const std::int64_t fromTime = parseTime(field, *rate, file, line);
+  if (fromTime != frame) {
+    failAt(file, line,
+           "time_s " + shown(field) + " is frame " + std::to_string(fromTime) + " at " +
+               toString(*rate) + " fps, but the frame column says " + std::to_string(frame) +
+               " — correct one of them, or delete the time_s column (frame counts)");
+  }
+}
+
 void requireText(std::string_view text, std::string_view file) {
   const std::size_t bad = text::firstNonTextByte(text);
   if (bad == std::string_view::npos) return;
@@ -239,7 +260,7 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   EventsCsv result;
   result.limbs = options.limbs ? *options.limbs : comments.limbs.value_or(result.limbs);
   result.captureRate = options.captureRate ? options.captureRate : comments.rate;
-  result.timeColumn = columns->time >= 0;
+  result.timeColumn = columns->frame < 0;  // time_s beside frame only checks it
   const long headerLine = cursor.number();
   if (!comments.reference.empty()) {
     result.referenceLimb = result.limbs.indexOf(comments.reference);
@@ -261,17 +282,19 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   const auto eventColumn = static_cast<std::size_t>(columns->event);
   const auto whenColumn =
       static_cast<std::size_t>(result.timeColumn ? columns->time : columns->frame);
-  std::array<std::string_view, 3> fields;
+  Fields fields;
   while (cursor.next(line)) {
     const long number = cursor.number();
     const std::string_view trimmed = text::trim(line);
     if (trimmed.empty() || trimmed.front() == '#') continue;
     const std::size_t count = splitFields(trimmed, fields);
-    if (count != 3) {
+    if (count != columns->count) {
+      const std::string names = columns->count == kMostColumns ? "frame, time_s"
+                                : result.timeColumn            ? "time_s"
+                                                               : "frame";
       failAt(fileName, number,
-             "expected 3 fields (limb, event, " +
-                 std::string(result.timeColumn ? "time_s" : "frame") + ") but found " +
-                 std::to_string(count) + " in " + shown(trimmed) +
+             "expected " + std::to_string(columns->count) + " fields (limb, event, " + names +
+                 ") but found " + std::to_string(count) + " in " + shown(trimmed) +
                  " — write one event per line, fields separated by commas");
     }
     model::Event event;
@@ -280,6 +303,10 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
     event.frame = result.timeColumn
                       ? parseTime(fields[whenColumn], *result.captureRate, fileName, number)
                       : parseFrame(fields[whenColumn], fileName, number);
+    if (columns->count == kMostColumns) {
+      checkTimeMatchesFrame(fields[static_cast<std::size_t>(columns->time)], event.frame,
+                            result.captureRate, fileName, number);
+    }
     result.events.push_back(event);
   }
   return result;

@@ -7,6 +7,8 @@
 //   limb,event,frame      header (columns in any order; `time_s` may replace `frame`)
 //   LH,touchdown,12
 //
+// `time_s` may also stand beside `frame` (the events table of `score --csv` has both): the frame
+// counts and time_s must agree with it. Lines end with LF, CRLF or a lone CR.
 // The reader is strict: every problem is reported as "FILE:LINE: what is wrong — what to do".
 #include <filesystem>
 #include <optional>

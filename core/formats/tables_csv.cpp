@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <fstream>
 #include <tuple>
 
 #include "analysis/summary.h"
@@ -108,6 +109,11 @@ struct Scope {
   const analysis::Summary* summary = nullptr;
 };
 
+// File names in table order (allTables).
+constexpr std::string_view kTableFileNames[] = {"events.csv",   "strides.csv", "limbs.csv",
+                                                "phases.csv",   "support.csv", "bouts.csv",
+                                                "symmetry.csv", "dap.csv"};
+
 constexpr std::string_view kScopeNote =
     "scope trial = the pooled trial (gait \"mixed\" when it has bouts of more than one gait), "
     "gait = all bouts of that gait, bout = one bout (bout = its row in bouts.csv)";
@@ -141,6 +147,9 @@ void scopeCells(CsvText& csv, const Scope& scope) {
 
 std::string eventsTable(const model::Annotation& annotation, const TableSource& source) {
   CsvText csv("events (one row per tag)", source, annotation.captureRate);
+  // The events CSV's own header comments, so `score` reads this table back (events_csv.h).
+  csv.note("limbs: " + annotation.limbs.name());
+  csv.note("reference: " + annotation.limbs.label(annotation.referenceLimb));
   csv.header({"limb", "event", "frame", "time_s"});
   std::vector<model::Event> events = annotation.events;
   std::sort(events.begin(), events.end(), [](const model::Event& a, const model::Event& b) {
@@ -437,19 +446,45 @@ std::string dapTable(const Report& report, const TableSource& source) {
 
 std::vector<NamedTable> allTables(const model::Annotation& annotation, const Report& report,
                                   const TableSource& source) {
-  return {{"events.csv", eventsTable(annotation, source)},
-          {"strides.csv", stridesTable(report, source)},
-          {"limbs.csv", limbsTable(report, source)},
-          {"phases.csv", phasesTable(report, source)},
-          {"support.csv", supportTable(report, source)},
-          {"bouts.csv", boutsTable(report, source)},
-          {"symmetry.csv", symmetryTable(report, source)},
-          {"dap.csv", dapTable(report, source)}};
+  const auto& names = kTableFileNames;
+  return {{std::string(names[0]), eventsTable(annotation, source)},
+          {std::string(names[1]), stridesTable(report, source)},
+          {std::string(names[2]), limbsTable(report, source)},
+          {std::string(names[3]), phasesTable(report, source)},
+          {std::string(names[4]), supportTable(report, source)},
+          {std::string(names[5]), boutsTable(report, source)},
+          {std::string(names[6]), symmetryTable(report, source)},
+          {std::string(names[7]), dapTable(report, source)}};
 }
 
-std::vector<std::filesystem::path> writeTables(const std::filesystem::path& folder,
-                                               const model::Annotation& annotation,
-                                               const Report& report, const TableSource& source) {
+std::vector<std::string_view> allTableNames() {
+  return {std::begin(kTableFileNames), std::end(kTableFileNames)};
+}
+
+bool isStridemarkTable(std::string_view firstLine) {
+  constexpr std::string_view kOpening = "# stridemark ";
+  if (firstLine.substr(0, kOpening.size()) != kOpening) return false;
+  const std::string_view rest = firstLine.substr(kOpening.size());
+  const std::size_t space = rest.find(' ');
+  return space != std::string_view::npos && space > 0 && rest.substr(space, 3) == " - ";
+}
+
+std::optional<std::filesystem::path> firstForeignTable(const std::filesystem::path& folder) {
+  for (const std::string_view name : kTableFileNames) {
+    const std::filesystem::path path = folder / name;
+    if (!fileIdentity(path)) continue;
+    if (!nonRegularKind(path).empty()) return path;
+    std::ifstream in(path, std::ios::binary);
+    std::string firstLine;
+    std::getline(in, firstLine);
+    if (!isStridemarkTable(firstLine)) return path;
+  }
+  return std::nullopt;
+}
+
+void addTables(OutputSet& outputs, const std::filesystem::path& folder,
+               const model::Annotation& annotation, const Report& report,
+               const TableSource& source) {
   std::error_code ec;
   std::filesystem::create_directories(folder, ec);
   if (ec || !std::filesystem::is_directory(folder)) {
@@ -457,12 +492,22 @@ std::vector<std::filesystem::path> writeTables(const std::filesystem::path& fold
                                        (ec ? ec.message() : std::string("not a folder")) +
                                        ") — choose another --csv folder");
   }
-  std::vector<std::filesystem::path> written;
-  for (const auto& [name, text] : allTables(annotation, report, source)) {
-    written.push_back(folder / name);
-    writeFileAtomically(written.back(), text, Durability::regenerable);
+  if (const auto foreign = firstForeignTable(folder)) {
+    throw Error(ErrorCategory::io, foreign->string() +
+                                       ": is not a table stridemark wrote (a file of yours, "
+                                       "such as hand-tagged events?), so the tables are not "
+                                       "written there — choose an empty or new folder for them");
   }
-  return written;
+  for (auto& [name, text] : allTables(annotation, report, source))
+    outputs.add(folder / name, std::move(text));
+}
+
+std::vector<std::filesystem::path> writeTables(const std::filesystem::path& folder,
+                                               const model::Annotation& annotation,
+                                               const Report& report, const TableSource& source) {
+  OutputSet outputs(Durability::regenerable);
+  addTables(outputs, folder, annotation, report, source);
+  return outputs.commit();
 }
 
 }  // namespace stridemark::formats

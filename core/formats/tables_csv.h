@@ -16,11 +16,13 @@
 //   symmetry.csv  one row per scope x measure x limb pair: symmetry index and ratio
 //   dap.csv       one row per scope x diagonal (and their mean and difference), quadrupeds
 #include <filesystem>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
 
 #include "analysis/report.h"
+#include "formats/output_set.h"
 #include "model/annotation.h"
 
 namespace stridemark::formats {
@@ -48,7 +50,25 @@ struct NamedTable {
 std::vector<NamedTable> allTables(const model::Annotation& annotation,
                                   const analysis::Report& report, const TableSource& source);
 
-// Writes every table into `folder` (created when missing); returns the files written.
+// The file names of allTables, in its order.
+std::vector<std::string_view> allTableNames();
+
+// True when `firstLine` opens a table we wrote ("# stridemark VERSION - TITLE", any version).
+// Events CSVs saved by the desk or synth open differently and count as a user's files.
+bool isStridemarkTable(std::string_view firstLine);
+
+// The first file in `folder` with a table's name (events.csv, strides.csv, ...) that is not a
+// table we wrote: a user's file that writing the tables would replace. nullopt when none.
+std::optional<std::filesystem::path> firstForeignTable(const std::filesystem::path& folder);
+
+// Creates `folder` when missing and adds every table to `outputs` (nothing is written yet).
+// Throws Error(io) when the folder cannot be made or holds a file that is not one of our tables.
+void addTables(OutputSet& outputs, const std::filesystem::path& folder,
+               const model::Annotation& annotation, const analysis::Report& report,
+               const TableSource& source);
+
+// Writes every table into `folder` as one set (addTables, then OutputSet::commit): either all
+// tables are replaced or none. Returns the files written.
 std::vector<std::filesystem::path> writeTables(const std::filesystem::path& folder,
                                                const model::Annotation& annotation,
                                                const analysis::Report& report,

@@ -118,7 +118,7 @@ TEST(FullDisk, JournalKeepsItsLastGoodStateAndTheDeskSaysSo) {
               warning.contains(QStringLiteral("Save As")))
       << warning.toStdString();
   const QStringList left = QDir(base.filePath(QStringLiteral("small")))
-                               .entryList({QStringLiteral("*.tmp-*")}, QDir::Files);
+                               .entryList({QStringLiteral("*.smtmp-*")}, QDir::Files | QDir::Hidden);
   EXPECT_TRUE(left.isEmpty()) << left.join(' ').toStdString();
 
   // The way out the warning names: space again, and the next edit writes the journal.
@@ -233,11 +233,11 @@ TEST(Leftovers, OpeningAProjectRemovesOnlyTemporariesOfDeadWriters) {
   const QString project = writeEmptyProject(dir.path(), QStringLiteral("trial.stridemark"));
   const QString dead = QString::number(finishedPid());
   const QString alive = QString::number(::getpid());
-  const QStringList stale = {QStringLiteral("trial.stridemark.tmp-%1-Ab12Cd").arg(dead),
-                             QStringLiteral("trial.stridemark.smjournal.tmp-%1-x9Y8z7").arg(dead)};
-  const QStringList kept = {QStringLiteral("trial.stridemark.tmp-%1-Ab12Cd").arg(alive),
-                            QStringLiteral("trial.stridemark.tmp-Ab12Cd"),
-                            QStringLiteral("other.stridemark.tmp-%1-Ab12Cd").arg(dead),
+  const QStringList stale = {QStringLiteral(".trial.stridemark.smtmp-%1-Ab12Cd").arg(dead),
+                             QStringLiteral(".trial.stridemark.smjournal.smtmp-%1-x9Y8z7").arg(dead)};
+  const QStringList kept = {QStringLiteral(".trial.stridemark.smtmp-%1-Ab12Cd").arg(alive),
+                            QStringLiteral(".trial.stridemark.smtmp-Ab12Cd"),
+                            QStringLiteral(".other.stridemark.smtmp-%1-Ab12Cd").arg(dead),
                             QStringLiteral("notes.txt")};
   for (const auto& name : stale + kept) {
     QFile f(dir.filePath(name));

@@ -118,7 +118,7 @@ int lastAcknowledged(const QByteArray& out) {
 }
 
 QStringList temporaryFilesIn(const QString& dir) {
-  return QDir(dir).entryList({QStringLiteral("*.tmp-*")}, QDir::Files | QDir::Hidden);
+  return QDir(dir).entryList({QStringLiteral("*.smtmp-*")}, QDir::Files | QDir::Hidden);
 }
 
 std::uint64_t killTestSeed() {

@@ -85,7 +85,7 @@ TEST(FileIo, TemporaryFileNamesItsWriter) {
   for (const auto& entry : std::filesystem::directory_iterator(folder.path()))
     names.push_back(entry.path().filename().string());
   ASSERT_EQ(names.size(), 1u);
-  const std::string expected = "trial.stridemark.tmp-" + std::to_string(::getpid()) + "-";
+  const std::string expected = temporaryNamePrefix("trial.stridemark", ::getpid());
   EXPECT_EQ(names[0].substr(0, expected.size()), expected) << names[0];
   EXPECT_EQ(names[0].size(), expected.size() + 6) << names[0];
 }
@@ -96,25 +96,39 @@ TEST(FileIo, StaleTemporariesOfDeadWritersAreRemovedAndNothingElse) {
   const auto target = folder / "trial.stridemark";
   const std::string dead = std::to_string(finishedPid());
   const std::string alive = std::to_string(::getpid());
-  const auto stale = folder / ("trial.stridemark.tmp-" + dead + "-a1B2c3");
+  const auto stale = folder / (".trial.stridemark.smtmp-" + dead + "-a1B2c3");
   const std::vector<std::string> kept = {
       "trial.stridemark",
-      "trial.stridemark.tmp-" + alive + "-a1B2c3",     // a live writer (this process)
-      "trial.stridemark.tmp-Zq81xy",                   // older naming without a pid
-      "trial.stridemark.tmp-" + dead + "-a1B2",        // not mkstemp's six characters
-      "trial.stridemark.tmp-" + dead + "-a1B2c3.bak",  // something else entirely
-      "other.stridemark.tmp-" + dead + "-a1B2c3",      // another file's temporary
-      "trial.stridemark.tmp-x" + dead + "-a1B2c3",     // not a pid
+      ".trial.stridemark.smtmp-" + alive + "-a1B2c3",     // a live writer (this process)
+      "trial.stridemark.tmp-Zq81xy",                      // an older naming
+      ".trial.stridemark.smtmp-Zq81xy",                   // no pid
+      ".trial.stridemark.smtmp-" + dead + "-a1B2",        // not mkstemp's six characters
+      ".trial.stridemark.smtmp-" + dead + "-a1B2c3.bak",  // something else entirely
+      ".other.stridemark.smtmp-" + dead + "-a1B2c3",      // another file's temporary
+      ".trial.stridemark.smtmp-x" + dead + "-a1B2c3",     // not a pid
   };
   testing::writeText(stale, "half a save");
   for (const auto& name : kept) testing::writeText(folder / name, "keep me");
-  std::filesystem::create_directory(folder / ("trial.stridemark.tmp-" + dead + "-dir123"));
+  std::filesystem::create_directory(folder / (".trial.stridemark.smtmp-" + dead + "-dir123"));
   const auto removed = removeStaleTemporaries(target);
   ASSERT_EQ(removed.size(), 1u);
   EXPECT_EQ(removed[0], stale);
   EXPECT_FALSE(std::filesystem::exists(stale));
   for (const auto& name : kept) EXPECT_TRUE(std::filesystem::exists(folder / name)) << name;
-  EXPECT_TRUE(std::filesystem::is_directory(folder / ("trial.stridemark.tmp-" + dead + "-dir123")));
+  EXPECT_TRUE(std::filesystem::is_directory(folder / (".trial.stridemark.smtmp-" + dead + "-dir123")));
+}
+
+// Source: issue 17 defect 11 (a FIFO as input blocked forever): reading one fails at once.
+TEST(FileIo, ReadingAFifoFailsAtOnceInsteadOfWaiting) {
+  testing::TempFolder folder;
+  const auto fifo = folder / "events.csv";
+  ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+  try {
+    readWholeFile(fifo);
+    FAIL() << "reading a FIFO succeeded";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("is a FIFO"), std::string::npos) << e.what();
+  }
 }
 
 }  // namespace

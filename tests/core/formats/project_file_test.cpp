@@ -2,6 +2,8 @@
 
 #include <gtest/gtest.h>
 
+#include <filesystem>
+
 #include "common/error.h"
 #include "formats/file_io.h"
 #include "test_support.h"
@@ -318,6 +320,26 @@ TEST(ProjectFile, FailedSaveLeavesTheOldFileIntact) {
     ++files;
   }
   EXPECT_EQ(files, 2) << "temporary files left behind";
+}
+
+// Source: issue 17 defect 7 (saving a symlinked project left the real file unchanged): the save
+// goes through the link to the real file, and the link stays a link.
+TEST(ProjectFile, SavingThroughASymlinkUpdatesTheRealFile) {
+  testing::TempFolder folder;
+  std::filesystem::create_directories(folder / "real");
+  const auto real = folder / "real" / "trial.stridemark";
+  writeProjectFile(real, sampleProject());
+  const auto link = folder / "trial.stridemark";
+  std::filesystem::create_symlink(real, link);
+  model::Project changed = sampleProject();
+  changed.trial.subject = "saved through a link";
+  writeProjectFile(link, changed);
+  EXPECT_TRUE(std::filesystem::is_symlink(link));  // Source: issue 17 defect 7
+  EXPECT_EQ(readProjectFile(real).trial.subject, "saved through a link");
+  std::size_t entries = 0;
+  for ([[maybe_unused]] const auto& entry : std::filesystem::directory_iterator(folder / "real"))
+    ++entries;
+  EXPECT_EQ(entries, 1u) << "temporary file left beside the real file";
 }
 
 }  // namespace
