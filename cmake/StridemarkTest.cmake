@@ -9,6 +9,7 @@ function(stridemark_add_test)
   endif()
   add_executable(${T_NAME} ${T_SOURCES})
   target_link_libraries(${T_NAME} PRIVATE ${T_LIBS} GTest::gtest GTest::gtest_main stridemark_warnings)
+  target_include_directories(${T_NAME} PRIVATE ${PROJECT_SOURCE_DIR})  # "tests/support/..."
   target_compile_definitions(${T_NAME} PRIVATE
     STRIDEMARK_SOURCE_DIR="${PROJECT_SOURCE_DIR}" STRIDEMARK_BINARY_DIR="${PROJECT_BINARY_DIR}")
   set(lock "")

@@ -42,6 +42,14 @@ std::string withLongWordsCut(std::string_view message) {
   return result;
 }
 
+std::string frameList(const std::vector<std::int64_t>& frames) {
+  std::string text;
+  for (std::size_t i = 0; i < frames.size() && i < 20; ++i)
+    text += (i ? ", " : "") + std::to_string(frames[i]);
+  if (frames.size() > 20) text += " and " + std::to_string(frames.size() - 20) + " more";
+  return text;
+}
+
 std::int64_t parseFrameNumber(std::string_view text, std::string_view flag) {
   const std::string what = std::string(flag) + " " + shownValue(text) + ": ";
   if (text.empty()) throw UsageProblem{what + "give a frame number (0, 1, 2, ...)"};

@@ -28,6 +28,9 @@ std::string shortened(std::string_view text);
 // whole; a runaway number does not).
 std::string withLongWordsCut(std::string_view message);
 
+// "3, 17, 40": the first 20 frames of a list for a message, then how many more.
+std::string frameList(const std::vector<std::int64_t>& frames);
+
 // A frame number: decimal digits only, 0 up to 2^63 - 1. No sign, no hex, no exponent, no
 // spaces. Throws UsageProblem naming `flag` and the value.
 std::int64_t parseFrameNumber(std::string_view text, std::string_view flag);

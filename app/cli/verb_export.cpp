@@ -86,15 +86,6 @@ ui::exports::ExportProgress stderrProgress() {
   };
 }
 
-// "3, 17, 40" (the first 20, then how many more).
-std::string frameList(const std::vector<std::int64_t>& frames) {
-  std::string text;
-  for (std::size_t i = 0; i < frames.size() && i < 20; ++i)
-    text += (i ? ", " : "") + std::to_string(frames[i]);
-  if (frames.size() > 20) text += " and " + std::to_string(frames.size() - 20) + " more";
-  return text;
-}
-
 int runExport(const ExportArgs& args) {
   ui::exports::ExportOptions options;
   options.projectPath = args.project;

@@ -23,14 +23,6 @@ struct ProbeOptions {
   bool quick = false;
 };
 
-std::string frameList(const std::vector<std::int64_t>& frames) {
-  std::string text;
-  for (std::size_t i = 0; i < frames.size() && i < 20; ++i)
-    text += (i ? ", " : "") + std::to_string(frames[i]);
-  if (frames.size() > 20) text += " and " + std::to_string(frames.size() - 20) + " more";
-  return text;
-}
-
 nlohmann::json toJson(const video::VideoInfo& info) {
   nlohmann::json j;
   j["path"] = info.path;

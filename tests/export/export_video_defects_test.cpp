@@ -12,6 +12,7 @@
 
 #include "export_fixture.h"
 #include "formats/project_file.h"
+#include "tests/support/damaged_clip.h"
 #include "video/frame_index.h"
 
 using namespace stridemark;
@@ -27,24 +28,6 @@ std::string ffprobeStream(const fs::path& clip) {
       .out;
 }
 
-// Overwrites every byte of the packets of `frames` with the same pseudo-random bytes each run.
-void damageFrames(const fs::path& path, const std::vector<std::int64_t>& frames) {
-  const video::FrameIndex index = video::FrameIndex::build(path.string());
-  std::string bytes;
-  {
-    std::ifstream in(path, std::ios::binary);
-    bytes.assign(std::istreambuf_iterator<char>(in), {});
-  }
-  std::mt19937_64 rng(11);
-  for (const std::int64_t n : frames) {
-    const video::PacketEntry& p = index.frame(n);
-    for (std::int32_t i = 0; i < p.size; ++i)
-      bytes[static_cast<std::size_t>(p.pos + i)] = static_cast<char>(rng() & 0xff);
-  }
-  std::ofstream(path, std::ios::binary | std::ios::trunc)
-      .write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
-}
-
 // Source: the ffmpeg CLI: frames (pts in the 1/240 time base of the 240 fps test clip) in
 // [first, last] that `ffmpeg -f framemd5` does not output.
 std::set<std::int64_t> framesFfmpegCannotDecode(const fs::path& path, std::int64_t first,
@@ -52,20 +35,7 @@ std::set<std::int64_t> framesFfmpegCannotDecode(const fs::path& path, std::int64
   const CommandResult r = run("ffmpeg -nostdin -v quiet -i '" + path.string() +
                               "' -map 0:v:0 -fps_mode passthrough -f framemd5 - 2>/dev/null");
   EXPECT_NE(r.out.find("#tb 0: 1/240"), std::string::npos) << r.out.substr(0, 300);
-  std::set<std::int64_t> missing;
-  for (std::int64_t n = first; n <= last; ++n) missing.insert(n);
-  std::istringstream lines(r.out);
-  std::string line;
-  while (std::getline(lines, line)) {
-    if (line.empty() || line[0] == '#') continue;
-    std::istringstream fields(line);
-    std::string stream, dts, pts;
-    std::getline(fields, stream, ',');
-    std::getline(fields, dts, ',');
-    std::getline(fields, pts, ',');
-    missing.erase(std::stoll(pts));
-  }
-  return missing;
+  return testsupport::framesMissingFromFramemd5(r.out, first, last);
 }
 
 }  // namespace
@@ -73,7 +43,7 @@ std::set<std::int64_t> framesFfmpegCannotDecode(const fs::path& path, std::int64
 TEST(ExportVideoDefects, DamagedFramesAreSkippedAndListedAndTheClipFinishes) {
   const fs::path dir = freshFolder("damaged");
   makeClip(dir / "trot.mp4", 200);
-  damageFrames(dir / "trot.mp4", {50, 51, 90});
+  testsupport::damagePackets(dir / "trot.mp4", {50, 51, 90});
   formats::writeProjectFile(dir / "trot.stridemark", trotProject("trot.mp4", 200));
   const std::set<std::int64_t> bad = framesFfmpegCannotDecode(dir / "trot.mp4", 10, 129);
   // Common practice, no source: the damage must really break frames for the test to count.

@@ -2,6 +2,7 @@
 // Test helpers shared by the suites that run programs: private temp folders, whole-file text
 // I/O and running a shell command line with its exit code, stdout and stderr captured.
 #include <sys/wait.h>
+#include <unistd.h>
 
 #include <cstdlib>
 #include <filesystem>
@@ -35,6 +36,15 @@ class TempFolder {
  private:
   std::filesystem::path path_;
 };
+
+// A pid that certainly ran and has ended: a child that exits at once, reaped.
+inline pid_t finishedPid() {
+  const pid_t child = ::fork();
+  if (child == 0) ::_exit(0);
+  int status = 0;
+  ::waitpid(child, &status, 0);
+  return child;
+}
 
 inline void writeText(const std::filesystem::path& path, const std::string& text) {
   std::ofstream out(path, std::ios::binary);

@@ -16,6 +16,7 @@
 #include <cstring>
 
 #include "formats/project_file.h"
+#include "tests/support/process.h"
 #include "tests/ui/desk_process.h"
 #include "tests/ui/test_support.h"
 #include "ui/document/journal.h"
@@ -117,8 +118,9 @@ TEST(FullDisk, JournalKeepsItsLastGoodStateAndTheDeskSaysSo) {
   EXPECT_TRUE(warning.contains(QStringLiteral("free space")) &&
               warning.contains(QStringLiteral("Save As")))
       << warning.toStdString();
-  const QStringList left = QDir(base.filePath(QStringLiteral("small")))
-                               .entryList({QStringLiteral("*.smtmp-*")}, QDir::Files | QDir::Hidden);
+  const QStringList left =
+      QDir(base.filePath(QStringLiteral("small")))
+          .entryList({QStringLiteral("*.smtmp-*")}, QDir::Files | QDir::Hidden);
   EXPECT_TRUE(left.isEmpty()) << left.join(' ').toStdString();
 
   // The way out the warning names: space again, and the next edit writes the journal.
@@ -217,24 +219,16 @@ TEST(OneWindowPerProject, SecondWindowAndSaveAsOntoAnOpenProjectAreRefused) {
   EXPECT_FALSE(third.openProject(c));
 }
 
-// A pid that certainly ran and has ended: a child that exits at once, reaped.
-pid_t finishedPid() {
-  const pid_t child = ::fork();
-  if (child == 0) ::_exit(0);
-  int status = 0;
-  ::waitpid(child, &status, 0);
-  return child;
-}
-
 // Issue 17 (smaller defects): temporary files of a killed save were never cleaned up. Common
 // practice, no source: remove only our own pattern, only for a dead writer.
 TEST(Leftovers, OpeningAProjectRemovesOnlyTemporariesOfDeadWriters) {
   QTemporaryDir dir;
   const QString project = writeEmptyProject(dir.path(), QStringLiteral("trial.stridemark"));
-  const QString dead = QString::number(finishedPid());
+  const QString dead = QString::number(testsupport::finishedPid());
   const QString alive = QString::number(::getpid());
-  const QStringList stale = {QStringLiteral(".trial.stridemark.smtmp-%1-Ab12Cd").arg(dead),
-                             QStringLiteral(".trial.stridemark.smjournal.smtmp-%1-x9Y8z7").arg(dead)};
+  const QStringList stale = {
+      QStringLiteral(".trial.stridemark.smtmp-%1-Ab12Cd").arg(dead),
+      QStringLiteral(".trial.stridemark.smjournal.smtmp-%1-x9Y8z7").arg(dead)};
   const QStringList kept = {QStringLiteral(".trial.stridemark.smtmp-%1-Ab12Cd").arg(alive),
                             QStringLiteral(".trial.stridemark.smtmp-Ab12Cd"),
                             QStringLiteral(".other.stridemark.smtmp-%1-Ab12Cd").arg(dead),

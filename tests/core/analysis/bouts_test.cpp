@@ -103,9 +103,9 @@ void addCycles(model::Annotation& a, int limb, std::int64_t start, std::int64_t 
   }
 }
 
-TEST(Bouts, WalkToTrotTransitionFromTags) {
-  // Common practice, no source: three walk strides (1200 frames, DF 0.7, LS single-foot) then
-  // trot strides (1000 frames, DF 0.4) of one quadruped; limb order LF, RF, LH, RH.
+// Three walk strides (1200 frames, DF 0.7, LS single-foot) then trot strides (1000 frames,
+// DF 0.4) of one quadruped; limb order LF, RF, LH, RH; LH is the reference.
+model::Annotation walkThenTrotTags() {
   model::Annotation a;
   a.captureRate = {1200, 1};
   a.referenceLimb = 2;
@@ -116,6 +116,12 @@ TEST(Bouts, WalkToTrotTransitionFromTags) {
     addCycles(a, limb, 4600, 1000, trotOffsets[limb], 0.4, 4);
   }
   a.normalize();
+  return a;
+}
+
+TEST(Bouts, WalkToTrotTransitionFromTags) {
+  // Common practice, no source: the walk-then-trot tags of walkThenTrotTags().
+  const model::Annotation a = walkThenTrotTags();
   const Report r = analyse(a);
   ASSERT_TRUE(r.problems.empty()) << r.problems.front().message;
   ASSERT_EQ(r.strides.size(), 6u);
@@ -148,16 +154,7 @@ TEST(Bouts, UnclassifiedStrideOutsideATransitionSaysWhichLimbAndWhy) {
   // and what is missing). The walk-to-trot tags above, with bouts of 3 strides: the two walk
   // strides are no bout, so the stride where RF's touchdown slipped out of the window is no
   // transition: it stays unclassified and a problem names RF and frame 4600.
-  model::Annotation a;
-  a.captureRate = {1200, 1};
-  a.referenceLimb = 2;
-  const double walkOffsets[] = {0.25, 0.75, 0.0, 0.5};
-  const double trotOffsets[] = {0.5, 1.0, 0.0, 0.5};
-  for (int limb = 0; limb < 4; ++limb) {
-    addCycles(a, limb, 1000, 1200, walkOffsets[limb], 0.7, 3);
-    addCycles(a, limb, 4600, 1000, trotOffsets[limb], 0.4, 4);
-  }
-  a.normalize();
+  const model::Annotation a = walkThenTrotTags();
   AnalysisOptions options;
   options.minBoutStrides = 3;
   const Report r = analyse(a, options);

@@ -7,6 +7,7 @@
 
 #include "common/error.h"
 #include "test_support.h"
+#include "tests/support/process.h"
 
 namespace stridemark::formats {
 namespace {
@@ -66,15 +67,6 @@ TEST(FileIo, RegenerableOutputIsReplacedWholeOrNotAtAll) {
   EXPECT_EQ(entries, 1u);
 }
 
-// A pid that certainly ran and has ended: a child that exits at once, reaped.
-pid_t finishedPid() {
-  const pid_t child = ::fork();
-  if (child == 0) ::_exit(0);
-  int status = 0;
-  ::waitpid(child, &status, 0);
-  return child;
-}
-
 // Common practice, no source: the temporary file names its writer, so a later run can tell a
 // killed writer's leftover from a live writer's file.
 TEST(FileIo, TemporaryFileNamesItsWriter) {
@@ -94,7 +86,7 @@ TEST(FileIo, TemporaryFileNamesItsWriter) {
 TEST(FileIo, StaleTemporariesOfDeadWritersAreRemovedAndNothingElse) {
   testing::TempFolder folder;
   const auto target = folder / "trial.stridemark";
-  const std::string dead = std::to_string(finishedPid());
+  const std::string dead = std::to_string(testsupport::finishedPid());
   const std::string alive = std::to_string(::getpid());
   const auto stale = folder / (".trial.stridemark.smtmp-" + dead + "-a1B2c3");
   const std::vector<std::string> kept = {
@@ -115,7 +107,8 @@ TEST(FileIo, StaleTemporariesOfDeadWritersAreRemovedAndNothingElse) {
   EXPECT_EQ(removed[0], stale);
   EXPECT_FALSE(std::filesystem::exists(stale));
   for (const auto& name : kept) EXPECT_TRUE(std::filesystem::exists(folder / name)) << name;
-  EXPECT_TRUE(std::filesystem::is_directory(folder / (".trial.stridemark.smtmp-" + dead + "-dir123")));
+  EXPECT_TRUE(
+      std::filesystem::is_directory(folder / (".trial.stridemark.smtmp-" + dead + "-dir123")));
 }
 
 // Source: issue 17 defect 11 (a FIFO as input blocked forever): reading one fails at once.

@@ -13,6 +13,7 @@
 #include <sstream>
 
 #include "common/error.h"
+#include "tests/support/damaged_clip.h"
 #include "video/damage_scan.h"
 #include "video/frame_index.h"
 #include "video/frame_reader.h"
@@ -27,22 +28,12 @@ namespace {
 
 namespace fs = std::filesystem;
 
-// Overwrites every byte of the packets of `frames` (length prefixes included) with the same
-// pseudo-random bytes on every run.
+// A copy of `source` named `name` whose `frames` have corrupted packets.
 std::string damagedCopy(const std::string& source, const std::string& name,
                         const std::vector<std::int64_t>& frames) {
   const std::string path = testing::clipFolder() + "/" + name;
-  std::ifstream in(source, std::ios::binary);
-  std::string bytes((std::istreambuf_iterator<char>(in)), {});
-  const FrameIndex index = FrameIndex::build(source);
-  std::mt19937_64 rng(11);
-  for (const std::int64_t n : frames) {
-    const PacketEntry& p = index.frame(n);
-    for (std::int32_t i = 0; i < p.size; ++i)
-      bytes[static_cast<std::size_t>(p.pos + i)] = static_cast<char>(rng() & 0xff);
-  }
-  std::ofstream(path, std::ios::binary | std::ios::trunc)
-      .write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
+  fs::copy_file(source, path, fs::copy_options::overwrite_existing);
+  testsupport::damagePackets(path, frames);
   return path;
 }
 
@@ -54,20 +45,7 @@ std::set<std::int64_t> framesFfmpegCannotDecode(const std::string& path, std::in
                           "' -map 0:v:0 -fps_mode passthrough -f framemd5 - 2>/dev/null",
                       &out);
   EXPECT_NE(out.find("#tb 0: 1/25"), std::string::npos) << out.substr(0, 400);
-  std::set<std::int64_t> missing;
-  for (std::int64_t n = 0; n < count; ++n) missing.insert(n);
-  std::istringstream lines(out);
-  std::string line;
-  while (std::getline(lines, line)) {
-    if (line.empty() || line[0] == '#') continue;
-    std::istringstream fields(line);
-    std::string stream, dts, pts;
-    std::getline(fields, stream, ',');
-    std::getline(fields, dts, ',');
-    std::getline(fields, pts, ',');
-    missing.erase(std::stoll(pts));
-  }
-  return missing;
+  return testsupport::framesMissingFromFramemd5(out, 0, count - 1);
 }
 
 class DamagedFrames : public ::testing::Test {
