@@ -10,6 +10,8 @@
 #include <sstream>
 #include <string>
 
+#include <nlohmann/json.hpp>
+
 #include "export_fixture.h"
 #include "formats/project_file.h"
 #include "tests/support/damaged_clip.h"
@@ -62,6 +64,11 @@ TEST(ExportVideoDefects, DamagedFramesAreSkippedAndListedAndTheClipFinishes) {
   const std::string probe = ffprobeStream(dir / "out" / "clip" / "marked_clip.mp4");
   EXPECT_NE(probe.find("nb_read_frames=" + std::to_string(120 - bad.size())), std::string::npos)
       << probe;
+  // Common practice, no source: the export folder keeps the list too (export.json).
+  const auto provenance = nlohmann::json::parse(readText(dir / "out" / "export.json"));
+  const auto listed = provenance.at("marked_clip").at("skipped_damaged_frames");
+  EXPECT_EQ(listed.get<std::set<std::int64_t>>(), bad) << provenance.dump();
+  EXPECT_EQ(provenance.at("marked_clip").at("frames"), 120 - static_cast<int>(bad.size()));
   std::cout << "export skipped " << bad.size() << " damaged frame(s): " << list << "\n";
 }
 

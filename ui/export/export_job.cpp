@@ -69,7 +69,8 @@ Json signatureOnDisk(const std::optional<fs::path>& video) {
 
 // The export's provenance. report.json and the tables stay the bytes `stridemark score` writes
 // for the same project; what only an export knows goes here.
-std::string exportJsonText(const Context& c, const std::optional<fs::path>& video) {
+std::string exportJsonText(const Context& c, const std::optional<fs::path>& video,
+                           const ExportOutcome& outcome) {
   const std::optional<model::VideoLink>& link = c.project.video;
   Json doc;
   doc["schema"] = "stridemark.export.v1";
@@ -80,6 +81,17 @@ std::string exportJsonText(const Context& c, const std::optional<fs::path>& vide
   doc["video_signature_on_disk"] = signatureOnDisk(video);
   doc["capture_rate_fps"] = toString(c.report.fps);
   doc["exported_utc"] = c.exportedAt;
+  if (c.options.clip) {
+    // A damaged frame is skipped, not drawn: the clip is shorter by these frames.
+    Json clip;
+    clip["written"] = !outcome.clipProblem;
+    clip["problem"] = outcome.clipProblem ? Json(*outcome.clipProblem) : Json(nullptr);
+    clip["frames"] = outcome.clip.frames;
+    clip["skipped_damaged_frames"] = outcome.clip.skippedDamaged;
+    clip["rotation_degrees"] = outcome.clip.rotationDegrees;
+    clip["rotation_applied"] = outcome.clip.rotationApplied;
+    doc["marked_clip"] = clip;
+  }
   return doc.dump(2) + "\n";
 }
 
@@ -192,7 +204,6 @@ ExportOutcome runExport(const ExportOptions& options, const ExportProgress& prog
                     : std::nullopt;
   ExportOutcome outcome;
   writeTables(c);
-  writeText(out.stage("export.json"), exportJsonText(c, video));
   const std::vector<NamedFigure> figures = exportFigures(project.annotation, analysed);
   writeFigures(c, figures);
   if (options.report) {
@@ -208,6 +219,7 @@ ExportOutcome runExport(const ExportOptions& options, const ExportProgress& prog
     outcome.clipProblem = clipObstacle(c, video.value_or(fs::path()));
     if (!outcome.clipProblem) outcome.clip = writeClip(c, *video);
   }
+  writeText(out.stage("export.json"), exportJsonText(c, video, outcome));
   checkCancel(c);
   outcome.written = out.commit();
   return outcome;
