@@ -179,6 +179,20 @@ TEST(RealTrials, StrideTimesNoAnimalHasAskAboutTheCaptureRate) {
   EXPECT_FALSE(anyProblemSays(analyse(a), "capture rate"));
 }
 
+TEST(RealTrials, ATrotReadAtAFalseLowRateAsksAboutTheCaptureRate) {
+  // Our choice (docs/methods.md §1.5): running strides (duty factor below 0.5) over 2 s ask
+  // too. A dog's 0.4 s trot stride (96 frames at 240 fps) read at 30 fps lasts 3.2 s, under
+  // the 4 s any stride may take; a walk of the same frames (duty factor 0.7) does not ask.
+  model::Annotation trot = testing::symmetricalQuadruped(0.4, 0.5, 96, 8);
+  trot.captureRate = Rational{30, 1};
+  EXPECT_TRUE(anyProblemSays(analyse(trot), "the median running stride lasts 3.20 s"));
+  trot.captureRate = Rational{240, 1};
+  EXPECT_FALSE(anyProblemSays(analyse(trot), "capture rate"));
+  model::Annotation walk = testing::symmetricalQuadruped(0.7, 0.25, 96, 8);
+  walk.captureRate = Rational{30, 1};
+  EXPECT_FALSE(anyProblemSays(analyse(walk), "capture rate"));
+}
+
 TEST(RealTrials, UntaggedLimbsAndReferenceAreProblems) {
   // Source: docs/methods.md §1.5: untagged limbs and an untagged reference limb are problems.
   model::Annotation a = testing::symmetricalQuadruped(0.4, 0.5);
