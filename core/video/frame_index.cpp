@@ -38,6 +38,18 @@ void writeValue(std::ofstream& out, T value) {
   out.write(reinterpret_cast<const char*>(&value), sizeof value);
 }
 
+// Bytes of one packet record in the sidecar: pts, dts, pos, size, flags.
+constexpr std::uint64_t kPacketRecordBytes = 8 + 8 + 8 + 4 + 1;
+
+// Bytes from the read position to the end of the stream (0 when unknown).
+std::uint64_t bytesLeft(std::ifstream& in) {
+  const auto here = in.tellg();
+  in.seekg(0, std::ios::end);
+  const auto end = in.tellg();
+  in.seekg(here);
+  return here < 0 || end < here ? 0 : static_cast<std::uint64_t>(end - here);
+}
+
 template <typename T>
 bool readValue(std::ifstream& in, T& value) {
   in.read(reinterpret_cast<char*>(&value), sizeof value);
@@ -259,7 +271,8 @@ std::optional<FrameIndex> FrameIndex::loadSidecar(const std::string& sidecarPath
       !readValue(in, stream) || !readValue(in, index.timeBase_.num) ||
       !readValue(in, index.timeBase_.den) || !readValue(in, synthesised) ||
       !readValue(in, index.missingPackets_) || !readValue(in, count) ||
-      count > expected.fileSize)  // every packet takes at least one byte of the file
+      count > expected.fileSize ||  // every packet takes at least one byte of the file
+      count > bytesLeft(in) / kPacketRecordBytes)  // a damaged count must not size the table
     return std::nullopt;
   index.streamIndex_ = stream;
   index.packets_.resize(static_cast<std::size_t>(count));
