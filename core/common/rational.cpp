@@ -1,6 +1,7 @@
 #include "common/rational.h"
 
 #include <algorithm>
+#include <charconv>
 #include <cmath>
 #include <numeric>
 
@@ -66,6 +67,14 @@ Rational parseRate(std::string_view text, std::string_view what) {
       const long long d = std::stoll(b, &used2);
       if (used1 != a.size() || used2 != b.size() || n <= 0 || d <= 0) return fail();
       return reduced({n, d});
+    }
+    // Whole numbers exactly: through a double, text above 2^53 would change its value (and a
+    // rate we write as "N" would not read back as N).
+    long long whole = 0;
+    const auto [end, ec] = std::from_chars(s.data(), s.data() + s.size(), whole);
+    if (ec == std::errc() && end == s.data() + s.size()) {
+      if (whole <= 0) return fail();
+      return {whole, 1};
     }
     std::size_t used = 0;
     const double v = std::stod(s, &used);

@@ -18,7 +18,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   }
   try {
     const auto again = formats::toAnnotation(formats::parseEventsCsv(written, "written.csv"));
-    fuzz::require(formats::formatEventsCsv(again) == written, "events CSV round trip is stable");
+    fuzz::requireSame(formats::formatEventsCsv(again), written, "events CSV round trip is stable");
   } catch (const Error& e) {
     std::fprintf(stderr, "%s\n", e.what());
     fuzz::require(false, "an events CSV we wrote reads back");

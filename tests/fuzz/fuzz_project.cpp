@@ -18,7 +18,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   }
   try {
     const auto reopened = formats::parseProjectJson(saved, "saved.stridemark");
-    fuzz::require(formats::projectJsonText(reopened) == saved, "project save is stable");
+    fuzz::requireSame(formats::projectJsonText(reopened), saved, "project save is stable");
   } catch (const Error& e) {
     std::fprintf(stderr, "%s\n", e.what());
     fuzz::require(false, "a project we saved reopens");

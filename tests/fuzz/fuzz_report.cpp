@@ -18,7 +18,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   }
   try {
     const auto again = formats::parseReportJson(written, "written.json");
-    fuzz::require(formats::reportJsonText(again) == written, "report round trip is stable");
+    fuzz::requireSame(formats::reportJsonText(again), written, "report round trip is stable");
   } catch (const Error& e) {
     std::fprintf(stderr, "%s\n", e.what());
     fuzz::require(false, "a report we wrote reads back");

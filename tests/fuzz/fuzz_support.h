@@ -3,6 +3,7 @@
 // and one way to report a broken promise (a crash libFuzzer records with its input).
 #include <unistd.h>
 
+#include <algorithm>
 #include <cstdint>
 #include <cstdio>
 #include <cstdlib>
@@ -21,6 +22,19 @@ inline void require(bool holds, const char* promise) {
   if (holds) return;
   std::fprintf(stderr, "fuzz: broken promise: %s\n", promise);
   std::abort();
+}
+
+// Two writings that must be equal; on a difference prints both around its first byte.
+inline void requireSame(std::string_view first, std::string_view second, const char* promise) {
+  if (first == second) return;
+  std::size_t at = 0;
+  while (at < first.size() && at < second.size() && first[at] == second[at]) ++at;
+  const std::size_t from = at > 80 ? at - 80 : 0;
+  std::fprintf(
+      stderr, "fuzz: first difference at byte %zu\n--- first:\n%.*s\n--- second:\n%.*s\n", at,
+      static_cast<int>(std::min<std::size_t>(first.size() - from, 200)), first.data() + from,
+      static_cast<int>(std::min<std::size_t>(second.size() - from, 200)), second.data() + from);
+  require(false, promise);
 }
 
 // Keeps a computed value alive so the optimiser cannot drop the call that made it.

@@ -50,5 +50,16 @@ TEST(Rational, RatesBeyondSixtyFourBitsAreRefused) {
               0.13);
 }
 
+// Found by tests/fuzz (fuzz_journal: a journal's rate "00050925036228669603/3" was written back
+// as "16975012076223201" and read as 16975012076223200). Common practice, no source: whole
+// numbers are read exactly, so every rate we write reads back the same.
+TEST(Rational, WholeNumberRatesReadExactly) {
+  EXPECT_EQ(parseRate("16975012076223201"), (Rational{16975012076223201, 1}));
+  EXPECT_EQ(parseRate("9223372036854775807"), (Rational{9223372036854775807, 1}));
+  const Rational reduced = parseRate("00050925036228669603/3");
+  EXPECT_EQ(parseRate(toString(reduced)), reduced);
+  EXPECT_THROW(parseRate("9223372036854775808", "capture rate"), Error);  // beyond 64 bits
+}
+
 }  // namespace
 }  // namespace stridemark
