@@ -210,7 +210,7 @@ std::map<std::string, Summaries> summariseBouts(Report& report, const SummaryInp
   std::map<std::string, Summaries> out;
   for (auto& [gait, all] : members) {
     const auto single = std::find_if(report.bouts.begin(), report.bouts.end(),
-                                     [&](const Bout& b) { return b.gait == gait; });
+                                     [&name = gait](const Bout& b) { return b.gait == name; });
     report.byGait[gait] =
         boutsOf[gait] == 1 ? single->summary : summariseStrides(report.strides, all, in);
     out[gait] = {std::move(all), &report.byGait[gait]};

@@ -1,6 +1,9 @@
 #include "formats/json_in.h"
 
+#include <algorithm>
 #include <cmath>
+#include <utility>
+#include <vector>
 
 #include "common/error.h"
 
@@ -21,36 +24,108 @@ std::string pointerToken(std::string_view key) {
   return out;
 }
 
+constexpr std::size_t kLongestQuote = 40;
+
+// JSON text of a string, cut to kLongestQuote characters before it is escaped.
+std::string quotedPrefix(const std::string& text) {
+  return nlohmann::json(text.substr(0, kLongestQuote + 1))
+      .dump(-1, ' ', false, nlohmann::json::error_handler_t::replace);
+}
+
+// At most kLongestQuote characters of the value's JSON text, produced without serialising the
+// rest: dump() writes all of a huge value to quote a little of it, and recurses once per level.
 std::string describe(const nlohmann::json& value) {
-  std::string text = value.dump();
-  constexpr std::size_t kLongest = 40;
-  if (text.size() > kLongest) text = text.substr(0, kLongest) + "...";
-  return text;
+  using Iterator = nlohmann::json::const_iterator;
+  std::string out;
+  std::vector<std::pair<const nlohmann::json*, Iterator>> open;  // containers being written
+  const nlohmann::json* next = &value;
+  while (out.size() <= kLongestQuote) {
+    if (next != nullptr) {
+      if (next->is_structured()) {
+        out += next->is_array() ? '[' : '{';
+        open.emplace_back(next, next->cbegin());
+      } else {
+        out += next->is_string() ? quotedPrefix(next->get_ref<const std::string&>())
+                                 : next->dump();  // a number, true, false or null: short
+      }
+      next = nullptr;
+      continue;
+    }
+    if (open.empty()) break;
+    auto& [container, it] = open.back();
+    if (it == container->cend()) {
+      out += container->is_array() ? ']' : '}';
+      open.pop_back();
+      continue;
+    }
+    if (it != container->cbegin()) out += ',';
+    if (container->is_object()) out += quotedPrefix(it.key()) + ':';
+    next = &*it;
+    ++it;
+  }
+  if (out.size() > kLongestQuote) out = out.substr(0, kLongestQuote) + "...";
+  return out;
+}
+
+// "FILE:LINE:COLUMN" of a byte offset into the text (offset 0 is line 1, column 1).
+std::string placeOf(std::string_view text, std::size_t offset, std::string_view fileName) {
+  long line = 1;
+  std::size_t lineStart = 0;
+  for (std::size_t i = 0; i < offset; ++i) {
+    if (text[i] == '\n') {
+      ++line;
+      lineStart = i + 1;
+    }
+  }
+  return std::string(fileName) + ":" + std::to_string(line) + ":" +
+         std::to_string(offset - lineStart + 1);
+}
+
+// Refuses text whose arrays and objects nest deeper than kMaxJsonDepth, before a document is
+// built: our own readers, dump() and copies of a document recurse once per level, so a file
+// nested tens of thousands of levels deep would overflow the stack. Brackets inside strings do
+// not count; malformed text is left to the parser's message.
+void checkNesting(std::string_view text, std::string_view fileName) {
+  std::size_t depth = 0;
+  bool inString = false;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    if (inString) {
+      if (c == '\\') {
+        ++i;  // the escaped character cannot end the string
+      } else if (c == '"') {
+        inString = false;
+      }
+    } else if (c == '"') {
+      inString = true;
+    } else if (c == '[' || c == '{') {
+      if (++depth > kMaxJsonDepth) {
+        throw Error(ErrorCategory::format,
+                    placeOf(text, i, fileName) + ": values nested more than " +
+                        std::to_string(kMaxJsonDepth) +
+                        " levels deep; no Stridemark file nests more than a few — the file is "
+                        "damaged or not ours: restore a backup copy");
+      }
+    } else if ((c == ']' || c == '}') && depth > 0) {
+      --depth;
+    }
+  }
 }
 
 }  // namespace
 
 nlohmann::json parseJsonText(std::string_view text, std::string_view fileName) {
+  checkNesting(text, fileName);
   try {
     return nlohmann::json::parse(text.begin(), text.end());
   } catch (const nlohmann::json::parse_error& e) {
-    // e.byte is 1-based; find its line and column for the message.
+    // e.byte is 1-based.
     const std::size_t offset = e.byte == 0 ? 0 : std::min(e.byte - 1, text.size());
-    long line = 1;
-    std::size_t lineStart = 0;
-    for (std::size_t i = 0; i < offset; ++i) {
-      if (text[i] == '\n') {
-        ++line;
-        lineStart = i + 1;
-      }
-    }
-    const std::string where = std::string(fileName) + ":" + std::to_string(line) + ":" +
-                              std::to_string(offset - lineStart + 1);
     std::string reason = e.what();
     if (const auto pos = reason.find(": "); pos != std::string::npos)
       reason = reason.substr(pos + 2);
-    throw Error(ErrorCategory::format, where + ": not valid JSON (" + reason +
-                                           ") — repair the file or restore a backup copy");
+    throw Error(ErrorCategory::format, placeOf(text, offset, fileName) + ": not valid JSON (" +
+                                           reason + ") — repair the file or restore a backup copy");
   } catch (const nlohmann::json::exception& e) {
     // e.g. a number too large for a double: the parser names the number, not its place.
     std::string reason = e.what();

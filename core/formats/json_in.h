@@ -12,7 +12,11 @@
 
 namespace stridemark::formats {
 
-// Parses text as JSON; a syntax error becomes Error(format) "FILE:LINE:COLUMN: ...".
+// Deepest nesting of arrays and objects a file may have; our files nest a few levels.
+inline constexpr std::size_t kMaxJsonDepth = 256;
+
+// Parses text as JSON; a syntax error, or nesting deeper than kMaxJsonDepth (refused before a
+// document is built), becomes Error(format) "FILE:LINE:COLUMN: ...".
 nlohmann::json parseJsonText(std::string_view text, std::string_view fileName);
 
 class JsonIn {

@@ -54,8 +54,9 @@ std::string textOr(const JsonIn& object, std::string_view key, std::string fallb
 }
 
 Rational rateAt(const JsonIn& value) {
+  const std::string text = value.text();  // its own message names the place already
   try {
-    return parseRate(value.text(), "rate");
+    return parseRate(text, "rate");
   } catch (const Error& e) {
     value.fail(e.what());
   }
@@ -193,8 +194,9 @@ model::Project readCurrent(const JsonIn& root) {
   }
   model::Project project;
   model::Annotation& annotation = project.annotation;
+  const std::string limbSet = root.at("limb_set").text();
   try {
-    annotation.limbs = model::LimbSet::fromName(root.at("limb_set").text());
+    annotation.limbs = model::LimbSet::fromName(limbSet);
   } catch (const Error& e) {
     root.at("limb_set").fail(e.what());
   }

@@ -14,22 +14,28 @@
 namespace stridemark::formats {
 namespace {
 
+// Each JsonIn message names the file and place already; only the rate and limb-set parsers'
+// messages need them added.
 std::string rateText(const JsonIn& fps) {
-  try {
-    if (fps.raw().is_string()) return toString(parseRate(fps.text(), "capture rate"));
-    const double value = fps.number();
-    if (fps.raw().is_number_integer() && value > 0) return std::to_string(fps.integer());
-    const Rational rate = rationalFromDouble(value);
-    if (!rate.valid()) fps.fail("expected a positive capture rate");
-    return toString(rate);
-  } catch (const Error& e) {
-    fps.fail(e.what());
+  if (fps.raw().is_string()) {
+    const std::string text = fps.text();
+    try {
+      return toString(parseRate(text, "capture rate"));
+    } catch (const Error& e) {
+      fps.fail(e.what());
+    }
   }
+  const double value = fps.number();
+  if (fps.raw().is_number_integer() && value > 0) return std::to_string(fps.integer());
+  const Rational rate = rationalFromDouble(value);
+  if (!rate.valid()) fps.fail("expected a positive capture rate");
+  return toString(rate);
 }
 
 model::LimbSet limbSetAt(const JsonIn& name) {
+  const std::string text = name.text();
   try {
-    return model::LimbSet::fromName(name.text());
+    return model::LimbSet::fromName(text);
   } catch (const Error& e) {
     name.fail(e.what());
   }

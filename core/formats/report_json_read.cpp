@@ -294,15 +294,17 @@ Report parseReportJson(std::string_view text, std::string_view fileName) {
                 " — this build reads only that report schema");
   }
   Report report;
+  const std::string limbSet = root.at("limb_set").text();
   try {
-    report.limbs = model::LimbSet::fromName(root.at("limb_set").text());
+    report.limbs = model::LimbSet::fromName(limbSet);
   } catch (const Error& e) {
     root.at("limb_set").fail(e.what());
   }
   report.fps = readFps(root.at("fps"));
   if (const auto exact = root.find("extra"); exact && exact->find("fps_exact")) {
+    const std::string fpsExact = exact->at("fps_exact").text();
     try {
-      report.fps = parseRate(exact->at("fps_exact").text(), "fps_exact");
+      report.fps = parseRate(fpsExact, "fps_exact");
     } catch (const Error& e) {
       exact->at("fps_exact").fail(e.what());
     }

@@ -1,6 +1,7 @@
 #include "model/annotation.h"
 
 #include <algorithm>
+#include <tuple>
 
 namespace stridemark::model {
 
@@ -32,13 +33,15 @@ bool isCalendarDate(std::string_view text) {
 }
 
 void Annotation::normalize() {
+  // Total orders (every field breaks ties), so one set of tags has one order whatever order
+  // it came in, and a saved file reads back to the same bytes.
   std::sort(events.begin(), events.end());
   std::sort(hidden.begin(), hidden.end(), [](const HiddenSpan& a, const HiddenSpan& b) {
-    return a.limb != b.limb ? a.limb < b.limb : a.first < b.first;
+    return std::tie(a.limb, a.first, a.last) < std::tie(b.limb, b.first, b.last);
   });
   std::sort(excluded.begin(), excluded.end(),
             [](const StrideExclusion& a, const StrideExclusion& b) {
-              return a.startFrame < b.startFrame;
+              return std::tie(a.startFrame, a.reason) < std::tie(b.startFrame, b.reason);
             });
 }
 

@@ -21,6 +21,9 @@ namespace stridemark::video {
 namespace {
 
 constexpr std::string_view kMagic = "SMKFIDX";
+// "0 0 0 0 0\n": no packet line is shorter (found by fuzz_frame_index: a count that only
+// had to fit the video's size made the reader reserve terabytes).
+constexpr std::size_t kShortestPacketLine = 10;
 
 std::string hex16(std::uint64_t value) {
   char text[17];
@@ -154,7 +157,8 @@ std::optional<FrameIndex> FrameIndex::loadSidecar(const std::string& sidecarPath
       !parseNumber(tokens[5], index.missingPackets_) || !parseNumber(tokens[6], count) ||
       index.streamIndex_ < 0 || index.timeBase_.num <= 0 || index.timeBase_.den <= 0 ||
       synthesised < 0 || synthesised > 1 || index.missingPackets_ < 0 ||
-      count > expected.fileSize)  // every packet takes at least one byte of the file
+      count > expected.fileSize ||  // every packet takes at least one byte of the file
+      count > payload.size() / kShortestPacketLine)  // nor may a count size the table alone
     return fail("is damaged (bad stream line)");
   index.packets_.reserve(static_cast<std::size_t>(count));
   for (std::uint64_t i = 0; i < count; ++i) {
