@@ -270,6 +270,20 @@ TEST(Document, JournalRoundTripKeepsEverything) {
   EXPECT_EQ(back.video, p.video);
 }
 
+TEST(Document, JournalHiddenSpanOfAnUnknownLimbIsAClearError) {
+  // Found by tests/fuzz (fuzz_journal): a hidden span of limb 5 in a quadruped journal reached
+  // the project writer's label lookup (std::out_of_range, a crash) instead of being refused.
+  const QByteArray bytes = "{\"schema\":\"stridemark.journal.v1\",\"limb_set\":\"quadruped\","
+                           "\"capture_rate\":\"120\",\"reference_limb\":2,"
+                           "\"hidden\":[[5,0,4]]}";
+  try {
+    journal::decode(bytes, "odd.smjournal");
+    FAIL() << "a hidden span of an unknown limb was accepted";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("bad hidden span entry"), std::string::npos) << e.what();
+  }
+}
+
 TEST(Document, CorruptJournalIsAClearError) {
   try {
     journal::decode("{\"schema\": \"stridemark.journal.v1\", \"limb_set\": 5", "broken.smjournal");

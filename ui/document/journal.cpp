@@ -195,8 +195,11 @@ model::Project decodePayload(const QByteArray& bytes, bool v2) {
   }
   for (const auto& item : root["hidden"].toArray()) {
     const auto h = item.toArray();
-    if (h.size() != 3) bad(QStringLiteral("bad hidden span entry"));
-    a.hidden.push_back({h.at(0).toInt(), h.at(1).toInteger(), h.at(2).toInteger()});
+    const int limb = h.at(0).toInt(-1);
+    // Found by fuzz_journal: an unknown limb here reached the project writer's label lookup.
+    if (h.size() != 3 || limb < 0 || limb >= a.limbs.size())
+      bad(QStringLiteral("bad hidden span entry"));
+    a.hidden.push_back({limb, h.at(1).toInteger(), h.at(2).toInteger()});
   }
   for (const auto& item : root["excluded"].toArray()) {
     const auto x = item.toArray();
