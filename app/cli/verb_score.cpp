@@ -230,11 +230,9 @@ void writeJsonToStdout(const analysis::Report& report) {
 // What score reads: the input and, for a project, its video. No output may replace them.
 std::vector<NamedInput> inputsOf(const ScoreOptions& options, const model::Project& project) {
   std::vector<NamedInput> inputs{{"the input", options.input}};
-  if (project.video) {
-    std::filesystem::path video(project.video->path);
-    if (video.is_relative()) video = std::filesystem::path(options.input).parent_path() / video;
-    inputs.push_back({"the project's video", video});
-  }
+  if (project.video)
+    inputs.push_back(
+        {"the project's video", model::resolveVideoPath(options.input, project.video->path)});
   return inputs;
 }
 

@@ -62,4 +62,11 @@ bool Annotation::inStance(int limb, std::int64_t frame) const {
   return it->kind == EventKind::touchdown;
 }
 
+std::filesystem::path resolveVideoPath(const std::filesystem::path& projectPath,
+                                       const std::string& linkedPath) {
+  const std::filesystem::path linked(linkedPath);
+  if (linked.is_absolute()) return linked;
+  return projectPath.parent_path() / linked;
+}
+
 }  // namespace stridemark::model

@@ -4,6 +4,7 @@
 // commands; analysis reads them.
 #include <compare>
 #include <cstdint>
+#include <filesystem>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -104,6 +105,10 @@ struct VideoLink {
   Rational fileRate{0, 1};  // what the container claims
   friend bool operator==(const VideoLink&, const VideoLink&) = default;
 };
+
+// Where a linked video is on disk: a relative link is relative to the project file's folder.
+std::filesystem::path resolveVideoPath(const std::filesystem::path& projectPath,
+                                       const std::string& linkedPath);
 
 struct Project {
   static constexpr int kSchemaVersion = 1;

@@ -8,6 +8,7 @@
 #include <fstream>
 #include <limits>
 
+#include "common/checksum.h"
 #include "common/error.h"
 #include "video/libav_handles.h"
 
@@ -21,19 +22,10 @@ std::uint64_t hashRange(std::ifstream& in, std::uint64_t offset, std::uint64_t s
   std::vector<char> buffer(static_cast<std::size_t>(size));
   in.seekg(static_cast<std::streamoff>(offset));
   in.read(buffer.data(), static_cast<std::streamsize>(size));
-  return detail::fnv1a64(std::string_view(buffer.data(), static_cast<std::size_t>(in.gcount())));
+  return fnv1a64(std::string_view(buffer.data(), static_cast<std::size_t>(in.gcount())));
 }
 
 }  // namespace
-
-std::uint64_t detail::fnv1a64(std::string_view bytes) {
-  std::uint64_t hash = 14695981039346656037ULL;
-  for (const char c : bytes) {
-    hash ^= static_cast<unsigned char>(c);
-    hash *= 1099511628211ULL;
-  }
-  return hash;
-}
 
 std::string signatureText(const VideoSignature& s) {
   char text[64];
@@ -245,7 +237,7 @@ std::string defaultSidecarPath(const std::string& videoPath) {
   const std::string absolute = fs::absolute(videoPath, ec).lexically_normal().string();
   char name[32];
   std::snprintf(name, sizeof name, "%016llx.smindex",
-                static_cast<unsigned long long>(detail::fnv1a64(absolute)));
+                static_cast<unsigned long long>(fnv1a64(absolute)));
   return (folder / name).string();
 }
 

@@ -45,11 +45,6 @@ std::string signatureText(const VideoSignature& signature);
 // STRIDEMARK_INDEX_CACHE is "off" or no folder is known.
 std::string defaultSidecarPath(const std::string& videoPath);
 
-namespace detail {
-// 64-bit FNV-1a: the signature's hash and the sidecar's checksum.
-std::uint64_t fnv1a64(std::string_view bytes);
-}  // namespace detail
-
 class FrameIndex {
  public:
   static constexpr std::uint32_t kSidecarVersion = 2;  // 2: text with a checksum (1: binary)

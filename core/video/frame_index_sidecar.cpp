@@ -13,6 +13,7 @@
 #include <fstream>
 #include <iterator>
 
+#include "common/checksum.h"
 #include "common/error.h"
 #include "video/frame_index.h"
 
@@ -24,12 +25,6 @@ constexpr std::string_view kMagic = "SMKFIDX";
 // "0 0 0 0 0\n": no packet line is shorter (found by fuzz_frame_index: a count that only
 // had to fit the video's size made the reader reserve terabytes).
 constexpr std::size_t kShortestPacketLine = 10;
-
-std::string hex16(std::uint64_t value) {
-  char text[17];
-  std::snprintf(text, sizeof text, "%016llx", static_cast<unsigned long long>(value));
-  return text;
-}
 
 // Splits one line into tokens separated by single spaces; false on a doubled or edge space.
 bool splitTokens(std::string_view line, std::vector<std::string_view>& tokens) {
@@ -83,7 +78,7 @@ void FrameIndex::saveSidecar(const std::string& sidecarPath) const {
                " " + std::to_string(p.size) + " " + std::to_string(flags) + "\n";
   }
   const std::string header = std::string(kMagic) + " " + std::to_string(kSidecarVersion) +
-                             " fnv1a64=" + hex16(detail::fnv1a64(payload)) +
+                             " fnv1a64=" + fnv1a64Hex(payload) +
                              " bytes=" + std::to_string(payload.size()) + "\n";
   const std::string temp = sidecarPath + ".part";
   {
@@ -138,7 +133,7 @@ std::optional<FrameIndex> FrameIndex::loadSidecar(const std::string& sidecarPath
     return fail("is damaged (bad first line)");
   const std::string_view payload = std::string_view(text).substr(headerEnd + 1);
   if (payload.size() != length) return fail("is damaged (cut short or extended)");
-  if (detail::fnv1a64(payload) != checksum) return fail("is damaged (checksum mismatch)");
+  if (fnv1a64(payload) != checksum) return fail("is damaged (checksum mismatch)");
 
   // The video it describes: the signature the rest of the program names clips by.
   LineReader lines(payload);

@@ -11,6 +11,7 @@
 #include <string>
 #include <string_view>
 
+#include "common/checksum.h"
 #include "common/error.h"
 #include "fuzz_support.h"
 #include "video/frame_index.h"
@@ -29,12 +30,9 @@ VideoSignature signatureIn(std::string_view payload) {
 }
 
 std::string withHeader(std::string_view payload) {
-  char sum[17];
-  std::snprintf(sum, sizeof sum, "%016llx",
-                static_cast<unsigned long long>(stridemark::video::detail::fnv1a64(payload)));
   return "SMKFIDX " + std::to_string(stridemark::video::FrameIndex::kSidecarVersion) +
-         " fnv1a64=" + sum + " bytes=" + std::to_string(payload.size()) + "\n" +
-         std::string(payload);
+         " fnv1a64=" + stridemark::fnv1a64Hex(payload) +
+         " bytes=" + std::to_string(payload.size()) + "\n" + std::string(payload);
 }
 
 void lookUpEverything(const stridemark::video::FrameIndex& index) {

@@ -6,6 +6,7 @@
 #include <QJsonObject>
 #include <QRegularExpression>
 
+#include "common/checksum.h"
 #include "common/error.h"
 #include "formats/file_io.h"
 #include "formats/json_out.h"
@@ -229,12 +230,8 @@ model::Project decodePayload(const QByteArray& bytes, bool v2) {
 }  // namespace
 
 std::uint64_t fnv1a64(const QByteArray& bytes) {
-  std::uint64_t hash = 14695981039346656037ULL;  // FNV-1a 64-bit offset basis and prime
-  for (const char c : bytes) {
-    hash ^= static_cast<unsigned char>(c);
-    hash *= 1099511628211ULL;
-  }
-  return hash;
+  return stridemark::fnv1a64(
+      std::string_view(bytes.constData(), static_cast<std::size_t>(bytes.size())));
 }
 
 QByteArray encode(const model::Project& project, const QString& projectPath) {

@@ -21,6 +21,7 @@ inline constexpr const char* kSchemaV1 = "stridemark.journal.v1";
 // Where a journal that failed its checks is kept for the person to inspect.
 inline constexpr const char* kDamagedSuffix = ".damaged";
 
+// core/common/checksum.h over the bytes.
 std::uint64_t fnv1a64(const QByteArray& bytes);
 
 // The whole file: header line and payload.

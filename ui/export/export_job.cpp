@@ -174,12 +174,6 @@ ClipResult writeClip(const Context& c, const fs::path& video) {
 
 }  // namespace
 
-fs::path resolveVideoPath(const fs::path& projectPath, const std::string& linkedPath) {
-  const fs::path linked(linkedPath);
-  if (linked.is_absolute()) return linked;
-  return projectPath.parent_path() / linked;
-}
-
 ExportOutcome runExport(const ExportOptions& options, const ExportProgress& progress,
                         const std::atomic<bool>& cancel) {
   const model::Project project = formats::readProjectFile(options.projectPath);
@@ -200,8 +194,9 @@ ExportOutcome runExport(const ExportOptions& options, const ExportProgress& prog
                   progress,
                   cancel};
   const std::optional<fs::path> video =
-      project.video ? std::optional(resolveVideoPath(options.projectPath, project.video->path))
-                    : std::nullopt;
+      project.video
+          ? std::optional(model::resolveVideoPath(options.projectPath, project.video->path))
+          : std::nullopt;
   ExportOutcome outcome;
   writeTables(c);
   const std::vector<NamedFigure> figures = exportFigures(project.annotation, analysed);

@@ -49,8 +49,4 @@ using ExportProgress = std::function<void(const std::string& stage, double fract
 ExportOutcome runExport(const ExportOptions& options, const ExportProgress& progress,
                         const std::atomic<bool>& cancel);
 
-// Where the project's linked video is on disk: relative paths are relative to the project.
-std::filesystem::path resolveVideoPath(const std::filesystem::path& projectPath,
-                                       const std::string& linkedPath);
-
 }  // namespace stridemark::ui::exports

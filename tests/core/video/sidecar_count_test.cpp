@@ -6,11 +6,11 @@
 #include <gtest/gtest.h>
 
 #include <cstdint>
-#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <string>
 
+#include "common/checksum.h"
 #include "video/frame_index.h"
 
 namespace stridemark::video {
@@ -18,11 +18,8 @@ namespace {
 
 // A version-2 sidecar (frame_index_sidecar.cpp) with a correct checksum around `payload`.
 void writeSidecar(const std::string& path, const std::string& payload) {
-  char sum[17];
-  std::snprintf(sum, sizeof sum, "%016llx",
-                static_cast<unsigned long long>(detail::fnv1a64(payload)));
   std::ofstream(path, std::ios::binary | std::ios::trunc)
-      << "SMKFIDX " << FrameIndex::kSidecarVersion << " fnv1a64=" << sum
+      << "SMKFIDX " << FrameIndex::kSidecarVersion << " fnv1a64=" << fnv1a64Hex(payload)
       << " bytes=" << payload.size() << "\n"
       << payload;
 }
