@@ -44,8 +44,9 @@ int runFrame(const FrameOptions& options) {
   // A concealed picture is not the recorded frame: never hand it out as an exact one.
   if (frame.damaged)
     throw Error(ErrorCategory::decode,
-                options.video + ": frame " + std::to_string(wanted) +
-                    " is damaged: it decoded with errors (the decoder concealed damaged data), "
+                options.video + ": frame " + std::to_string(wanted) + " is damaged: it " +
+                    video::kConcealedDamage +
+                    ", "
                     "so it is not the recorded picture. `stridemark probe` lists every damaged "
                     "frame; pick a neighbouring frame.");
   if (options.md5) std::cout << frame.md5() << '\n';

@@ -3,6 +3,7 @@
 #include <map>
 
 #include "common/error.h"
+#include "video/decoded_frame.h"
 #include "video/libav_handles.h"
 
 namespace stridemark::video {
@@ -11,7 +12,6 @@ namespace {
 
 // Reasons, worst first: the first one recorded for a frame is kept.
 constexpr const char* kNoPicture = "the decoder produced no picture for it";
-constexpr const char* kConcealed = "decoded with errors (the decoder concealed damaged data)";
 constexpr const char* kFlagged = "the container flags its data as corrupt";
 
 class DamageLog {
@@ -54,7 +54,7 @@ std::vector<DamagedFrame> findDamagedFrames(const std::string& path, const Frame
       if (n >= 0) {
         produced[static_cast<std::size_t>(n)] = true;
         if (frame->decode_error_flags != 0 || (frame->flags & AV_FRAME_FLAG_CORRUPT) != 0)
-          log.note(n, kConcealed);
+          log.note(n, kConcealedDamage);
       }
       av_frame_unref(frame.get());
     }

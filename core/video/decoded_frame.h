@@ -28,6 +28,10 @@ struct PlaneLayout {
 // Layout with 64-byte aligned rows for the given size and AVPixelFormat.
 PlaneLayout planeLayoutFor(int width, int height, int pixelFormat);
 
+// Why a `damaged` frame is no exact picture, in the words every message uses.
+inline constexpr const char* kConcealedDamage =
+    "decoded with errors (the decoder concealed damaged data)";
+
 class DecodedFrame {
  public:
   DecodedFrame() = default;
@@ -53,7 +57,7 @@ class DecodedFrame {
   std::int64_t pts = 0;    // in the stream time base
   bool keyframe = false;   // the decoder marked it as a keyframe
   char pictureType = '?';  // 'I', 'P', 'B' or '?'
-  bool damaged = false;    // the decoder reported errors while producing it
+  bool damaged = false;    // the decoder reported errors while producing it (kConcealedDamage)
 
   // The planes packed without padding (rows of exactly the visible width), as libav's
   // rawvideo encoder lays them out: this is what `ffmpeg -f framemd5` hashes.

@@ -149,7 +149,7 @@ class DamageList {
 // A picture the encoder can take: decoded without errors and of the clip's size.
 bool usable(const video::DecodedFrame& frame, const Layout& layout, DamageList& damage) {
   if (frame.damaged) {
-    damage.add(frame.index(), "decoded with errors (the decoder concealed damaged data)");
+    damage.add(frame.index(), video::kConcealedDamage);
     return false;
   }
   if (frame.width() != static_cast<int>(layout.videoArea.width()) ||
@@ -199,7 +199,7 @@ std::optional<QSize> firstGoodFrameSize(video::FrameReader& reader, const ClipSe
       s.first, s.last,
       [&](video::DecodedFrame&& frame) {
         if (frame.damaged) {
-          damage.add(frame.index(), "decoded with errors (the decoder concealed damaged data)");
+          damage.add(frame.index(), video::kConcealedDamage);
           return true;
         }
         size = QSize(frame.width(), frame.height());
