@@ -1,6 +1,7 @@
 #include "formats/project_file.h"
 
 #include <algorithm>
+#include <cmath>
 
 #include "common/error.h"
 #include "formats/file_io.h"
@@ -187,6 +188,77 @@ void readExcluded(const JsonIn& in, model::Annotation& annotation) {
   }
 }
 
+double finiteAt(const JsonIn& value) {
+  const double number = value.number();
+  if (!std::isfinite(number)) value.fail("expected a finite number");
+  return number;
+}
+
+void readSeeds(const JsonIn& in, const model::LimbSet& limbs, model::Project& project) {
+  for (std::size_t i = 0; i < in.arraySize(); ++i) {
+    const JsonIn item = in.at(i);
+    model::FootSeed seed;
+    seed.limb = limbAt(item.at("limb"), limbs);
+    seed.frame = frameAt(item.at("frame"));
+    seed.x = finiteAt(item.at("x"));
+    seed.y = finiteAt(item.at("y"));
+    project.seeds.push_back(seed);
+  }
+}
+
+void readProposals(const JsonIn& in, const model::LimbSet& limbs, model::Proposals& proposals) {
+  const JsonIn events = in.at("events");
+  for (std::size_t i = 0; i < events.arraySize(); ++i) {
+    const JsonIn item = events.at(i);
+    model::ProposedEvent proposal;
+    proposal.event.limb = limbAt(item.at("limb"), limbs);
+    const JsonIn word = item.at("event");
+    const auto kind = model::parseEventWord(word.text());
+    if (!kind) word.fail("unknown event '" + word.text() + "' — use touchdown or liftoff");
+    proposal.event.kind = *kind;
+    proposal.event.frame = frameAt(item.at("frame"));
+    const JsonIn confidence = item.at("confidence");
+    proposal.confidence = finiteAt(confidence);
+    if (proposal.confidence < 0 || proposal.confidence > 1)
+      confidence.fail("expected a confidence from 0 to 1");
+    proposals.events.push_back(proposal);
+  }
+  if (const auto hidden = in.find("hidden")) {
+    model::Annotation spans;
+    spans.limbs = limbs;
+    readHidden(*hidden, spans);
+    proposals.hidden = std::move(spans.hidden);
+  }
+  std::sort(proposals.events.begin(), proposals.events.end(),
+            [](const auto& a, const auto& b) { return a.event < b.event; });
+}
+
+Json seedsJson(const model::Project& project) {
+  Json seeds = Json::array();
+  for (const auto& seed : project.seeds) {
+    seeds.push_back({{"limb", project.annotation.limbs.label(seed.limb)},
+                     {"frame", seed.frame},
+                     {"x", seed.x},
+                     {"y", seed.y}});
+  }
+  return seeds;
+}
+
+Json proposalsJson(const model::Project& project) {
+  const model::LimbSet& limbs = project.annotation.limbs;
+  Json events = Json::array();
+  for (const auto& p : project.proposals.events) {
+    events.push_back({{"limb", limbs.label(p.event.limb)},
+                      {"event", std::string(model::eventWord(p.event.kind))},
+                      {"frame", p.event.frame},
+                      {"confidence", p.confidence}});
+  }
+  Json hidden = Json::array();
+  for (const auto& span : project.proposals.hidden)
+    hidden.push_back({{"limb", limbs.label(span.limb)}, {"first", span.first}, {"last", span.last}});
+  return Json{{"events", std::move(events)}, {"hidden", std::move(hidden)}};
+}
+
 model::Project readCurrent(const JsonIn& root) {
   const JsonIn schema = root.at("schema");
   if (schema.text() != kProjectSchema) {
@@ -214,6 +286,10 @@ model::Project readCurrent(const JsonIn& root) {
   readEvents(root.at("events"), annotation);
   if (const auto hidden = root.find("hidden")) readHidden(*hidden, annotation);
   if (const auto excluded = root.find("excluded_strides")) readExcluded(*excluded, annotation);
+  // Seeds and proposals (optional: files from before proposals have neither).
+  if (const auto seeds = root.find("foot_seeds")) readSeeds(*seeds, annotation.limbs, project);
+  if (const auto proposals = root.find("proposals"))
+    readProposals(*proposals, annotation.limbs, project.proposals);
   annotation.normalize();
   return project;
 }
@@ -254,6 +330,9 @@ std::string projectJsonText(const model::Project& project) {
       excluded.push_back({{"start_frame", x.startFrame}, {"reason", x.reason}});
     document["excluded_strides"] = std::move(excluded);
   }
+  if (!project.seeds.empty()) document["foot_seeds"] = seedsJson(project);
+  if (!project.proposals.events.empty() || !project.proposals.hidden.empty())
+    document["proposals"] = proposalsJson(project);
   return document.dump(1) + "\n";
 }
 

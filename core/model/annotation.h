@@ -110,11 +110,39 @@ struct VideoLink {
 std::filesystem::path resolveVideoPath(const std::filesystem::path& projectPath,
                                        const std::string& linkedPath);
 
+// Where a person clicked a foot in one frame: the start of that foot's track when events are
+// proposed from the video (core/vision). Pixels of the upright frame, origin top-left, x right,
+// y down.
+struct FootSeed {
+  int limb = 0;
+  std::int64_t frame = 0;
+  double x = 0, y = 0;
+  friend bool operator==(const FootSeed&, const FootSeed&) = default;
+};
+
+// An event proposed from the video, waiting for review. It is never a tag (analysis never sees
+// it) until a person accepts it; confidence is 0-1 from the evidence (core/vision).
+struct ProposedEvent {
+  Event event;
+  double confidence = 0;
+  friend bool operator==(const ProposedEvent&, const ProposedEvent&) = default;
+};
+
+// Proposals of one run: events, and spans where the foot could not be seen (offered as hidden
+// spans). Kept in the project so a review can stop and go on later.
+struct Proposals {
+  std::vector<ProposedEvent> events;  // sorted by event (Event ordering)
+  std::vector<HiddenSpan> hidden;
+  friend bool operator==(const Proposals&, const Proposals&) = default;
+};
+
 struct Project {
   static constexpr int kSchemaVersion = 1;
   Annotation annotation;
   TrialCard trial;
   std::optional<VideoLink> video;
+  std::vector<FootSeed> seeds;  // by limb, then frame
+  Proposals proposals;
 };
 
 }  // namespace stridemark::model

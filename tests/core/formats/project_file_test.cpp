@@ -37,6 +37,10 @@ model::Project sampleProject() {
   project.trial.speedSource = "ground";
   project.trial.legLengthM = 0.004;
   project.video = model::VideoLink{"clips/m7.mp4", "123456:abcdef", 2000, Rational{30, 1}};
+  project.seeds = {{0, 12, 101.5, 220.25}, {5, 40, 333, 218}};
+  project.proposals.events = {{{14, 0, EventKind::touchdown}, 0.875},
+                              {{60, 0, EventKind::liftoff}, 0.25}};
+  project.proposals.hidden = {{2, 70, 79}};
   return project;
 }
 
@@ -49,6 +53,8 @@ void expectSameProject(const model::Project& a, const model::Project& b) {
   EXPECT_EQ(a.annotation.hidden, b.annotation.hidden);
   EXPECT_EQ(a.trial, b.trial);
   EXPECT_EQ(a.video, b.video);
+  EXPECT_EQ(a.seeds, b.seeds);
+  EXPECT_EQ(a.proposals, b.proposals);
 }
 
 std::string errorOf(const std::string& text) {
@@ -264,6 +270,15 @@ INSTANTIATE_TEST_SUITE_P(
         BadProject{"exam date that does not exist",
                    v1("[]", R"(,"trial":{"exam_date":"2023-02-29"})"),
                    "at /trial/exam_date: expected a calendar date"},
+        BadProject{"seed off the limb set",
+                   v1("[]", R"(,"foot_seeds":[{"limb":"L1","frame":0,"x":3,"y":4}])"),
+                   "at /foot_seeds/0/limb: unknown limb 'L1'"},
+        BadProject{"seed without y", v1("[]", R"(,"foot_seeds":[{"limb":"LF","frame":0,"x":3}])"),
+                   "at /foot_seeds/0/y: missing"},
+        BadProject{"proposal confidence above 1",
+                   v1("[]", R"(,"proposals":{"events":[{"limb":"LF","event":"touchdown",)"
+                            R"("frame":5,"confidence":1.5}]})"),
+                   "at /proposals/events/0/confidence: expected a confidence from 0 to 1"},
         BadProject{"hidden backwards", v1("[]", R"(,"hidden":[{"limb":"LF","first":9,"last":3}])"),
                    "at /hidden/0/last:"}),
     [](const ::testing::TestParamInfo<BadProject>& param) {
