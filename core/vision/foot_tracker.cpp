@@ -75,13 +75,15 @@ Peak peakOf(const cv::Mat& scores, cv::Rect area, int r, const MotionPrior* prio
   }
   cv::Point loc;
   cv::minMaxLoc(ranked, nullptr, nullptr, nullptr, &loc);
+  // The prior picks the peak; the fraction of a pixel comes from the match alone, so the prior
+  // does not pull the position towards the expectation.
   double dx = 0, dy = 0;
   if (loc.x > 0 && loc.x + 1 < scores.cols)
-    dx = vertexOffset(ranked.at<float>(loc.y, loc.x - 1), ranked.at<float>(loc.y, loc.x),
-                      ranked.at<float>(loc.y, loc.x + 1));
+    dx = vertexOffset(scores.at<float>(loc.y, loc.x - 1), scores.at<float>(loc.y, loc.x),
+                      scores.at<float>(loc.y, loc.x + 1));
   if (loc.y > 0 && loc.y + 1 < scores.rows)
-    dy = vertexOffset(ranked.at<float>(loc.y - 1, loc.x), ranked.at<float>(loc.y, loc.x),
-                      ranked.at<float>(loc.y + 1, loc.x));
+    dy = vertexOffset(scores.at<float>(loc.y - 1, loc.x), scores.at<float>(loc.y, loc.x),
+                      scores.at<float>(loc.y + 1, loc.x));
   return {{area.x + loc.x + r + dx, area.y + loc.y + r + dy}, scores.at<float>(loc)};
 }
 
