@@ -153,8 +153,11 @@ TrackSample FootTracker::follow(const cv::Mat& from, const cv::Mat& to,
                                 const std::vector<cv::Point2d>& avoid) {
   const cv::Mat previous = patchAt(from, at_);
   const cv::Point2d predicted = at_ + velocity_;
-  // Room for the foot to stop, start or turn: a swinging foot can double its speed.
-  const double reach = std::max({1.0 * radius_, 2.0 * cv::norm(velocity_) + 3, 1.2 * speedScale_});
+  // Room to stop, start or turn (a swinging foot can double its speed), or to move with a fast
+  // belt from the first frame on.
+  const double ground = groundShift ? cv::norm(*groundShift) : 0.0;
+  const double reach =
+      std::max({1.0 * radius_, 2.0 * cv::norm(velocity_) + 3, 1.2 * speedScale_, 1.5 * ground + 3});
   // Where the previous frame's patch fits, held to the foot's remembered looks so the match
   // does not slide up the leg or onto a crossing leg.
   const cv::Rect window = windowAround(predicted, reach);
