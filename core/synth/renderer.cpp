@@ -113,12 +113,13 @@ struct Renderer::Impl {
     if (options.noise > 0) makeNoiseBank();
   }
 
-  // A fixed camera sees the animal cross: at most 0.55 of the follow-camera size, and small
-  // enough that the whole path fits in 0.9 of the width (it starts and ends near the edges).
+  // A fixed camera sees the animal cross: its path fills 0.9 of the width when the animal can
+  // be drawn between a quarter and 0.55 of the follow-camera size; a long clip at the smallest
+  // size starts and ends with the animal (partly) outside the frame, a short one stays inside.
   void fitCrossing() {
     const double last = static_cast<double>(std::max<std::int64_t>(1, timeline.frameCount() - 1));
     const double metres = std::max(1e-9, timeline.distance(last) - timeline.distance(0));
-    view.scale = std::min(0.55 * view.scale, 0.9 * options.width / metres);
+    view.scale = std::clamp(0.9 * options.width / metres, 0.25 * view.scale, 0.55 * view.scale);
     crossingPx = metres * view.scale;
   }
 

@@ -215,7 +215,7 @@ void Backdrop::paint(cv::Mat& out, double groundShiftPx) const {
 
 Occluder::Occluder(Scene scene, const SceneLayout& layout, const std::vector<double>& footXs,
                    std::uint64_t seed)
-    : layout_(layout) {
+    : layout_(layout), treadmill_(scene == Scene::treadmill) {
   cv::RNG rng(seed * 2654435761ULL + 41);
   const double Ls = layout.leg * layout.scale;
   const int top = std::clamp(rounded(layout.groundY - 0.75 * Ls), 0, layout.height - 2);
@@ -240,7 +240,7 @@ void Occluder::drawObject(cv::Mat& tile, cv::Mat& mask, double centreX, cv::RNG&
   const double Ls = layout_.leg * layout_.scale;
   const double groundRow = layout_.groundY - layer_.y0;
   const int period = tile.cols;
-  const bool post = rng.uniform(0, 2) == 0;
+  const bool post = rng.uniform(0, 2) == 0 || treadmill_;  // a frame upright beside a belt
   const double width = rng.uniform(0.16, 0.28) * Ls;
   const int postTop = rounded(groundRow - rng.uniform(0.35, 0.6) * Ls);
   const cv::Scalar wood(rng.uniform(40, 110), rng.uniform(60, 120), rng.uniform(80, 150));

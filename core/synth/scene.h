@@ -59,6 +59,7 @@ class Occluder {
  private:
   void drawObject(cv::Mat& tile, cv::Mat& mask, double centreX, cv::RNG& rng) const;
   SceneLayout layout_;
+  bool treadmill_ = false;
   StripLayer layer_;
 };
 

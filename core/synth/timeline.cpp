@@ -268,7 +268,7 @@ FootPose Timeline::foot(int limb, double frame) const {
 // not swing far behind; the lift's square has zero slope at both ends.
 FootPose Timeline::softSwing(double s, double x0, double x1, double lo, double nextTd) const {
   const double frames = nextTd - lo;
-  const double cap = 0.75 * (x1 - x0);
+  const double cap = 2.0 * (x1 - x0);  // overshoot stays within ~12 % of the reach
   const double m0 = -std::min(cap, (distance(lo + 1) - distance(lo)) * frames);
   const double m1 = -std::min(cap, (distance(nextTd) - distance(nextTd - 1)) * frames);
   const double s2 = s * s, s3 = s2 * s;
