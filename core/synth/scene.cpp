@@ -243,7 +243,9 @@ void Occluder::drawObject(cv::Mat& tile, cv::Mat& mask, double centreX, cv::RNG&
   const bool post = rng.uniform(0, 2) == 0 || treadmill_;  // a frame upright beside a belt
   const double width = rng.uniform(0.16, 0.28) * Ls;
   const int postTop = rounded(groundRow - rng.uniform(0.35, 0.6) * Ls);
-  const cv::Scalar wood(rng.uniform(40, 110), rng.uniform(60, 120), rng.uniform(80, 150));
+  const double tone = rng.uniform(0.5, 1.3);  // weathered grey-brown wood, light to dark
+  const cv::Scalar wood(rng.uniform(55, 75) * tone, rng.uniform(80, 100) * tone,
+                        rng.uniform(105, 135) * tone);
   const cv::Scalar leaf(rng.uniform(20, 90), rng.uniform(80, 170), rng.uniform(30, 110));
   struct Blob {
     double dx, y;
