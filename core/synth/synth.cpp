@@ -32,9 +32,8 @@ void makeFolder(const std::filesystem::path& dir) {
                                        ". Choose a writable location.");
 }
 
-void renderVideo(const SynthOptions& options, const Timeline& timeline,
+void renderVideo(const SynthOptions& options, const Timeline& timeline, Renderer& renderer,
                  const std::filesystem::path& path, const SynthProgress& progress) {
-  Renderer renderer(timeline, options.render);
   video::EncoderOptions enc;
   enc.path = path;
   enc.width = options.render.width;
@@ -203,7 +202,7 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   const Timeline timeline = makeTimeline(options);
   // Check render and encoder options before writing anything.
   checkEncoderOptions(options);
-  const Renderer truthRenderer(timeline, options.render);
+  Renderer renderer(timeline, options.render);
   makeFolder(options.outDir);
   SynthResult result;
   result.frameCount = timeline.frameCount();
@@ -229,7 +228,7 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   project.trial.legLengthM = options.timeline.legLengthM;
 
   if (options.writeVideo) {
-    renderVideo(options, timeline, result.video, progress);
+    renderVideo(options, timeline, renderer, result.video, progress);
     model::VideoLink link;
     link.path = result.video.filename().string();
     link.signature = video::signatureText(video::computeSignature(result.video.string()));
@@ -239,8 +238,8 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   }
   formats::writeEventsCsv(result.events, project.annotation, "stridemark synth ground truth");
   formats::writeProjectFile(result.project, project);
-  formats::writeFileAtomically(result.feet, feetCsv(timeline, truthRenderer));
-  formats::writeFileAtomically(result.seeds, seedsCsv(timeline, truthRenderer));
+  formats::writeFileAtomically(result.feet, feetCsv(timeline, renderer));
+  formats::writeFileAtomically(result.seeds, seedsCsv(timeline, renderer));
   formats::writeFileAtomically(result.manifest, manifestJson(options, timeline, result));
   return result;
 }
