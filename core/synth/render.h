@@ -43,7 +43,7 @@ struct RenderOptions {
 // Legs crossing in front of legs are not counted as hiding a foot.
 struct FootView {
   cv::Point2d centre;     // pixels, origin top-left, x right, y down
-  bool inFrame = false;   // centre inside the picture
+  bool inFrame = false;   // the centre's (rounded) pixel is inside the picture
   bool occluded = false;  // centre behind a foreground occluder
   bool visible() const { return inFrame && !occluded; }
 };

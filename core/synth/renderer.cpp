@@ -1,5 +1,6 @@
 #include <algorithm>
 #include <cmath>
+#include <sstream>
 #include <vector>
 
 #include <opencv2/imgproc.hpp>
@@ -30,6 +31,13 @@ double unitFrom(std::uint64_t bits) {
 
 [[noreturn]] void badOption(const std::string& what) {
   throw Error(ErrorCategory::format, what);
+}
+
+// A value as the user typed it (0.05, not 0.050000).
+std::string shortNumber(double value) {
+  std::ostringstream out;
+  out << value;
+  return out.str();
 }
 
 }  // namespace
@@ -187,12 +195,12 @@ struct Renderer::Impl {
     if (options.blockiness < 0 || options.blockiness > 100)
       badOption("blockiness must be a JPEG quality between 1 and 100 (0 = off)");
     if (!(options.drift >= 0 && options.drift <= 0.2))
-      badOption("--drift " + std::to_string(options.drift) +
+      badOption("--drift " + shortNumber(options.drift) +
                 " is out of range: use 0 (perfect follow) to 0.2 (sway of a fifth of the width)");
     if (options.drift > 0 && options.scene != Scene::panning)
       badOption("--drift needs --scene panning (only a following camera can lag the animal)");
     if (!(options.light >= 0.1 && options.light <= 1))
-      badOption("--light " + std::to_string(options.light) +
+      badOption("--light " + shortNumber(options.light) +
                 " is out of range: use 0.1 (very dark) to 1 (normal light)");
     if (options.look < 0 || options.look > 9999)
       badOption("--look " + std::to_string(options.look) +
@@ -282,11 +290,14 @@ FootView Renderer::footView(int limb, std::int64_t frame) const {
   const auto& im = *impl_;
   const auto t = static_cast<double>(frame);
   const auto index = static_cast<std::size_t>(limb);
-  if (index >= im.plan.legs.size()) throw Error(ErrorCategory::format, "no such limb index");
+  if (index >= im.plan.legs.size())
+    throw Error(ErrorCategory::format,
+                "limb index " + std::to_string(limb) + " is not in the clip's limb set");
   FootView foot;
   foot.centre = detail::footCentre(im.plan, im.viewAt(t), limb, im.legAt(index, t), im.bobAt(t));
-  foot.inFrame = foot.centre.x >= 0 && foot.centre.y >= 0 && foot.centre.x < im.options.width &&
-                 foot.centre.y < im.options.height;
+  // The pixel holding the centre (rounded, as a click lands) must exist.
+  const long x = std::lround(foot.centre.x), y = std::lround(foot.centre.y);
+  foot.inFrame = x >= 0 && y >= 0 && x < im.options.width && y < im.options.height;
   foot.occluded = im.occluder && im.occluder->covers(foot.centre, im.occluderShiftPx(t));
   return foot;
 }

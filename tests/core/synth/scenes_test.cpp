@@ -247,7 +247,8 @@ TEST(FootTruth, FeetOutsideThePictureAreNotVisible) {
   for (int l = 0; l < o.limbs.size(); ++l)
     for (std::int64_t f = 0; f < clip.frames(); ++f) {
       const FootView foot = clip.renderer->footView(l, f);
-      const bool inside = foot.centre.x >= 0 && foot.centre.x < o.render.width;
+      const cv::Point c = rounded(foot.centre);
+      const bool inside = c.x >= 0 && c.x < o.render.width && c.y >= 0 && c.y < o.render.height;
       EXPECT_EQ(foot.inFrame, inside);
       EXPECT_EQ(foot.visible(), inside);
       if (!inside) ++outside;
