@@ -27,8 +27,9 @@ bool hasPlainLumaPlane(int pixelFormat) {
 }  // namespace
 
 double workScaleFor(int width, int height) {
+  // A whole factor: area averaging over whole blocks is a fast path (and exact block means).
   const int longSide = std::max(width, height);
-  return longSide > kWorkLongSide ? static_cast<double>(longSide) / kWorkLongSide : 1.0;
+  return static_cast<double>((longSide + kWorkLongSide - 1) / kWorkLongSide);
 }
 
 WorkImageMaker::WorkImageMaker(int width, int height) : scale_(workScaleFor(width, height)) {

@@ -10,7 +10,7 @@ namespace stridemark::vision::detail {
 
 inline constexpr int kWorkLongSide = 720;
 
-// Video pixels per working pixel (>= 1).
+// Video pixels per working pixel: a whole number >= 1.
 double workScaleFor(int width, int height);
 
 // Converts a decoded frame (any pixel format) to 8-bit grey at the working size.
