@@ -23,6 +23,8 @@ void MainWindow::onAnnotationChanged() {
   lanes_->update();
   updateTagKeyHints();
   updateStatus();
+  showSeeds();
+  if (current_) showReview();  // its place among the proposals may have changed
 }
 
 void MainWindow::onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision) {

@@ -140,6 +140,11 @@ bool ProjectDocument::moveEvents(const std::vector<model::Event>& events, std::i
   return true;
 }
 
+bool ProjectDocument::hasTagOn(int limb, std::int64_t frame) const {
+  return contains({frame, limb, model::EventKind::touchdown}) ||
+         contains({frame, limb, model::EventKind::liftoff});
+}
+
 void ProjectDocument::setTrialCard(const model::TrialCard& card) {
   if (card == project_.trial) return;
   undo_.push(new SetTrialCardCommand(this, card));
