@@ -143,6 +143,8 @@ class MainWindow : public QMainWindow {
   const std::vector<vision::FootTrack>& tracks() const { return tracks_; }
   // --- review (main_window_review.cpp) ---
   const std::optional<model::ProposedEvent>& currentProposal() const { return current_; }
+  // Makes `proposal` the one under review (highlighted, playhead on it); nothing: none.
+  void setCurrentProposal(std::optional<model::ProposedEvent> proposal);
   void setReviewOrder(ReviewOrder order);
   ReviewOrder reviewOrder() const { return order_; }
   bool stepProposal(int direction);  // next (+1) or previous (-1); seeks to it
@@ -240,7 +242,6 @@ class MainWindow : public QMainWindow {
   void onProposeFinished();
   void attachCropReader();
   // Review (main_window_review.cpp).
-  void setCurrentProposal(std::optional<model::ProposedEvent> proposal);
   void afterReviewStep(const std::optional<model::ProposedEvent>& from);
   void acceptAboveDialog();
   void showReview();

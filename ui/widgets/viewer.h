@@ -59,7 +59,9 @@ class Viewer : public QWidget {
   void resetView();                // back to fit-to-window
 
   void setSeeds(std::vector<ViewerSeed> seeds);
+  const std::vector<ViewerSeed>& seeds() const { return seeds_; }
   void setTracks(std::vector<ViewerTrack> tracks);
+  const std::vector<ViewerTrack>& tracks() const { return tracks_; }
   void setReviewStrip(ReviewStrip strip);  // no crops: none shown
   const ReviewStrip& reviewStrip() const { return strip_; }
   // Seeding: a click (not a drag) reports the video pixel under it; the cursor is a cross.
