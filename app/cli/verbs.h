@@ -15,5 +15,6 @@ void addFrameVerb(CLI::App& app, VerbAction& action);
 void addScoreVerb(CLI::App& app, VerbAction& action);
 void addSynthVerb(CLI::App& app, VerbAction& action);
 void addExportVerb(CLI::App& app, VerbAction& action);
+void addSuggestVerb(CLI::App& app, VerbAction& action);
 
 }  // namespace stridemark::cli
