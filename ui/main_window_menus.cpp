@@ -181,6 +181,7 @@ void MainWindow::connectToggles() {
   connect(action(ActionId::darkPalette), &QAction::toggled, this, &MainWindow::setTheme);
   connect(action(ActionId::seedMode), &QAction::toggled, this, [this](bool on) {
     viewer_->setSeeding(on);
+    legend_->setSeeding(on);
     if (on) {
       setSeedLimb(seedLimb_);  // says what a click does now
     } else {

@@ -19,6 +19,7 @@ constexpr double kSeedHitPixels = 12;  // a right click this close (video pixels
 }  // namespace
 
 void MainWindow::buildReviewBar() {
+  addToolBarBreak();  // a row of its own: the Transport toolbar fills the first at 1280 pixels
   auto* bar = addToolBar(tr("Review"));
   bar->setObjectName(QStringLiteral("reviewBar"));
   auto* label = new QLabel(tr(" Seed limb "));
@@ -35,10 +36,25 @@ void MainWindow::buildReviewBar() {
   bar->addWidget(label);
   bar->addWidget(seedLimbBox_);
   bar->addSeparator();
-  for (const auto id :
-       {ActionId::proposeEvents, ActionId::previousProposal, ActionId::nextProposal,
-        ActionId::acceptProposal, ActionId::rejectProposal, ActionId::leastConfidentFirst})
+  for (const auto id : {ActionId::proposeEvents, ActionId::previousProposal, ActionId::nextProposal,
+                        ActionId::acceptProposal, ActionId::rejectProposal,
+                        ActionId::leastConfidentFirst, ActionId::acceptProposalsAbove})
     bar->addAction(action(id));
+  // Short words on the buttons; the menu and the tool tip keep the full text.
+  const std::pair<ActionId, QString> shortTexts[] = {
+      {ActionId::seedMode, tr("Seeds")},
+      {ActionId::proposeEvents, tr("Propose…")},
+      {ActionId::previousProposal, tr("◀ Proposal")},
+      {ActionId::nextProposal, tr("Proposal ▶")},
+      {ActionId::acceptProposal, tr("Accept")},
+      {ActionId::rejectProposal, tr("Reject")},
+      {ActionId::leastConfidentFirst, tr("Least confident first")},
+      {ActionId::acceptProposalsAbove, tr("Accept above…")}};
+  for (const auto& [id, text] : shortTexts) {
+    QAction* a = action(id);
+    a->setIconText(text);
+    a->setToolTip(withoutMnemonic(a->text()));
+  }
   refillSeedLimbs();
   connect(viewer_, &Viewer::seedClicked, this, [this](QPointF at) { placeSeed(at); });
   connect(viewer_, &Viewer::seedRemoveClicked, this, [this](QPointF at) { removeSeedNear(at); });

@@ -121,9 +121,14 @@ void paintProposalTicks(QPainter& p, const QRectF& lane, int limb, const FrameAx
     QColor colour = current ? style.highlight : style.foreground;
     if (!current) colour.setAlphaF(0.55);
     if (current) {
+      // A tinted box around the tick, wider than the playhead line that often sits on it.
       QColor band = style.highlight;
       band.setAlphaF(0.18);
-      p.fillRect(QRectF(x - 5, lane.top(), 10, lane.height()), band);
+      const QRectF box(x - 7, lane.top() + 1, 14, lane.height() - 2);
+      p.fillRect(box, band);
+      p.setPen(QPen(style.highlight, 1.5));
+      p.setBrush(Qt::NoBrush);
+      p.drawRect(box);
     }
     p.setPen(QPen(colour, current ? 2 : 1, current ? Qt::SolidLine : Qt::DashLine));
     p.drawLine(QPointF(x, lane.top() + 2), QPointF(x, lane.bottom() - 2));

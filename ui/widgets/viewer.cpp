@@ -321,7 +321,9 @@ void Viewer::paintTracks(QPainter& p) const {
 void Viewer::paintReviewStrip(QPainter& p) const {
   if (strip_.crops.empty()) return;
   const int n = static_cast<int>(strip_.crops.size());
-  const double side = std::clamp((width() - 16.0 - (n - 1) * 4.0) / n, 40.0, 110.0);
+  // Tiles take at most about a third of the Viewer's height: the picture stays in view.
+  const double side =
+      std::clamp(std::min((width() - 16.0 - (n - 1) * 4.0) / n, height() * 0.3), 36.0, 110.0);
   QFont f = font();
   f.setPixelSize(11);
   p.setFont(f);
