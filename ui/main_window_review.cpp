@@ -140,22 +140,24 @@ bool MainWindow::acceptCurrentProposal() {
 }
 
 bool MainWindow::rejectCurrentProposal() {
-  if (!current_ || !doc_.rejectProposal(current_->event)) return false;
-  afterReviewStep(current_);
+  const auto from = current_;
+  if (!from || !doc_.rejectProposal(from->event)) return false;
+  afterReviewStep(from);
   return true;
 }
 
 bool MainWindow::nudgeCurrentProposal(std::int64_t delta) {
   if (!current_) return false;
-  const auto moved = doc_.nudgeProposal(current_->event, delta);
-  if (!moved) return false;
   auto now = *current_;
+  const auto moved = doc_.nudgeProposal(now.event, delta);
+  if (!moved) return false;
   now.event = *moved;
   setCurrentProposal(now);
   return true;
 }
 
 int MainWindow::acceptProposalsAbove(double minConfidence) {
+  const auto from = current_;
   const int n = doc_.acceptProposalsFrom(minConfidence);
   statusBar()->showMessage(
       tr("%1 proposals at confidence %2 or more are tags now (one undo step); %3 left to review.")
@@ -163,7 +165,7 @@ int MainWindow::acceptProposalsAbove(double minConfidence) {
           .arg(minConfidence, 0, 'f', 2)
           .arg(doc_.project().proposals.events.size()),
       10000);
-  if (n > 0 && current_ && !doc_.findProposal(current_->event)) afterReviewStep(current_);
+  if (n > 0 && from && !doc_.findProposal(from->event)) afterReviewStep(from);
   return n;
 }
 

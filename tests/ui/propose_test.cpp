@@ -118,6 +118,7 @@ TEST_F(ProposeInDesk, CancelStopsTheRunAndChangesNothing) {
     lastTotal = total;
   });
   ASSERT_TRUE(w_.proposeEvents({vision::Scene::treadmill, std::nullopt}));
+  ASSERT_TRUE(test::waitUntil([&] { return lastTotal > 0; })) << "the run reports progress";
   w_.proposeCancelButton()->click();
   ASSERT_TRUE(finish());
   // Source: issue 18 item 3 (Cancel: the progress callback returns false and the run stops).
@@ -126,9 +127,7 @@ TEST_F(ProposeInDesk, CancelStopsTheRunAndChangesNothing) {
   EXPECT_TRUE(test::recordedErrors().isEmpty()) << "a cancel is no error";
   EXPECT_TRUE(w_.statusBar()->currentMessage().contains(QStringLiteral("cancelled")))
       << w_.statusBar()->currentMessage().toStdString();
-  if (lastTotal > 0) {
-    EXPECT_LT(lastDone, lastTotal) << "the run stopped before its end";
-  }
+  EXPECT_LT(lastDone, lastTotal) << "the run stopped before its end";
   // The desk can propose again at once.
   ASSERT_TRUE(w_.proposeEvents({vision::Scene::treadmill, model::FrameRange{0, 119}}));
   ASSERT_TRUE(finish());
@@ -153,6 +152,9 @@ TEST_F(ProposeInDesk, CoreErrorsReachTheOneErrorPath) {
   ASSERT_EQ(test::recordedErrors().size(), 1);
   EXPECT_TRUE(test::recordedErrors().front().startsWith(QStringLiteral("Propose events: ")))
       << test::recordedErrors().front().toStdString();
+  EXPECT_TRUE(test::recordedErrors().front().contains(
+      QString::fromStdString(clip_.video.filename().string())))
+      << "the message names the video";
   EXPECT_TRUE(doc().project().proposals.events.empty());
   fs::rename(clip_.video.string() + ".moved", clip_.video);
 }

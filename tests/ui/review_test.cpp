@@ -68,6 +68,20 @@ TEST(Seeds, OneSeedPerLimbAndFrameReplacingIsUndoable) {
   EXPECT_TRUE(doc.project().seeds.empty());
 }
 
+TEST(Seeds, KeepTheLimbSetFromChanging) {
+  ProjectDocument doc;
+  doc.reset(quadrupedProject(), {});
+  doc.setSeed({RH, 30, 10, 20});
+  // Found while writing the desk's seeding: a biped has no limb 3, so RH's seed would have no
+  // label to be saved under. The limb set stays while seeds or proposals exist, as for tags.
+  EXPECT_FALSE(doc.setLimbSet(model::LimbSet::biped()));
+  doc.undoStack()->undo();
+  doc.storeProposals({{}, {{RH, 5, 9}}}, {RH}, {0, 599});
+  EXPECT_FALSE(doc.setLimbSet(model::LimbSet::biped())) << "a proposed hidden span of RH";
+  doc.undoStack()->undo();
+  EXPECT_TRUE(doc.setLimbSet(model::LimbSet::biped()));
+}
+
 TEST(Seeds, SavedAndLoadedWithTheProject) {
   QTemporaryDir dir;
   ProjectDocument doc;

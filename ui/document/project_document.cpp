@@ -200,9 +200,15 @@ void ProjectDocument::setReferenceLimb(int limb) {
 bool ProjectDocument::setLimbSet(const model::LimbSet& limbs) {
   const auto& a = project_.annotation;
   if (limbs == a.limbs) return true;
-  if (!a.events.empty() || !a.hidden.empty()) return false;
+  if (limbSetLocked()) return false;
   undo_.push(new AnnotationSettingsCommand(this, {limbs, a.captureRate, limbs.defaultReference()}));
   return true;
+}
+
+bool ProjectDocument::limbSetLocked() const {
+  const auto& a = project_.annotation;
+  return !a.events.empty() || !a.hidden.empty() || !project_.seeds.empty() ||
+         !project_.proposals.events.empty() || !project_.proposals.hidden.empty();
 }
 
 void ProjectDocument::afterEdit(bool trialToo) {

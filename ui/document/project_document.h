@@ -61,8 +61,10 @@ class ProjectDocument : public QObject {
   void removeHiddenSpan(const model::HiddenSpan& span);
   void setCaptureRate(Rational rate);
   void setReferenceLimb(int limb);
-  // Only while nothing is tagged (events would lose their meaning); returns false otherwise.
+  // Only while nothing is tagged, seeded or proposed (limb numbers would lose their meaning);
+  // returns false otherwise.
   bool setLimbSet(const model::LimbSet& limbs);
+  bool limbSetLocked() const;
 
   // True when `event` (same limb, frame and kind) is present.
   bool contains(const model::Event& event) const;
