@@ -19,6 +19,7 @@
 #include "ui/figures/figure_style.h"
 #include "ui/keys/action_table.h"
 #include "ui/main_window.h"
+#include "ui/session/palettes.h"
 #include "ui/session/propose_job.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
@@ -217,6 +218,11 @@ TEST_F(ProposeInDesk, ScreenshotsOfReviewAt1280x720) {
   EXPECT_GT(pixelsNear(w_.viewer()->grab().toImage(), QColor(0x56, 0xb4, 0xe9), 10), 60)
       << "the crop strip's centre frame";
   EXPECT_TRUE(w_.statusBar()->currentMessage().contains(QStringLiteral(" proposed, confidence ")));
+  // The same in the dark palette: hollow ticks must stay visible on a dark lane.
+  applyTheme(Theme::dark);
+  test::waitUntil([] { return false; }, 300);
+  w_.grab().toImage().save(test::screenshotDir() + QStringLiteral("/review-dark-1280x720.png"));
+  applyTheme(Theme::light);
 }
 
 }  // namespace
