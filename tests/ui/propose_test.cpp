@@ -4,8 +4,10 @@
 // with screenshots of proposal review at 1280 x 720 for people to look at.
 #include <gtest/gtest.h>
 #include <QAction>
+#include <QApplication>
 #include <QDir>
 #include <QElapsedTimer>
+#include <QLabel>
 #include <QProgressBar>
 #include <QPushButton>
 #include <QStatusBar>
@@ -218,6 +220,27 @@ TEST_F(ProposeInDesk, ScreenshotsOfReviewAt1280x720) {
   EXPECT_GT(pixelsNear(w_.viewer()->grab().toImage(), QColor(0x56, 0xb4, 0xe9), 10), 60)
       << "the crop strip's centre frame";
   EXPECT_TRUE(w_.statusBar()->currentMessage().contains(QStringLiteral(" proposed, confidence ")));
+  // The two review dialogs, grabbed from inside their own event loops and closed.
+  const auto shootDialog = [](QAction* action, const QString& name) {
+    QString text;
+    QTimer::singleShot(300, [&] {
+      auto* dialog = QApplication::activeModalWidget();
+      if (!dialog) return;
+      dialog->grab().toImage().save(test::screenshotDir() + QLatin1Char('/') + name);
+      if (auto* count = dialog->findChild<QLabel*>(QStringLiteral("acceptCount")))
+        text = count->text();
+      dialog->close();
+    });
+    action->trigger();
+    return text;
+  };
+  const QString count = shootDialog(w_.action(ActionId::acceptProposalsAbove),
+                                    QStringLiteral("review-accept-above.png"));
+  // Source: issue 18 item 3 (the dialog shows how many would be accepted).
+  EXPECT_TRUE(count.contains(QStringLiteral(" of %1 proposals would be accepted")
+                                 .arg(doc().project().proposals.events.size())))
+      << count.toStdString();
+  shootDialog(w_.action(ActionId::proposeEvents), QStringLiteral("review-propose-dialog.png"));
   // The same in the dark palette: hollow ticks must stay visible on a dark lane.
   applyTheme(Theme::dark);
   test::waitUntil([] { return false; }, 300);
