@@ -18,7 +18,7 @@ fi
   --note "Invented scenario: a dog in rehabilitation walks, then trots, on a treadmill."
 
 "$bin" synth --out "$here/paddock-gallop" \
-  --limbs quadruped --feet hoof --scene overground \
+  --limbs quadruped --feet hoof --scene panning \
   --gait trot:2.5@1.4 --gait canter:2@1.7 --gait transverse-gallop:2@2.1 \
   --capture-fps 240 --file-fps 30 --size 640x360 --leg-length 1.5 --seed 23 --noise 3 --flicker 0.03 --x264-preset veryfast \
   --subject "Demo horse (invented)" --species "horse (synthetic)" --condition "paddock, free movement" \

@@ -29,6 +29,12 @@ struct SynthArgs {
   bool blur = false;
   double flicker = 0;
   int blockiness = 0;
+  double drift = 0;
+  bool occluder = false;
+  double light = 1;
+  int look = 0;
+  std::string landing = "sharp";
+  int crf = 23;
   bool markers = false;
   bool mjpeg = false;
   bool noVideo = false;
@@ -87,6 +93,12 @@ int runSynth(const SynthArgs& a, const std::vector<std::string>& arguments) {
   o.render.blur = a.blur;
   o.render.flicker = a.flicker;
   o.render.blockiness = a.blockiness;
+  o.render.drift = a.drift;
+  o.render.occluder = a.occluder;
+  o.render.light = a.light;
+  o.render.look = a.look;
+  o.timeline.softLanding = a.landing == "soft";
+  o.crf = a.crf;
   o.render.seed = a.seed;
   o.codec = a.mjpeg ? synth::ClipCodec::mjpeg : synth::ClipCodec::h264;
   o.writeVideo = !a.noVideo;
@@ -110,7 +122,8 @@ int runSynth(const SynthArgs& a, const std::vector<std::string>& arguments) {
   std::cout << "frames: " << r.frameCount << "\nevents: " << r.eventCount
             << "\nmean speed m/s: " << r.meanSpeedMs << '\n';
   if (o.writeVideo) std::cout << "video: " << r.video.string() << '\n';
-  std::cout << "events csv: " << r.events.string() << "\nproject: " << r.project.string()
+  std::cout << "events csv: " << r.events.string() << "\nfeet csv: " << r.feet.string()
+            << "\nseeds csv: " << r.seeds.string() << "\nproject: " << r.project.string()
             << "\nmanifest: " << r.manifest.string() << '\n';
   return kExitOk;
 }
@@ -132,9 +145,9 @@ void addSynthVerb(CLI::App& app, VerbAction& action) {
                   "wave) or custom,df=X,LIMB=PHASE,...")
       ->take_all();
   cmd->add_option("--scene", args->scene,
-                  "treadmill (fixed camera, moving belt) or overground "
-                  "(panning camera over a paddock)");
-  cmd->add_option("--feet", args->feet, "paw or hoof (quadrupeds)");
+                  "treadmill (still camera, moving belt), panning (camera follows the animal "
+                  "over a paddock) or overground (still camera, the animal crosses the frame)");
+  cmd->add_option("--feet", args->feet, "paw or hoof (quadrupeds), toes (bipeds: thin toes)");
   cmd->add_option("--capture-fps", args->captureFps, "Capture rate of the virtual camera");
   cmd->add_option("--file-fps", args->fileFps,
                   "Rate stored in the file (e.g. 30 for a high-speed camera); default = capture");
@@ -144,6 +157,19 @@ void addSynthVerb(CLI::App& app, VerbAction& action) {
   cmd->add_flag("--blur", args->blur, "Motion blur across the exposure");
   cmd->add_option("--flicker", args->flicker, "Mains-light flicker, relative amplitude (0.05)");
   cmd->add_option("--blocky", args->blockiness, "JPEG-like blockiness: quality 1-100 (0 = off)");
+  cmd->add_option("--drift", args->drift,
+                  "Panning: imperfect follow, the animal sways by this share of the width (0-0.2)");
+  cmd->add_flag("--occluder", args->occluder,
+                "Foreground posts / bushes that hide a foot now and then (from the seed)");
+  cmd->add_option("--light", args->light, "Scene brightness 0.1-1 (low light; noise stays)");
+  cmd->add_option("--look", args->look,
+                  "Colours and textures: 0 original, 1-9999 another coat, ground and backdrop");
+  cmd->add_option("--landing", args->landing,
+                  "sharp (default) or soft: the foot slows and settles before touchdown and "
+                  "breaks over gently at lift-off (events unchanged)")
+      ->check(CLI::IsMember({"sharp", "soft"}));
+  cmd->add_option("--crf", args->crf,
+                  "H.264 constant rate factor 0-51 (default 23; 30 = heavy compression)");
   cmd->add_flag("--markers", args->markers, "Draw a bright marker on every foot");
   cmd->add_flag("--mjpeg", args->mjpeg, "Write MJPEG in AVI instead of H.264 in MP4");
   cmd->add_flag("--no-video", args->noVideo, "Write only events, project and manifest");

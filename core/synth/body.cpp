@@ -83,6 +83,39 @@ struct Painter {
   cv::Point2d ground(double x, double y, bool far) const { return view.toScreen(x, y, far); }
 };
 
+bool insectLike(const BodyPlan& plan) {
+  return plan.kind == LimbSetKind::hexapod || plan.kind == LimbSetKind::multiPair;
+}
+
+// Paws point the way the lower leg leans; that side also decides where the paw's centre is.
+double pawDirection(cv::Point2d foot, cv::Point2d knee) {
+  return foot.x >= knee.x - 0.5 ? 1.0 : -1.0;
+}
+
+// Where the drawn foot's centre sits relative to its ground point (see drawFoot).
+cv::Point2d centreOffset(const BodyPlan& plan, double L, cv::Point2d foot, cv::Point2d knee) {
+  if (insectLike(plan)) return {0, -0.02 * L};
+  switch (plan.feet) {
+    case FootStyle::hoof:
+      return {0, -0.035 * L};
+    case FootStyle::toes:
+      return {0.05 * L, -0.01 * L};
+    case FootStyle::paw:
+      break;
+  }
+  return {pawDirection(foot, knee) * 0.035 * L, -0.035 * L};
+}
+
+// Three thin forward toes and a short hind one, slightly fanned as a bird's foot seen from the
+// side.
+void drawToes(const Painter& p, cv::Point2d foot, const cv::Scalar& colour) {
+  const double L = p.plan.leg * p.s();
+  const double thick = std::max(1.0, 0.018 * L);
+  for (const auto& tip : {cv::Point2d(0.15 * L, 0.0), cv::Point2d(0.12 * L, -0.012 * L),
+                          cv::Point2d(0.1 * L, 0.006 * L), cv::Point2d(-0.06 * L, -0.004 * L)})
+    segment(p.img, foot + cv::Point2d(0, -0.01 * L), foot + tip, thick, colour);
+}
+
 void drawFoot(const Painter& p, cv::Point2d foot, cv::Point2d knee, const cv::Scalar& colour,
               const cv::Scalar& accent) {
   const double L = p.plan.leg * p.s();
@@ -95,8 +128,10 @@ void drawFoot(const Painter& p, cv::Point2d foot, cv::Point2d knee, const cv::Sc
                 {foot + cv::Point2d(-w, 0), foot + cv::Point2d(w * 1.15, 0),
                  foot + cv::Point2d(w * 0.6, -h), foot + cv::Point2d(-w * 0.8, -h)},
                 accent);
+      } else if (p.plan.feet == FootStyle::toes) {
+        drawToes(p, foot, accent);
       } else {
-        const double dir = foot.x >= knee.x - 0.5 ? 1.0 : -1.0;
+        const double dir = pawDirection(foot, knee);
         oval(p.img, foot + cv::Point2d(dir * 0.035 * L, -0.035 * L), 0.07 * L, 0.037 * L, 0,
              colour);
       }
@@ -107,21 +142,35 @@ void drawFoot(const Painter& p, cv::Point2d foot, cv::Point2d knee, const cv::Sc
   }
 }
 
+struct LegPoints {
+  cv::Point2d hip, knee, foot;
+};
+
+LegPoints legPoints(const BodyPlan& plan, const View& view, int index, const LegState& state,
+                    double bob) {
+  const LegPlan& leg = plan.legs[static_cast<std::size_t>(index)];
+  LegPoints pts;
+  pts.hip = view.toScreen(leg.hipX, leg.hipY + bob, leg.far);
+  pts.foot = view.toScreen(leg.hipX + state.footX, state.footY, leg.far);
+  pts.knee =
+      kneeFor(pts.hip, pts.foot, leg.upper * view.scale, leg.lower * view.scale, leg.kneeSign);
+  return pts;
+}
+
 void drawLeg(const Painter& p, int index, const LegState& state, bool markers) {
   const LegPlan& leg = p.plan.legs[static_cast<std::size_t>(index)];
   const double L = p.plan.leg * p.s();
-  const cv::Point2d hip = p.at(leg.hipX, leg.hipY, leg.far);
-  const cv::Point2d foot = p.ground(leg.hipX + state.footX, state.footY, leg.far);
-  const cv::Point2d knee = kneeFor(hip, foot, leg.upper * p.s(), leg.lower * p.s(), leg.kneeSign);
+  const auto [hip, knee, foot] = legPoints(p.plan, p.view, index, state, p.bob);
   const double f = leg.far ? 0.62 : 1.0;
   const cv::Scalar upperColour = shade(p.plan.coat, f);
   const cv::Scalar lowerColour =
       shade(p.plan.feet == FootStyle::hoof ? p.plan.coatDark : p.plan.coat, f * 0.95);
-  const bool insect = p.plan.kind == LimbSetKind::hexapod || p.plan.kind == LimbSetKind::multiPair;
+  const bool insect = insectLike(p.plan);
+  const bool bird = p.plan.feet == FootStyle::toes;
   const double thickUpper = (insect ? 0.06 : 0.14) * L;
-  const double thickLower = (insect ? 0.04 : 0.085) * L;
+  const double thickLower = (insect ? 0.04 : (bird ? 0.045 : 0.085)) * L;
   segment(p.img, hip, knee, thickUpper, upperColour);
-  segment(p.img, knee, foot, thickLower, lowerColour);
+  segment(p.img, knee, foot, thickLower, bird ? shade(p.plan.accent, f) : lowerColour);
   disc(p.img, knee, thickLower * 0.62, lowerColour);
   drawFoot(p, foot, knee, lowerColour, shade(p.plan.accent, f));
   if (markers) {
@@ -234,7 +283,8 @@ void drawMultiPairBody(const Painter& p) {
 
 }  // namespace
 
-BodyPlan makeBodyPlan(const model::LimbSet& limbs, double L, FootStyle feet, std::uint64_t seed) {
+BodyPlan makeBodyPlan(const model::LimbSet& limbs, double L, FootStyle feet, std::uint64_t seed,
+                      const Look& look) {
   BodyPlan plan;
   plan.kind = limbs.kind();
   plan.feet = feet;
@@ -317,8 +367,16 @@ BodyPlan makeBodyPlan(const model::LimbSet& limbs, double L, FootStyle feet, std
       break;
     }
   }
+  if (look.coat) plan.coat = shade(*look.coat, tint);
+  if (look.accent) plan.accent = *look.accent;
   plan.coatDark = shade(plan.coat, 0.6);
   return plan;
+}
+
+cv::Point2d footCentre(const BodyPlan& plan, const View& view, int index, const LegState& state,
+                       double bob) {
+  const LegPoints pts = legPoints(plan, view, index, state, bob);
+  return pts.foot + centreOffset(plan, plan.leg * view.scale, pts.foot, pts.knee);
 }
 
 void drawAnimal(cv::Mat& image, const BodyPlan& plan, const View& view,

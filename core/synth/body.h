@@ -7,6 +7,7 @@
 #include <opencv2/core.hpp>
 
 #include "model/limb_set.h"
+#include "synth/look.h"
 #include "synth/render.h"
 
 namespace stridemark::synth::detail {
@@ -29,8 +30,9 @@ struct BodyPlan {
   cv::Scalar coat, coatDark, accent;
 };
 
+// Look 0's colours are the plan's own; other looks replace the coat and accent.
 BodyPlan makeBodyPlan(const model::LimbSet& limbs, double legLengthM, FootStyle feet,
-                      std::uint64_t seed);
+                      std::uint64_t seed, const Look& look);
 
 // Screen mapping: body-frame metres -> pixels (sub-pixel; drawn with a 4-bit shift).
 struct View {
@@ -47,6 +49,10 @@ struct LegState {
   double footX = 0;  // metres, body frame
   double footY = 0;  // metres above ground
 };
+
+// Centre of the drawn foot of leg `index` (where a person would click it), in pixels.
+cv::Point2d footCentre(const BodyPlan& plan, const View& view, int index, const LegState& state,
+                       double bob);
 
 // Draws the whole animal: far legs, body, head and tail, near legs, optional foot markers.
 void drawAnimal(cv::Mat& image, const BodyPlan& plan, const View& view,

@@ -54,26 +54,42 @@ int periodFor(double spacingPx, int atLeast) {
   return std::max(8, rounded(spacing * n));
 }
 
+StripLayer makeLayer(const SceneLayout& layout, int x0, int y0, int width, int height, int period,
+                     double parallax) {
+  StripLayer layer;
+  layer.x0 = std::clamp(x0, 0, layout.width - 1);
+  layer.y0 = std::clamp(y0, 0, layout.height - 1);
+  layer.width = std::min(width, layout.width - layer.x0);
+  layer.period = period;
+  layer.parallax = parallax;
+  layer.strip.create(std::min(height, layout.height - layer.y0), period + layer.width, CV_8UC3);
+  return layer;
+}
+
 }  // namespace
 
-Backdrop::Backdrop(Scene scene, const SceneLayout& layout, std::uint64_t seed) : layout_(layout) {
+int StripLayer::offsetFor(double shiftPx) const {
+  long offset = std::lround(shiftPx * parallax) % period;
+  if (offset < 0) offset += period;
+  return static_cast<int>(offset);
+}
+
+void StripLayer::paintInto(cv::Mat& out, double shiftPx) const {
+  const cv::Rect source(offsetFor(shiftPx), 0, width, strip.rows);
+  cv::Mat target = out(cv::Rect(x0, y0, width, strip.rows));
+  if (mask.empty())
+    strip(source).copyTo(target);
+  else
+    strip(source).copyTo(target, mask(source));
+}
+
+Backdrop::Backdrop(Scene scene, const SceneLayout& layout, const Look& look, std::uint64_t seed)
+    : layout_(layout), look_(look) {
   base_.create(layout.height, layout.width, CV_8UC3);
   if (scene == Scene::treadmill)
     buildTreadmill(seed);
   else
-    buildOverground(seed);
-}
-
-Backdrop::Layer Backdrop::makeLayer(int x0, int y0, int width, int height, int period,
-                                    double parallax) const {
-  Layer layer;
-  layer.x0 = std::clamp(x0, 0, layout_.width - 1);
-  layer.y0 = std::clamp(y0, 0, layout_.height - 1);
-  layer.width = std::min(width, layout_.width - layer.x0);
-  layer.period = period;
-  layer.parallax = parallax;
-  layer.strip.create(std::min(height, layout_.height - layer.y0), period + layer.width, CV_8UC3);
-  return layer;
+    buildOutdoors(seed);
 }
 
 void Backdrop::buildTreadmill(std::uint64_t seed) {
@@ -85,13 +101,13 @@ void Backdrop::buildTreadmill(std::uint64_t seed) {
   const int deckBottom = std::min(H, beltBottom + rounded(0.16 * Ls));
   // Lab wall with panels, a skirting board and a floor.
   cv::Mat wall = base_(cv::Rect(0, 0, W, beltTop));
-  verticalRamp(wall, cv::Scalar(214, 208, 200), cv::Scalar(176, 172, 166));
+  verticalRamp(wall, look_.wallTop, look_.wallBottom);
   for (int x = rounded(0.13 * W); x < W; x += rounded(0.27 * W))
-    cv::line(base_, {x, 0}, {x, beltTop}, cv::Scalar(160, 156, 150), 2, cv::LINE_AA);
-  base_(cv::Rect(0, beltTop, W, H - beltTop)).setTo(cv::Scalar(96, 100, 104));
+    cv::line(base_, {x, 0}, {x, beltTop}, look_.wallLine, 2, cv::LINE_AA);
+  base_(cv::Rect(0, beltTop, W, H - beltTop)).setTo(look_.floor);
   // Treadmill deck under the belt and the side rail behind the animal.
   const int x0 = rounded(0.03 * W), x1 = rounded(0.97 * W);
-  cv::rectangle(base_, {x0, beltBottom}, {x1, deckBottom}, cv::Scalar(58, 60, 64), cv::FILLED);
+  cv::rectangle(base_, {x0, beltBottom}, {x1, deckBottom}, look_.deck, cv::FILLED);
   cv::rectangle(base_, {x0, beltBottom}, {x1, beltBottom + 3}, cv::Scalar(150, 150, 150),
                 cv::FILLED);
   cv::rectangle(base_, {rounded(0.1 * W), beltBottom + rounded(0.06 * Ls)},
@@ -99,38 +115,38 @@ void Backdrop::buildTreadmill(std::uint64_t seed) {
                 cv::FILLED);  // safety label stripe
   const int railY = rounded(layout_.groundY - 1.35 * Ls);
   for (int x : {x0 + 6, x1 - 6})
-    cv::line(base_, {x, railY}, {x, beltTop}, cv::Scalar(120, 120, 124),
-             std::max(3, rounded(0.04 * Ls)), cv::LINE_AA);
-  cv::line(base_, {x0 + 6, railY}, {x1 - 6, railY}, cv::Scalar(135, 135, 140),
-           std::max(3, rounded(0.035 * Ls)), cv::LINE_AA);
+    cv::line(base_, {x, railY}, {x, beltTop}, look_.rail, std::max(3, rounded(0.04 * Ls)),
+             cv::LINE_AA);
+  cv::line(base_, {x0 + 6, railY}, {x1 - 6, railY}, look_.railTop, std::max(3, rounded(0.035 * Ls)),
+           cv::LINE_AA);
   // Moving belt: dark rubber, grain, transverse seams every 0.3 m.
-  const double seam = 0.3 * layout_.scale;
+  const double seam = look_.beltSeamM * layout_.scale;
   const int period = periodFor(seam, 400);
-  Layer belt = makeLayer(x0, beltTop, x1 - x0, beltBottom - beltTop, period, 1.0);
-  cv::Mat tile(belt.strip.rows, period, CV_8UC3, cv::Scalar(52, 54, 56));
-  speckle(tile, rng, period * tile.rows / 18, 1, cv::Scalar(70, 72, 74), 0.45);
-  speckle(tile, rng, period / 25, 2, cv::Scalar(92, 94, 96), 0.2);
+  StripLayer belt = makeLayer(layout_, x0, beltTop, x1 - x0, beltBottom - beltTop, period, 1.0);
+  cv::Mat tile(belt.strip.rows, period, CV_8UC3, look_.belt);
+  speckle(tile, rng, period * tile.rows / look_.beltGrainEvery, 1, look_.beltGrain, 0.45);
+  speckle(tile, rng, period / 25, 2, look_.beltFleck, 0.2);
   const int seams = std::max(1, rounded(period / seam));
   for (int i = 0; i < seams; ++i) {
     const int x = rounded(i * static_cast<double>(period) / seams);
-    cv::line(tile, {x, 0}, {x, tile.rows}, cv::Scalar(88, 90, 92), 2, cv::LINE_AA);
+    cv::line(tile, {x, 0}, {x, tile.rows}, look_.beltSeam, 2, cv::LINE_AA);
   }
   belt.strip = wrapStrip(tile, belt.width);
   layers_.push_back(std::move(belt));
 }
 
-void Backdrop::buildOverground(std::uint64_t seed) {
+void Backdrop::buildOutdoors(std::uint64_t seed) {
   cv::RNG rng(seed * 2654435761ULL + 29);
   const double Ls = layout_.leg * layout_.scale;
   const int W = layout_.width, H = layout_.height;
   const int nearTop = std::clamp(rounded(layout_.groundY + layout_.farDy - 0.12 * Ls), 1, H - 2);
   const int horizon = std::clamp(rounded(layout_.groundY - 1.25 * Ls), 1, nearTop - 1);
-  verticalRamp(base_, cv::Scalar(235, 200, 160), cv::Scalar(225, 215, 200));  // sky
+  verticalRamp(base_, look_.skyTop, look_.skyBottom);  // sky
 
   // Distant hills, barely moving.
   const int hillTop = std::max(0, horizon - rounded(0.5 * Ls));
   const int hillPeriod = periodFor(W * 0.75, W);
-  Layer hills = makeLayer(0, hillTop, W, horizon - hillTop, hillPeriod, 0.08);
+  StripLayer hills = makeLayer(layout_, 0, hillTop, W, horizon - hillTop, hillPeriod, 0.08);
   cv::Mat hillTile(hills.strip.rows, hillPeriod, CV_8UC3);
   base_(cv::Rect(0, hillTop, 1, hills.strip.rows)).copyTo(hillTile.col(0));
   for (int x = 1; x < hillPeriod; ++x) hillTile.col(0).copyTo(hillTile.col(x));
@@ -143,17 +159,16 @@ void Backdrop::buildOverground(std::uint64_t seed) {
   }
   ridge.emplace_back(hillPeriod, hillTile.rows);
   ridge.emplace_back(0, hillTile.rows);
-  cv::fillPoly(hillTile, std::vector<std::vector<cv::Point>>{ridge}, cv::Scalar(120, 150, 130),
-               cv::LINE_AA);
+  cv::fillPoly(hillTile, std::vector<std::vector<cv::Point>>{ridge}, look_.hills, cv::LINE_AA);
   hills.strip = wrapStrip(hillTile, hills.width);
   layers_.push_back(std::move(hills));
 
   // Far meadow: slower than the track the animal runs on.
   const int farPeriod = periodFor(0.5 * layout_.scale, 400);
-  Layer meadow = makeLayer(0, horizon, W, nearTop - horizon, farPeriod, 0.6);
+  StripLayer meadow = makeLayer(layout_, 0, horizon, W, nearTop - horizon, farPeriod, 0.6);
   cv::Mat farTile(meadow.strip.rows, farPeriod, CV_8UC3);
-  verticalRamp(farTile, cv::Scalar(80, 150, 120), cv::Scalar(60, 135, 95));
-  speckle(farTile, rng, farPeriod * farTile.rows / 60, 1, cv::Scalar(50, 120, 80), 0.3);
+  verticalRamp(farTile, look_.meadowTop, look_.meadowBottom);
+  speckle(farTile, rng, farPeriod * farTile.rows / 60, 1, look_.meadowSpeck, 0.3);
   meadow.strip = wrapStrip(farTile, meadow.width);
   layers_.push_back(std::move(meadow));
 
@@ -162,8 +177,8 @@ void Backdrop::buildOverground(std::uint64_t seed) {
   const int fencePeriod = periodFor(postSpacing, 500);
   const int fenceBase = horizon + rounded(0.25 * Ls);
   const int fenceTop = std::max(0, fenceBase - rounded(0.9 * Ls));
-  Layer fence = makeLayer(0, fenceTop, W, fenceBase - fenceTop, fencePeriod, 0.85);
-  cv::Mat fenceTile(fence.strip.rows, fencePeriod, CV_8UC3, cv::Scalar(70, 100, 130));
+  StripLayer fence = makeLayer(layout_, 0, fenceTop, W, fenceBase - fenceTop, fencePeriod, 0.85);
+  cv::Mat fenceTile(fence.strip.rows, fencePeriod, CV_8UC3, look_.fence);
   cv::Mat fenceMask(fence.strip.rows, fencePeriod, CV_8UC1, cv::Scalar(0));
   const int posts = std::max(1, rounded(fencePeriod / postSpacing));
   const int postW = std::max(3, rounded(0.05 * Ls));
@@ -182,27 +197,97 @@ void Backdrop::buildOverground(std::uint64_t seed) {
 
   // Track surface under the feet: moves exactly with the ground.
   const int nearPeriod = periodFor(0.25 * layout_.scale, 400);
-  Layer track = makeLayer(0, nearTop, W, H - nearTop, nearPeriod, 1.0);
+  StripLayer track = makeLayer(layout_, 0, nearTop, W, H - nearTop, nearPeriod, 1.0);
   cv::Mat nearTile(track.strip.rows, nearPeriod, CV_8UC3);
-  verticalRamp(nearTile, cv::Scalar(75, 125, 140), cv::Scalar(60, 105, 125));
-  speckle(nearTile, rng, nearPeriod * nearTile.rows / 20, 1, cv::Scalar(55, 95, 115), 0.35);
-  speckle(nearTile, rng, nearPeriod * nearTile.rows / 400, 3, cv::Scalar(60, 140, 90), 0.25);
+  verticalRamp(nearTile, look_.trackTop, look_.trackBottom);
+  speckle(nearTile, rng, nearPeriod * nearTile.rows / look_.trackSpeckEvery, 1, look_.trackSpeck,
+          0.35);
+  speckle(nearTile, rng, nearPeriod * nearTile.rows / look_.trackTuftEvery, 3, look_.trackTuft,
+          0.25);
   track.strip = wrapStrip(nearTile, track.width);
   layers_.push_back(std::move(track));
 }
 
 void Backdrop::paint(cv::Mat& out, double groundShiftPx) const {
   base_.copyTo(out);
-  for (const auto& layer : layers_) {
-    long offset = std::lround(groundShiftPx * layer.parallax) % layer.period;
-    if (offset < 0) offset += layer.period;
-    const cv::Rect source(static_cast<int>(offset), 0, layer.width, layer.strip.rows);
-    cv::Mat target = out(cv::Rect(layer.x0, layer.y0, layer.width, layer.strip.rows));
-    if (layer.mask.empty())
-      layer.strip(source).copyTo(target);
-    else
-      layer.strip(source).copyTo(target, layer.mask(source));
+  for (const auto& layer : layers_) layer.paintInto(out, groundShiftPx);
+}
+
+Occluder::Occluder(Scene scene, const SceneLayout& layout, const std::vector<double>& footXs,
+                   std::uint64_t seed)
+    : layout_(layout), treadmill_(scene == Scene::treadmill) {
+  cv::RNG rng(seed * 2654435761ULL + 41);
+  const double Ls = layout.leg * layout.scale;
+  const int top = std::clamp(rounded(layout.groundY - 0.75 * Ls), 0, layout.height - 2);
+  const bool panning = scene == Scene::panning;
+  const int period = panning ? rounded(layout.width * rng.uniform(0.8, 1.5)) : layout.width;
+  layer_ = makeLayer(layout, 0, top, layout.width, layout.height - top, period, 1.25);
+  cv::Mat tile(layer_.strip.rows, period, CV_8UC3, cv::Scalar::all(0));
+  cv::Mat mask(layer_.strip.rows, period, CV_8UC1, cv::Scalar(0));
+  double centre = rng.uniform(0.3, 0.7) * layout.width;  // fixed camera over ground
+  if (panning) centre = rng.uniform(0.0, 1.0) * period;
+  if (scene == Scene::treadmill && !footXs.empty())
+    centre = footXs[static_cast<std::size_t>(rng.uniform(0, static_cast<int>(footXs.size())))] +
+             rng.uniform(-0.12, 0.12) * Ls;
+  drawObject(tile, mask, centre, rng);
+  layer_.strip = wrapStrip(tile, layer_.width);
+  layer_.mask = wrapStrip(mask, layer_.width);
+}
+
+// A post (square-cut, lit from the left) or a low bush; drawn without anti-aliasing so the
+// mask says exactly which pixels it replaced.
+void Occluder::drawObject(cv::Mat& tile, cv::Mat& mask, double centreX, cv::RNG& rng) const {
+  const double Ls = layout_.leg * layout_.scale;
+  const double groundRow = layout_.groundY - layer_.y0;
+  const int period = tile.cols;
+  const bool post = rng.uniform(0, 2) == 0 || treadmill_;  // a frame upright beside a belt
+  const double width = rng.uniform(0.16, 0.28) * Ls;
+  const int postTop = rounded(groundRow - rng.uniform(0.35, 0.6) * Ls);
+  const double tone = rng.uniform(0.5, 1.3);  // weathered grey-brown wood, light to dark
+  const cv::Scalar wood(rng.uniform(55, 75) * tone, rng.uniform(80, 100) * tone,
+                        rng.uniform(105, 135) * tone);
+  const cv::Scalar leaf(rng.uniform(20, 90), rng.uniform(80, 170), rng.uniform(30, 110));
+  struct Blob {
+    double dx, y;
+    int r;
+    double tone;
+  };
+  std::vector<Blob> blobs;
+  for (int i = 0; i < 12; ++i)
+    blobs.push_back({rng.uniform(-0.5, 0.5) * width, groundRow - rng.uniform(-0.05, 0.4) * Ls,
+                     std::max(2, rounded(rng.uniform(0.07, 0.13) * Ls)), rng.uniform(0.7, 1.25)});
+  auto fill = [&](cv::Point a, cv::Point b, const cv::Scalar& colour) {
+    cv::rectangle(tile, a, b, colour, cv::FILLED, cv::LINE_8);
+    cv::rectangle(mask, a, b, 255, cv::FILLED, cv::LINE_8);
+  };
+  for (int shift : {-period, 0, period}) {
+    const double cx = centreX + shift;
+    if (post) {
+      const int left = rounded(cx - width / 2), right = rounded(cx + width / 2);
+      fill({left, postTop}, {right, tile.rows}, wood);
+      fill({left, postTop}, {left + (right - left) / 4, tile.rows}, wood * 1.25);
+      fill({right - (right - left) / 5, postTop}, {right, tile.rows}, wood * 0.7);
+      fill({left, postTop}, {right, postTop + std::max(2, rounded(0.03 * Ls))}, wood * 0.6);
+    } else {
+      for (const Blob& blob : blobs) {
+        const cv::Point c(rounded(cx + blob.dx), rounded(blob.y));
+        cv::circle(tile, c, blob.r, leaf * blob.tone, cv::FILLED, cv::LINE_8);
+        cv::circle(mask, c, blob.r, 255, cv::FILLED, cv::LINE_8);
+      }
+      fill({rounded(cx - 0.4 * width), rounded(groundRow - 0.05 * Ls)},
+           {rounded(cx + 0.4 * width), tile.rows}, leaf * 0.6);
+    }
   }
+}
+
+void Occluder::paint(cv::Mat& out, double groundShiftPx) const {
+  layer_.paintInto(out, groundShiftPx);
+}
+
+bool Occluder::covers(cv::Point2d p, double groundShiftPx) const {
+  const int x = rounded(p.x), y = rounded(p.y) - layer_.y0;
+  if (x < 0 || x >= layer_.width || y < 0 || y >= layer_.mask.rows) return false;
+  return layer_.mask.at<uchar>(y, layer_.offsetFor(groundShiftPx) + x) != 0;
 }
 
 }  // namespace stridemark::synth::detail

@@ -32,9 +32,8 @@ void makeFolder(const std::filesystem::path& dir) {
                                        ". Choose a writable location.");
 }
 
-void renderVideo(const SynthOptions& options, const Timeline& timeline,
+void renderVideo(const SynthOptions& options, const Timeline& timeline, Renderer& renderer,
                  const std::filesystem::path& path, const SynthProgress& progress) {
-  Renderer renderer(timeline, options.render);
   video::EncoderOptions enc;
   enc.path = path;
   enc.width = options.render.width;
@@ -43,6 +42,7 @@ void renderVideo(const SynthOptions& options, const Timeline& timeline,
   enc.codec = options.codec == ClipCodec::h264 ? video::VideoCodec::h264 : video::VideoCodec::mjpeg;
   enc.threads = options.encoderThreads;
   enc.x264Preset = options.x264Preset;
+  enc.x264Crf = options.crf;
   enc.comment = "Synthetic clip made by stridemark synth; capture rate " +
                 toString(options.timeline.captureRate) + " fps";
   // OpenCV's vectorised BGR -> I420 (BT.601, limited range like swscale's default) is faster
@@ -62,6 +62,28 @@ void renderVideo(const SynthOptions& options, const Timeline& timeline,
 
 nlohmann::json rateJson(Rational r) {
   return toString(r);
+}
+
+std::string pixel(double v) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.2f", v);
+  return text;
+}
+
+const char* kTruthNote =
+    "# Pixels of the stored frames: origin top-left, x right, y down; the centre of the drawn\n"
+    "# foot. visible = the centre is inside the picture and not behind a foreground occluder\n"
+    "# (a leg passing in front of another leg is NOT counted as hiding it).\n";
+
+void checkEncoderOptions(const SynthOptions& options) {
+  if (options.crf < 0 || options.crf > 51)
+    throw Error(ErrorCategory::format,
+                "--crf " + std::to_string(options.crf) +
+                    " is out of range: use an H.264 constant rate factor from 0 (lossless) to 51 "
+                    "(worst); 23 is the default, 30 is heavy compression");
+  if (options.crf != 23 && options.codec != ClipCodec::h264)
+    throw Error(ErrorCategory::format,
+                "--crf sets H.264 compression and cannot be used with --mjpeg; drop one of them");
 }
 
 }  // namespace
@@ -92,6 +114,38 @@ model::Annotation groundTruth(const SynthOptions& options) {
   return annotation;
 }
 
+std::string feetCsv(const Timeline& timeline, const Renderer& renderer) {
+  std::string out = "# Stridemark synth foot positions (ground truth)\n";
+  out += kTruthNote;
+  out += "frame,limb,x,y,visible\n";
+  const auto& limbs = timeline.limbs();
+  for (std::int64_t f = 0; f < timeline.frameCount(); ++f)
+    for (int l = 0; l < limbs.size(); ++l) {
+      const FootView foot = renderer.footView(l, f);
+      out += std::to_string(f) + ',' + limbs.label(l) + ',' + pixel(foot.centre.x) + ',' +
+             pixel(foot.centre.y) + ',' + (foot.visible() ? '1' : '0') + '\n';
+    }
+  return out;
+}
+
+std::string seedsCsv(const Timeline& timeline, const Renderer& renderer) {
+  std::string out =
+      "# Stridemark synth foot seeds: one click per foot, at its first visible frame\n";
+  out += kTruthNote;
+  out += "# A foot never visible in the clip has no row.\n";
+  out += "limb,frame,x,y\n";
+  const auto& limbs = timeline.limbs();
+  for (int l = 0; l < limbs.size(); ++l)
+    for (std::int64_t f = 0; f < timeline.frameCount(); ++f) {
+      const FootView foot = renderer.footView(l, f);
+      if (!foot.visible()) continue;
+      out += limbs.label(l) + ',' + std::to_string(f) + ',' + pixel(foot.centre.x) + ',' +
+             pixel(foot.centre.y) + '\n';
+      break;
+    }
+  return out;
+}
+
 std::string manifestJson(const SynthOptions& options, const Timeline& timeline,
                          const SynthResult& result) {
   using nlohmann::json;
@@ -120,7 +174,13 @@ std::string manifestJson(const SynthOptions& options, const Timeline& timeline,
                  {"flicker", r.flicker},
                  {"blockiness", r.blockiness},
                  {"seed", r.seed}};
+  if (r.drift > 0) m["render"]["drift"] = r.drift;
+  if (r.occluder) m["render"]["occluder"] = true;
+  if (r.light < 1) m["render"]["light"] = r.light;
+  if (r.look != 0) m["render"]["look"] = r.look;
+  if (options.timeline.softLanding) m["landing"] = "soft";
   m["codec"] = options.codec == ClipCodec::h264 ? "h264" : "mjpeg";
+  if (options.codec == ClipCodec::h264) m["crf"] = options.crf;
   json segments = json::array();
   for (const auto& s : timeline.segments())
     segments.push_back({{"gait", s.gait},
@@ -131,15 +191,18 @@ std::string manifestJson(const SynthOptions& options, const Timeline& timeline,
   m["segments"] = segments;
   m["files"] = {{"video", result.video.filename().string()},
                 {"events", result.events.filename().string()},
-                {"project", result.project.filename().string()}};
+                {"project", result.project.filename().string()},
+                {"feet", result.feet.filename().string()},
+                {"seeds", result.seeds.filename().string()}};
   m["event_count"] = result.eventCount;
   return m.dump(2) + "\n";
 }
 
 SynthResult generate(const SynthOptions& options, const SynthProgress& progress) {
   const Timeline timeline = makeTimeline(options);
-  // Check render options before writing anything.
-  { Renderer check(timeline, options.render); }
+  // Check render and encoder options before writing anything.
+  checkEncoderOptions(options);
+  Renderer renderer(timeline, options.render);
   makeFolder(options.outDir);
   SynthResult result;
   result.frameCount = timeline.frameCount();
@@ -150,6 +213,8 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   result.project =
       options.outDir / (std::string("trial") + std::string(formats::kProjectExtension));
   result.manifest = options.outDir / "manifest.json";
+  result.feet = options.outDir / "feet.csv";
+  result.seeds = options.outDir / "seeds.csv";
 
   model::Project project;
   project.annotation = groundTruth(options);
@@ -163,7 +228,7 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   project.trial.legLengthM = options.timeline.legLengthM;
 
   if (options.writeVideo) {
-    renderVideo(options, timeline, result.video, progress);
+    renderVideo(options, timeline, renderer, result.video, progress);
     model::VideoLink link;
     link.path = result.video.filename().string();
     link.signature = video::signatureText(video::computeSignature(result.video.string()));
@@ -173,6 +238,8 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress)
   }
   formats::writeEventsCsv(result.events, project.annotation, "stridemark synth ground truth");
   formats::writeProjectFile(result.project, project);
+  formats::writeFileAtomically(result.feet, feetCsv(timeline, renderer));
+  formats::writeFileAtomically(result.seeds, seedsCsv(timeline, renderer));
   formats::writeFileAtomically(result.manifest, manifestJson(options, timeline, result));
   return result;
 }

@@ -29,6 +29,7 @@ struct SynthOptions {
   bool writeVideo = true;  // false: ground truth, project and manifest only
   int encoderThreads = 2;
   std::string x264Preset = "ultrafast";  // fastest; "veryfast" gives files ~5x smaller
+  int crf = 23;  // H.264 constant rate factor 0-51 (libx264's default 23; 30 = heavy loss)
   std::string subject = "synthetic subject";
   std::string species;  // free text for the trial card
   std::string condition;
@@ -39,6 +40,7 @@ struct SynthOptions {
 
 struct SynthResult {
   std::filesystem::path video, events, project, manifest;
+  std::filesystem::path feet, seeds;  // per-frame foot positions; one click per foot
   std::int64_t frameCount = 0;
   std::size_t eventCount = 0;
   double meanSpeedMs = 0;
@@ -57,6 +59,10 @@ SynthResult generate(const SynthOptions& options, const SynthProgress& progress 
 std::vector<GaitSegment> parseSchedule(const model::LimbSet& limbs,
                                        const std::vector<std::string>& gaits);
 Timeline makeTimeline(const SynthOptions& options);
+// feet.csv: every frame and limb, the drawn foot's centre and whether it can be seen.
+std::string feetCsv(const Timeline& timeline, const Renderer& renderer);
+// seeds.csv: per limb, the centre at the first frame where that foot can be seen.
+std::string seedsCsv(const Timeline& timeline, const Renderer& renderer);
 std::string manifestJson(const SynthOptions& options, const Timeline& timeline,
                          const SynthResult& result);
 

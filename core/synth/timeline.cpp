@@ -255,9 +255,28 @@ FootPose Timeline::foot(int limb, double frame) const {
   }
   const auto nextTd = static_cast<double>(it->touchdown);
   const double s = (frame - lo) / (nextTd - lo);
-  pose.x = -current.reach / 2 + (current.reach / 2 + it->reach / 2) * smoothstep(s);
+  const double x0 = -current.reach / 2, x1 = it->reach / 2;
+  if (options_.softLanding) return softSwing(s, x0, x1, lo, nextTd);
+  pose.x = x0 + (x1 - x0) * smoothstep(s);
   // Lift peaks early in swing, as a foot clears the ground and then reaches forward.
   pose.lift = std::sin(kPi * std::pow(s, 0.8));
+  return pose;
+}
+
+// Cubic Hermite path whose end slopes follow the ground (the foot keeps drifting back as it
+// lifts and is already moving back with the ground as it lands), capped so a long swing does
+// not swing far behind; the lift's square has zero slope at both ends.
+FootPose Timeline::softSwing(double s, double x0, double x1, double lo, double nextTd) const {
+  const double frames = nextTd - lo;
+  const double cap = 2.0 * (x1 - x0);  // overshoot stays within ~12 % of the reach
+  const double m0 = -std::min(cap, (distance(lo + 1) - distance(lo)) * frames);
+  const double m1 = -std::min(cap, (distance(nextTd) - distance(nextTd - 1)) * frames);
+  const double s2 = s * s, s3 = s2 * s;
+  FootPose pose;
+  pose.x =
+      (2 * s3 - 3 * s2 + 1) * x0 + (s3 - 2 * s2 + s) * m0 + (3 * s2 - 2 * s3) * x1 + (s3 - s2) * m1;
+  const double arc = std::sin(kPi * std::pow(s, 0.8));
+  pose.lift = arc * arc;
   return pose;
 }
 

@@ -20,6 +20,10 @@ struct TimelineOptions {
   double legLengthM = 0.55;       // hip height, the body's scale
   std::optional<double> speedMs;  // constant ground / belt speed; default: from each gait
   double startCycle = 0.0;        // clock value at frame 0 (fraction of a stride)
+  // Soft landing: the swinging foot slows to the ground's speed and settles with no vertical
+  // speed at touchdown, and breaks over gently at lift-off. Events (the stance span) are the
+  // same either way; only the swing path changes.
+  bool softLanding = false;
 };
 
 struct FootPose {
@@ -68,6 +72,7 @@ class Timeline {
     std::vector<double> duty, phase;
   };
   FrameParams paramsAt(double seconds) const;
+  FootPose softSwing(double s, double x0, double x1, double lo, double nextTd) const;
   double sampled(const std::vector<double>& values, double frame) const;
   void integrate();
   void buildCycles();

@@ -75,13 +75,15 @@ Peak peakOf(const cv::Mat& scores, cv::Rect area, int r, const MotionPrior* prio
   }
   cv::Point loc;
   cv::minMaxLoc(ranked, nullptr, nullptr, nullptr, &loc);
+  // The prior picks the peak; the fraction of a pixel comes from the match alone, so the prior
+  // does not pull the position towards the expectation.
   double dx = 0, dy = 0;
   if (loc.x > 0 && loc.x + 1 < scores.cols)
-    dx = vertexOffset(ranked.at<float>(loc.y, loc.x - 1), ranked.at<float>(loc.y, loc.x),
-                      ranked.at<float>(loc.y, loc.x + 1));
+    dx = vertexOffset(scores.at<float>(loc.y, loc.x - 1), scores.at<float>(loc.y, loc.x),
+                      scores.at<float>(loc.y, loc.x + 1));
   if (loc.y > 0 && loc.y + 1 < scores.rows)
-    dy = vertexOffset(ranked.at<float>(loc.y - 1, loc.x), ranked.at<float>(loc.y, loc.x),
-                      ranked.at<float>(loc.y + 1, loc.x));
+    dy = vertexOffset(scores.at<float>(loc.y - 1, loc.x), scores.at<float>(loc.y, loc.x),
+                      scores.at<float>(loc.y + 1, loc.x));
   return {{area.x + loc.x + r + dx, area.y + loc.y + r + dy}, scores.at<float>(loc)};
 }
 
@@ -151,8 +153,11 @@ TrackSample FootTracker::follow(const cv::Mat& from, const cv::Mat& to,
                                 const std::vector<cv::Point2d>& avoid) {
   const cv::Mat previous = patchAt(from, at_);
   const cv::Point2d predicted = at_ + velocity_;
-  // Room for the foot to stop, start or turn: a swinging foot can double its speed.
-  const double reach = std::max({1.0 * radius_, 2.0 * cv::norm(velocity_) + 3, 1.2 * speedScale_});
+  // Room to stop, start or turn (a swinging foot can double its speed), or to move with a fast
+  // belt from the first frame on.
+  const double ground = groundShift ? cv::norm(*groundShift) : 0.0;
+  const double reach =
+      std::max({1.0 * radius_, 2.0 * cv::norm(velocity_) + 3, 1.2 * speedScale_, 1.5 * ground + 3});
   // Where the previous frame's patch fits, held to the foot's remembered looks so the match
   // does not slide up the leg or onto a crossing leg.
   const cv::Rect window = windowAround(predicted, reach);

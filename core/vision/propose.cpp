@@ -149,7 +149,7 @@ void Run::setUpGeometry(const video::DecodedFrame& frame) {
   height_ = frame.height();
   maker_ = std::make_unique<detail::WorkImageMaker>(width_, height_);
   const cv::Size work = maker_->size();
-  radius_ = std::max(5, static_cast<int>(std::lround(std::min(work.width, work.height) / 60.0)));
+  radius_ = std::max(5, static_cast<int>(std::lround(std::min(work.width, work.height) / 40.0)));
 }
 
 cv::Point2d Run::seedPoint(const model::FootSeed& seed) const {

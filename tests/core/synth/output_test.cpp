@@ -5,10 +5,12 @@
 #include <array>
 #include <cstdio>
 #include <filesystem>
+#include <map>
 #include <memory>
 #include <sstream>
 #include <string>
 
+#include <nlohmann/json.hpp>
 #include <opencv2/imgcodecs.hpp>
 #include "common/error.h"
 
@@ -152,6 +154,90 @@ TEST(Output, DecodedFirstFrameMatchesTheRenderedOne) {
     EXPECT_LT(meanError, 4.0) << result.video;
     fs::remove_all(dir);
   }
+}
+
+std::vector<std::vector<std::string>> csvRows(const fs::path& path, std::string* header) {
+  std::istringstream in(formats::readWholeFile(path));
+  std::vector<std::vector<std::string>> rows;
+  std::string line;
+  while (std::getline(in, line)) {
+    if (line.empty() || line[0] == '#') continue;
+    if (header->empty()) {
+      *header = line;
+      continue;
+    }
+    std::vector<std::string> cells;
+    std::istringstream cellsIn(line);
+    std::string cell;
+    while (std::getline(cellsIn, cell, ',')) cells.push_back(cell);
+    rows.push_back(cells);
+  }
+  return rows;
+}
+
+TEST(Output, FootTruthFilesHoldEveryFrameAndOneSeedPerFoot) {
+  // Our definition (docs/synth.md, issue 18): feet.csv = frame,limb,x,y,visible for every
+  // frame and limb; seeds.csv = limb,frame,x,y at each foot's first visible frame; both listed
+  // in the manifest. Written without the video too (the truth needs no pixels).
+  const fs::path dir = freshDir("feet");
+  auto options = smallClip(dir);
+  options.writeVideo = false;
+  options.render.scene = Scene::overground;
+  options.render.occluder = true;
+  const auto result = generate(options);
+  std::string feetHeader, seedsHeader;
+  const auto feet = csvRows(result.feet, &feetHeader);
+  const auto seeds = csvRows(result.seeds, &seedsHeader);
+  EXPECT_EQ(feetHeader, "frame,limb,x,y,visible");
+  EXPECT_EQ(seedsHeader, "limb,frame,x,y");
+  ASSERT_EQ(feet.size(), static_cast<std::size_t>(result.frameCount * 4));
+  const Timeline timeline = makeTimeline(options);
+  const Renderer renderer(timeline, options.render);
+  std::map<std::string, std::string> firstVisible;
+  int hidden = 0;
+  for (const auto& row : feet) {
+    ASSERT_EQ(row.size(), 5u);
+    const int limb = *options.limbs.indexOf(row[1]);
+    const FootView foot = renderer.footView(limb, std::stoll(row[0]));
+    EXPECT_NEAR(std::stod(row[2]), foot.centre.x, 0.006);
+    EXPECT_NEAR(std::stod(row[3]), foot.centre.y, 0.006);
+    EXPECT_EQ(row[4], foot.visible() ? "1" : "0");
+    if (row[4] == "0") ++hidden;
+    if (row[4] == "1" && !firstVisible.count(row[1])) firstVisible[row[1]] = row[0];
+  }
+  EXPECT_GT(hidden, 0);
+  ASSERT_EQ(seeds.size(), firstVisible.size());
+  for (const auto& row : seeds) EXPECT_EQ(row[1], firstVisible[row[0]]) << row[0];
+  const auto manifest = nlohmann::json::parse(formats::readWholeFile(result.manifest));
+  EXPECT_EQ(manifest["files"]["feet"], "feet.csv");
+  EXPECT_EQ(manifest["files"]["seeds"], "seeds.csv");
+  EXPECT_EQ(manifest["render"]["scene"], "overground");
+  EXPECT_EQ(manifest["render"]["occluder"], true);
+  fs::remove_all(dir);
+}
+
+TEST(Output, HigherCrfGivesASmallerFile) {
+  // From memory: libx264's constant rate factor, higher values quantise harder (fewer bits).
+  const fs::path dir = freshDir("crf");
+  auto options = smallClip(dir / "default");
+  const auto normal = generate(options);
+  options.outDir = dir / "crf30";
+  options.crf = 30;
+  const auto heavy = generate(options);
+  EXPECT_LT(fs::file_size(heavy.video), 0.8 * static_cast<double>(fs::file_size(normal.video)));
+  const auto manifest = nlohmann::json::parse(formats::readWholeFile(heavy.manifest));
+  EXPECT_EQ(manifest["crf"], 30);
+  options.crf = 52;
+  try {
+    generate(options);
+    FAIL() << "expected an error for crf 52";
+  } catch (const Error& e) {
+    EXPECT_NE(std::string(e.what()).find("0 (lossless) to 51"), std::string::npos) << e.what();
+  }
+  options.crf = 30;
+  options.codec = ClipCodec::mjpeg;
+  EXPECT_THROW(generate(options), Error);
+  fs::remove_all(dir);
 }
 
 TEST(Output, UnwritableFolderIsAClearError) {

@@ -81,6 +81,8 @@ void checkPlantedFoot(Scene scene, cv::Rect groundPatch) {
     const cv::Rect markerBox(static_cast<int>(std::lround(foot.x)) - r - 1,
                              static_cast<int>(std::lround(foot.y)) - 2 * r - 1, 2 * r + 3,
                              2 * r + 3);
+    // A crossing animal's foot may be near an edge: compare only fully framed markers.
+    if ((markerBox & cv::Rect(0, 0, before.cols, before.rows)) != markerBox) continue;
     cv::Mat mask(markerBox.size(), CV_8UC3, cv::Scalar::all(0));
     cv::circle(mask, {r + 1, r + 1}, r, cv::Scalar::all(255), cv::FILLED);
     const cv::Point2d marker = shiftOf(before, after, markerBox, 40, 30, mask);
@@ -106,8 +108,12 @@ TEST(PlantedFoot, MovesWithTheBeltOnATreadmill) {
   checkPlantedFoot(Scene::treadmill, cv::Rect(24, 284, 40, 12));
 }
 
-TEST(PlantedFoot, MovesWithTheTrackOverground) {
-  checkPlantedFoot(Scene::overground, cv::Rect(20, 310, 40, 30));
+TEST(PlantedFoot, MovesWithTheTrackWhenPanning) {
+  checkPlantedFoot(Scene::panning, cv::Rect(20, 310, 40, 30));
+}
+
+TEST(PlantedFoot, StandsStillOvergroundWithAFixedCamera) {
+  checkPlantedFoot(Scene::overground, cv::Rect(20, 320, 40, 30));
 }
 
 TEST(Determinism, SameSeedSamePixelsOtherSeedOtherPixels) {
@@ -121,7 +127,7 @@ TEST(Determinism, SameSeedSamePixelsOtherSeedOtherPixels) {
     o.render.blur = true;
     o.render.blockiness = 60;
     o.render.seed = seed;
-    o.render.scene = Scene::overground;
+    o.render.scene = Scene::panning;
     const Timeline t = makeTimeline(o);
     Renderer r(t, o.render);
     std::vector<cv::Mat> frames;
@@ -142,14 +148,14 @@ TEST(Determinism, SameSeedSamePixelsOtherSeedOtherPixels) {
   EXPECT_GT(differentSeed, 0.0);
 }
 
-// A rendered overground frame with noise: edges, flat ground and texture.
+// A rendered outdoor frame with noise: edges, flat ground and texture.
 cv::Mat busyFrame() {
   SynthOptions o;
   o.gaits = {"trot:0.25"};
   o.render.width = 318;  // not a whole number of 8x8 blocks
   o.render.height = 182;
   o.render.noise = 6;
-  o.render.scene = Scene::overground;
+  o.render.scene = Scene::panning;
   const Timeline t = makeTimeline(o);
   Renderer r(t, o.render);
   cv::Mat frame;

@@ -1,5 +1,5 @@
 // Every committed sample regenerates: running `stridemark synth` with the arguments kept in the
-// sample's manifest reproduces its events CSV byte for byte.
+// sample's manifest reproduces its events CSV and foot truth byte for byte.
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -42,6 +42,13 @@ TEST(Samples, EventsRegenerateByteForByte) {
     EXPECT_EQ(stridemark::formats::readWholeFile(out / "events.csv"),
               stridemark::formats::readWholeFile(entry.path() / "events.csv"))
         << entry.path() << " no longer regenerates; command: " << command;
+    // The foot truth (issue 18) comes from the same arguments, so it regenerates too.
+    for (const char* truth : {"feet.csv", "seeds.csv"}) {
+      ASSERT_TRUE(fs::exists(entry.path() / truth)) << entry.path() << " lacks " << truth;
+      EXPECT_EQ(stridemark::formats::readWholeFile(out / truth),
+                stridemark::formats::readWholeFile(entry.path() / truth))
+          << entry.path() / truth << " no longer regenerates; command: " << command;
+    }
     fs::remove_all(out);
     ++checked;
   }

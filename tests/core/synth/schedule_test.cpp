@@ -168,6 +168,36 @@ TEST(Transitions, WalkToTrotToGallopStaysPhysical) {
   EXPECT_EQ(gaits.back(), "transverse gallop");
 }
 
+TEST(SoftLanding, SameEventsGentlerTouchdown) {
+  // Our definition (--landing soft, issue 18): the stance span and so every event stays; the
+  // swinging foot arrives with almost no vertical speed and near the ground's speed, where the
+  // sharp profile comes down steeply and still moving forward.
+  const LimbSet limbs = LimbSet::quadruped();
+  TimelineOptions o;
+  o.captureRate = {240, 1};
+  const std::vector<GaitSegment> schedule{parseGaitSegment(limbs, "trot:2")};
+  const Timeline sharp(limbs, schedule, o);
+  o.softLanding = true;
+  const Timeline soft(limbs, schedule, o);
+  EXPECT_EQ(sharp.events(), soft.events());
+  int touchdowns = 0;
+  for (const auto& e : soft.events()) {
+    if (e.kind != model::EventKind::touchdown || e.frame < 2) continue;
+    const auto f = static_cast<double>(e.frame);
+    ++touchdowns;
+    EXPECT_TRUE(soft.foot(e.limb, f).stance);
+    EXPECT_FALSE(soft.foot(e.limb, f - 1).stance);
+    // Lift one frame before touchdown: a small share of the sharp profile's.
+    EXPECT_LT(soft.foot(e.limb, f - 1).lift, 0.2 * sharp.foot(e.limb, f - 1).lift);
+    // Forward motion relative to the ground in the last frame of swing.
+    const double ground = soft.distance(f) - soft.distance(f - 1);
+    const double softWorld = soft.foot(e.limb, f).x - soft.foot(e.limb, f - 1).x + ground;
+    const double sharpWorld = sharp.foot(e.limb, f).x - sharp.foot(e.limb, f - 1).x + ground;
+    EXPECT_LT(std::abs(softWorld), 0.5 * std::abs(sharpWorld)) << "frame " << e.frame;
+  }
+  EXPECT_GT(touchdowns, 8);
+}
+
 TEST(Errors, BadSpecsAreExplained) {
   const LimbSet limbs = LimbSet::quadruped();
   try {
