@@ -15,7 +15,7 @@
 #include <QTimer>
 #include <filesystem>
 
-#include "synth/render.h"
+#include "formats/seeds_csv.h"
 #include "synth/synth.h"
 #include "tests/ui/test_support.h"
 #include "ui/figures/figure_style.h"
@@ -32,7 +32,7 @@ namespace {
 namespace fs = std::filesystem;
 
 // A trot on the treadmill, 120 fps, as `stridemark synth --gait trot:2 --capture-fps 120`
-// makes it (smaller, for speed), and one seed per foot on frame 0 where the generator drew it.
+// makes it (smaller, for speed), with the seeds.csv it writes beside the clip.
 struct SeededClip {
   fs::path project, video;
   std::vector<model::FootSeed> seeds;
@@ -48,14 +48,8 @@ SeededClip seededTrot(const fs::path& dir, double seconds) {
   o.render.seed = 11;
   o.subject = "test dog (invented)";
   const auto result = synth::generate(o);
-  SeededClip clip{result.project, result.video, {}};
-  const synth::Timeline timeline = synth::makeTimeline(o);  // the renderer keeps a reference
-  synth::Renderer renderer(timeline, o.render);
-  for (int limb = 0; limb < o.limbs.size(); ++limb) {
-    const auto p = renderer.footPixel(limb, 0);
-    clip.seeds.push_back({limb, 0, p.x, p.y});
-  }
-  return clip;
+  // The generator's seeds.csv: each foot's centre where it is first seen, as a click would be.
+  return {result.project, result.video, formats::readSeedsCsv(result.seeds, o.limbs)};
 }
 
 class ProposeInDesk : public ::testing::Test {
