@@ -278,7 +278,8 @@ void Viewer::paintSeeds(QPainter& p) const {
     p.setPen(QPen(seed.colour, 2));
     p.drawEllipse(c, 6, 6);
     p.drawLine(c - QPointF(2, 0), c + QPointF(2, 0));
-    const QRectF label(c + QPointF(8, -18), QSizeF(28, 14));
+    const QRectF label(c + QPointF(8, -18),
+                       QSizeF(p.fontMetrics().horizontalAdvance(seed.label) + 8, 14));
     p.fillRect(label, QColor(0, 0, 0, 170));
     p.setPen(seed.colour);
     p.drawText(label, Qt::AlignCenter, seed.label);
