@@ -156,6 +156,32 @@ TEST_F(ProposeInDesk, CoreErrorsReachTheOneErrorPath) {
   fs::rename(clip_.video.string() + ".moved", clip_.video);
 }
 
+TEST_F(ProposeInDesk, OpeningAnotherProjectOrClosingWhileProposingDropsTheRun) {
+  ASSERT_TRUE(w_.proposeEvents({vision::Scene::treadmill, std::nullopt}));
+  // Common practice, no source: a run started for one project never lands in another.
+  ASSERT_TRUE(w_.openProject(QString::fromStdString(clip_.project.string())));
+  ASSERT_TRUE(finish());
+  EXPECT_TRUE(doc().project().proposals.events.empty());
+  EXPECT_TRUE(w_.tracks().empty());
+  EXPECT_TRUE(test::recordedErrors().isEmpty());
+  // Closing while a run goes on cancels it and waits (no crash, no thread left running).
+  // (A copy of the clip and project: the first window holds the original's lock.)
+  const fs::path copy = fs::path(dir_.path().toStdString()) / "copy";
+  fs::create_directories(copy);
+  fs::copy_file(clip_.project, copy / clip_.project.filename());
+  fs::copy_file(clip_.video, copy / clip_.video.filename());
+  auto other = std::make_unique<MainWindow>();
+  test::showUnattended(*other, 800, 600);
+  ASSERT_TRUE(
+      other->openProject(QString::fromStdString((copy / clip_.project.filename()).string())));
+  for (const auto& s : clip_.seeds) other->document()->setSeed(s);
+  ASSERT_TRUE(other->proposeEvents({vision::Scene::treadmill, std::nullopt}));
+  QElapsedTimer clock;
+  clock.start();
+  other.reset();
+  EXPECT_LT(clock.elapsed(), 5000);
+}
+
 int pixelsNear(const QImage& image, QColor colour, int tolerance, QRect area = {}) {
   if (area.isNull()) area = image.rect();
   area &= image.rect();
