@@ -137,6 +137,11 @@ std::function<void()> MainWindow::handlerFor(ActionId id) {
       return [this] { nudgeCurrentProposal(1); };
     case ActionId::acceptProposalsAbove:
       return [this] { acceptAboveDialog(); };
+    case ActionId::acceptProposedHidden:
+      return [this] {
+        const int n = doc_.acceptProposedHiddenSpans();
+        statusBar()->showMessage(tr("%1 proposed hidden spans are hidden spans now.").arg(n), 8000);
+      };
     case ActionId::zoomLanesIn:
       return [this] { lanes_->setVisibleSpan(lanes_->visibleSpan() * 4 / 5); };
     case ActionId::zoomLanesOut:

@@ -197,6 +197,22 @@ TEST(Proposals, AcceptAllAboveAConfidenceIsOneUndoStepAndSkipsTaggedFrames) {
   EXPECT_EQ(doc.project().proposals.events.size(), 4u);
 }
 
+TEST(Proposals, ProposedHiddenSpansAreAcceptedAsOneUndoStep) {
+  ProjectDocument doc;
+  doc.reset(quadrupedProject(), {});
+  doc.storeProposals(someProposals(), {LF, RF}, {0, 599});
+  ASSERT_TRUE(doc.annotation().hidden.empty());
+  // Source: issue 18 item 1 (a span where the foot could not be seen is "proposed as a hidden
+  // span"); item 3 (every accept is an undo command).
+  EXPECT_EQ(doc.acceptProposedHiddenSpans(), 1);
+  EXPECT_EQ(doc.annotation().hidden, (std::vector<model::HiddenSpan>{{RF, 60, 64}}));
+  EXPECT_TRUE(doc.project().proposals.hidden.empty());
+  EXPECT_EQ(doc.project().proposals.events.size(), 4u) << "proposed events stay for review";
+  doc.undoStack()->undo();
+  EXPECT_TRUE(doc.annotation().hidden.empty());
+  EXPECT_EQ(doc.project().proposals.hidden.size(), 1u);
+}
+
 TEST(Proposals, NeverChangeAnalysisUntilAccepted) {
   synth::SynthOptions o;
   o.gaits = {"trot:3"};

@@ -280,11 +280,13 @@ void SeedCommand::apply(const std::optional<model::FootSeed>& seed) {
 // --- Proposals ---
 
 ProposalsCommand::ProposalsCommand(ProjectDocument* doc, const QString& text,
-                                   model::Proposals after, std::vector<model::Event> tagsAdded)
+                                   model::Proposals after, std::vector<model::Event> tagsAdded,
+                                   std::vector<model::HiddenSpan> hiddenAdded)
     : EditCommand(doc, text),
       before_(doc->project().proposals),
       after_(std::move(after)),
-      tagsAdded_(std::move(tagsAdded)) {}
+      tagsAdded_(std::move(tagsAdded)),
+      hiddenAdded_(std::move(hiddenAdded)) {}
 
 ProposalsCommand* ProposalsCommand::nudge(ProjectDocument* doc, const QString& text,
                                           model::Proposals after, const model::Event& from,
@@ -298,12 +300,20 @@ ProposalsCommand* ProposalsCommand::nudge(ProjectDocument* doc, const QString& t
 void ProposalsCommand::redo() {
   project().proposals = after_;
   for (const auto& e : tagsAdded_) insertSorted(project().annotation.events, e);
+  auto& hidden = project().annotation.hidden;
+  hidden.insert(hidden.end(), hiddenAdded_.begin(), hiddenAdded_.end());
+  project().annotation.normalize();
   finished();
 }
 
 void ProposalsCommand::undo() {
   project().proposals = before_;
   for (const auto& e : tagsAdded_) eraseExact(project().annotation.events, e);
+  for (const auto& h : hiddenAdded_) {
+    auto& hidden = project().annotation.hidden;
+    if (const auto it = std::find(hidden.begin(), hidden.end(), h); it != hidden.end())
+      hidden.erase(it);
+  }
   finished();
 }
 

@@ -155,7 +155,8 @@ class ProposalsCommand : public EditCommand {
  public:
   static constexpr int kNudgeId = 0x5e02;
   ProposalsCommand(ProjectDocument* doc, const QString& text, model::Proposals after,
-                   std::vector<model::Event> tagsAdded = {});
+                   std::vector<model::Event> tagsAdded = {},
+                   std::vector<model::HiddenSpan> hiddenAdded = {});
   // A nudge: the proposal moved from `from` to `to` (merges with the next nudge of `to`).
   static ProposalsCommand* nudge(ProjectDocument* doc, const QString& text, model::Proposals after,
                                  const model::Event& from, const model::Event& to);
@@ -167,6 +168,7 @@ class ProposalsCommand : public EditCommand {
  private:
   model::Proposals before_, after_;
   std::vector<model::Event> tagsAdded_;
+  std::vector<model::HiddenSpan> hiddenAdded_;
   std::optional<model::Event> nudgedFrom_, nudgedTo_;  // set for nudges
 };
 

@@ -94,6 +94,9 @@ class ProjectDocument : public QObject {
   std::vector<model::ProposedEvent> acceptableFrom(double minConfidence) const;
   // Accepts acceptableFrom(minConfidence) as one undo step; returns how many.
   int acceptProposalsFrom(double minConfidence);
+  // The proposed hidden spans become hidden spans of the annotation (one undo step; a span
+  // already there is not added twice); returns how many were proposed.
+  int acceptProposedHiddenSpans();
 
   // Journal handling. writeJournal() is called after every edit; readJournal() returns the
   // journalled project if one exists for `journalFile`.

@@ -158,4 +158,21 @@ int ProjectDocument::acceptProposalsFrom(double minConfidence) {
   return n;
 }
 
+int ProjectDocument::acceptProposedHiddenSpans() {
+  const auto spans = project_.proposals.hidden;
+  if (spans.empty()) return 0;
+  std::vector<model::HiddenSpan> added;
+  const auto& hidden = project_.annotation.hidden;
+  for (const auto& s : spans)
+    if (std::find(hidden.begin(), hidden.end(), s) == hidden.end()) added.push_back(s);
+  model::Proposals after = project_.proposals;
+  after.hidden.clear();
+  const int n = static_cast<int>(spans.size());
+  undo_.push(new ProposalsCommand(
+      this,
+      QCoreApplication::translate("Stridemark", "Accept %n proposed hidden span(s)", nullptr, n),
+      std::move(after), {}, std::move(added)));
+  return n;
+}
+
 }  // namespace stridemark::ui

@@ -296,6 +296,12 @@ std::vector<ActionSpec> reviewActions() {
        QT_TRANSLATE_NOOP("Actions", "Accept all a&bove a confidence…"),
        {fixed("Ctrl+;")},
        QT_TRANSLATE_NOOP("Actions", "shows how many would be accepted first")},
+      {ActionId::acceptProposedHidden,
+       Menu::review,
+       "review/acceptHidden",
+       QT_TRANSLATE_NOOP("Actions", "Accept proposed &hidden spans"),
+       {},
+       QT_TRANSLATE_NOOP("Actions", "where a foot could not be followed (dotted boxes)")},
   };
 }
 

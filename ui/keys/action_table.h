@@ -55,6 +55,7 @@ enum class ActionId {
   nudgeProposalEarlier,
   nudgeProposalLater,
   acceptProposalsAbove,
+  acceptProposedHidden,
   zoomLanesIn,
   zoomLanesOut,
   fitVideo,
