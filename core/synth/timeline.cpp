@@ -254,9 +254,12 @@ FootPose Timeline::foot(int limb, double frame) const {
     return pose;
   }
   const auto nextTd = static_cast<double>(it->touchdown);
-  const double s = (frame - lo) / (nextTd - lo);
+  // The swing runs from the last frame on the ground (lo - 1) to the touchdown frame, so the
+  // lift-off frame already shows the foot off the ground (the frame convention: lift-off is the
+  // first frame with the foot off), as the touchdown frame shows it down.
+  const double s = (frame - lo + 1) / (nextTd - lo + 1);
   const double x0 = -current.reach / 2, x1 = it->reach / 2;
-  if (options_.softLanding) return softSwing(s, x0, x1, lo, nextTd);
+  if (options_.softLanding) return softSwing(s, x0, x1, lo - 1, nextTd);
   pose.x = x0 + (x1 - x0) * smoothstep(s);
   // Lift peaks early in swing, as a foot clears the ground and then reaches forward.
   pose.lift = std::sin(kPi * std::pow(s, 0.8));

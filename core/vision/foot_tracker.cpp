@@ -48,11 +48,12 @@ struct MotionPrior {
   double takenRadius = 0;
   double sigma = 1;   // pixels
   double weight = 0;  // score lost at one sigma from every expectation
+  double cap = 0.25;  // at most: a clear match far from every expectation still wins
   double penalty(cv::Point2d at) const {
     double nearest = 1e30;
     for (const auto& e : expected)
       nearest = std::min(nearest, (at.x - e.x) * (at.x - e.x) + (at.y - e.y) * (at.y - e.y));
-    double cost = std::min(0.5, weight * nearest / (sigma * sigma));
+    double cost = std::min(cap, weight * nearest / (sigma * sigma));
     for (const auto& t : taken)
       if (std::hypot(at.x - t.x, at.y - t.y) < takenRadius) cost += 1.0;
     return cost;
@@ -85,12 +86,6 @@ Peak peakOf(const cv::Mat& scores, cv::Rect area, int r, const MotionPrior* prio
     dy = vertexOffset(scores.at<float>(loc.y - 1, loc.x), scores.at<float>(loc.y, loc.x),
                       scores.at<float>(loc.y + 1, loc.x));
   return {{area.x + loc.x + r + dx, area.y + loc.y + r + dy}, scores.at<float>(loc)};
-}
-
-Peak bestMatch(const cv::Mat& image, const cv::Mat& patch, cv::Rect window) {
-  cv::Rect area;
-  const cv::Mat scores = scoreMap(image, patch, window, area);
-  return peakOf(scores, area, patch.cols / 2);
 }
 
 double correlation(const cv::Mat& a, const cv::Mat& b) {
@@ -141,7 +136,8 @@ TrackSample FootTracker::current() const {
 TrackSample FootTracker::step(const cv::Mat& from, const cv::Mat& to,
                               std::optional<cv::Point2d> groundShift,
                               const std::vector<cv::Point2d>& avoid) {
-  const TrackSample sample = visible_ ? follow(from, to, groundShift, avoid) : reacquire(to);
+  const TrackSample sample =
+      visible_ ? follow(from, to, groundShift, avoid) : reacquire(to, groundShift, avoid);
   at_ = sample.at;
   quality_ = sample.quality;
   visible_ = sample.visible;
@@ -195,17 +191,36 @@ TrackSample FootTracker::follow(const cv::Mat& from, const cv::Mat& to,
   return {predicted, 0, false};
 }
 
-TrackSample FootTracker::reacquire(const cv::Mat& to) {
+TrackSample FootTracker::reacquire(const cv::Mat& to, std::optional<cv::Point2d> groundShift,
+                                   const std::vector<cv::Point2d>& avoid) {
   ++framesLost_;
-  // Keep drifting as the foot last moved, then search wider the longer it has been gone.
-  const cv::Point2d predicted = at_ + velocity_ * 0.8;
-  velocity_ *= 0.8;
-  const double reach = 3.0 * radius_ + 2.0 * framesLost_;
-  const cv::Rect window = windowAround(predicted, std::min(reach, 12.0 * radius_));
-  Peak best = bestMatch(to, goodPatch_, window);
-  const Peak fromSeed = bestMatch(to, seedPatch_, window);
-  if (fromSeed.score > best.score) best = fromSeed;
-  if (best.score >= kReacquireScore) {
+  // A foot lost while standing stays on the ground: it moves with it. A swinging one drifts on
+  // as it last moved. The longer it has been gone, the wider the search.
+  if (framesLost_ == 2)
+    lostStanding_ =
+        groundShift && cv::norm(velocity_ - *groundShift) < 0.3 * cv::norm(velocity_) + 0.5;
+  if (lostStanding_ && groundShift) {
+    velocity_ = *groundShift;
+  } else {
+    velocity_ *= 0.85;
+  }
+  const cv::Point2d predicted = at_ + velocity_;
+  const double reach = std::min(3.0 * radius_ + 2.0 * framesLost_, 12.0 * radius_);
+  const cv::Rect window = windowAround(predicted, reach);
+  cv::Rect area;
+  cv::Mat scores = scoreMap(to, goodPatch_, window, area);
+  if (scores.empty()) return {predicted, 0, false};
+  cv::Rect same;
+  cv::max(scores, scoreMap(to, seedPatch_, window, same), scores);
+  // Never re-found on top of another foot that is being followed.
+  MotionPrior prior;
+  prior.expected = {predicted};
+  prior.sigma = std::max(2.0, 0.5 * reach);
+  prior.weight = 0.1;
+  prior.taken = avoid;
+  prior.takenRadius = 1.0 * radius_;
+  const Peak best = peakOf(scores, area, radius_, &prior);
+  if (best.score >= kReacquireScore && prior.penalty(best.at) < 1.0) {
     framesLost_ = 0;
     velocity_ = {0, 0};
     return {best.at, std::clamp(best.score, 0.0, 1.0), true};

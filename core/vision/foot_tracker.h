@@ -39,7 +39,8 @@ class FootTracker {
  private:
   TrackSample follow(const cv::Mat& from, const cv::Mat& to, std::optional<cv::Point2d> groundShift,
                      const std::vector<cv::Point2d>& avoid);
-  TrackSample reacquire(const cv::Mat& to);
+  TrackSample reacquire(const cv::Mat& to, std::optional<cv::Point2d> groundShift,
+                        const std::vector<cv::Point2d>& avoid);
   cv::Mat patchAt(const cv::Mat& image, cv::Point2d centre) const;
   double looksLikeFoot(const cv::Mat& patch) const;
 
@@ -47,6 +48,7 @@ class FootTracker {
   cv::Point2d at_, velocity_;
   bool visible_ = true;
   int framesLost_ = 0;
+  bool lostStanding_ = false;  // lost while moving with the ground
   double quality_ = 1;
   double speedScale_ = 0;  // recent top speed, for how far the next step may reach
   cv::Mat seedPatch_, goodPatch_;

@@ -76,10 +76,23 @@ std::map<int, TrackSample> stepFeet(std::map<int, std::unique_ptr<FootTracker>>&
                                     const cv::Mat& to, const ShiftFor& shiftFor) {
   std::map<int, TrackSample> out;
   std::map<int, FootTracker> before;
+  std::vector<int> lost;
   for (const int limb : active) {
     FootTracker& tracker = *trackers.at(limb);
     before.emplace(limb, tracker);
+    if (!tracker.current().visible) {
+      lost.push_back(limb);
+      continue;
+    }
     out[limb] = tracker.step(from, to, shiftFor(tracker.current().at));
+  }
+  // Lost feet search after the followed ones are placed, and never where one of them is.
+  std::vector<cv::Point2d> placed;
+  for (const auto& [limb, sample] : out)
+    if (sample.visible) placed.push_back(sample.at);
+  for (const int limb : lost) {
+    FootTracker& tracker = *trackers.at(limb);
+    out[limb] = tracker.step(from, to, shiftFor(tracker.current().at), placed);
   }
   for (std::size_t i = 0; i < active.size(); ++i)
     for (std::size_t j = i + 1; j < active.size(); ++j) {

@@ -1,4 +1,5 @@
 #include <cmath>
+#include <cstdio>
 #include <set>
 #include <utility>
 
@@ -15,6 +16,12 @@ std::string describe(const model::FootSeed& seed, const model::LimbSet& limbs) {
   return "seed " + limb + " at frame " + std::to_string(seed.frame);
 }
 
+std::string pixels(double value) {
+  char text[32];
+  std::snprintf(text, sizeof text, "%.1f", value);
+  return text;
+}
+
 }  // namespace
 
 std::string seedProblem(const std::vector<model::FootSeed>& seeds, const model::LimbSet& limbs,
@@ -29,11 +36,11 @@ std::string seedProblem(const std::vector<model::FootSeed>& seeds, const model::
     if (seed.frame < 0 || seed.frame >= frameCount)
       return describe(seed, limbs) + ": the clip has frames 0.." + std::to_string(frameCount - 1) +
              "; pick a frame inside it";
-    if (!std::isfinite(seed.x) || !std::isfinite(seed.y) || seed.x < 0 || seed.y < 0 ||
-        seed.x > width - 1 || seed.y > height - 1)
-      return describe(seed, limbs) + ": position (" + std::to_string(seed.x) + ", " +
-             std::to_string(seed.y) + ") is outside the " + std::to_string(width) + "x" +
-             std::to_string(height) +
+    // Pixel i spans [i - 0.5, i + 0.5): a click anywhere on an edge pixel is inside.
+    if (!std::isfinite(seed.x) || !std::isfinite(seed.y) || seed.x < -0.5 || seed.y < -0.5 ||
+        seed.x >= width - 0.5 || seed.y >= height - 0.5)
+      return describe(seed, limbs) + ": position (" + pixels(seed.x) + ", " + pixels(seed.y) +
+             ") is outside the " + std::to_string(width) + "x" + std::to_string(height) +
              " frame; give pixels of the upright frame, origin top-left, x right, y down";
     if (!seen.insert({seed.limb, seed.frame}).second)
       return describe(seed, limbs) + ": given twice; keep one seed per limb and frame";

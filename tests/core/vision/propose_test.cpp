@@ -33,7 +33,7 @@ Clip markedBipedWalk() {
   o.limbs = model::LimbSet::biped();
   o.gaits = {"walk:3"};
   o.timeline.captureRate = {120, 1};
-  o.render.scene = synth::Scene::overground;  // the follow camera: the backdrop pans
+  o.render.scene = synth::Scene::panning;  // the follow camera: the backdrop pans
   o.render.markers = true;
   clip.result = synth::generate(o);
   const synth::Timeline timeline = synth::makeTimeline(o);

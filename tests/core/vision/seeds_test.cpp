@@ -50,6 +50,9 @@ TEST(SeedsCsv, RejectsBadLinesNamingTheLine) {
 TEST(SeedProblem, NamesTheSeedAndTheFix) {
   const auto limbs = model::LimbSet::quadruped();
   EXPECT_EQ(vision::seedProblem({{0, 5, 10, 10}}, limbs, 100, 640, 360), "");
+  // Pixel i spans [i - 0.5, i + 0.5) (common practice, no source): edge clicks are inside.
+  EXPECT_EQ(vision::seedProblem({{0, 5, -0.4, 359.4}}, limbs, 100, 640, 360), "");
+  EXPECT_NE(vision::seedProblem({{0, 5, 639.5, 10}}, limbs, 100, 640, 360), "");
   EXPECT_NE(vision::seedProblem({{0, 5, 700, 10}}, limbs, 100, 640, 360)
                 .find("seed LF at frame 5: position (700"),
             std::string::npos);
