@@ -10,7 +10,9 @@
 
 #include "ui/document/project_lock.h"
 #include "ui/keys/cheat_sheet.h"
+#include "ui/session/frame_crops.h"
 #include "ui/session/guarded.h"
+#include "ui/session/propose_job.h"
 #include "ui/widgets/footfall_lanes.h"
 #include "ui/widgets/viewer.h"
 
@@ -47,14 +49,19 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
   journalWarning_->hide();
   statusBar()->addPermanentWidget(journalWarning_, 1);
   buildProxyStatus();
+  buildProposeStatus();
   buildDocks();
   buildActions();
+  showProposeProgress(false);
   keys_ = TagKeyMap::load(doc_.annotation().limbs);
   legend_->setKeys(keys_);
   updateTagKeyHints();
   connectDocument();
   connect(lanes_, &FootfallLanes::seekRequested, this, [this](qint64 f) { seek(f); });
   connect(lanes_, &FootfallLanes::limbSelected, this, &MainWindow::selectLimb);
+  connect(lanes_, &FootfallLanes::proposalClicked, this, [this](const model::Event& e) {
+    if (const auto* p = doc_.findProposal(e)) setCurrentProposal(*p);
+  });
   connect(&playTimer_, &QTimer::timeout, this, &MainWindow::playTick);
   playTimer_.setInterval(15);
   qApp->installEventFilter(this);
@@ -66,6 +73,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent), keys_(model::Limb
 MainWindow::~MainWindow() {
   qApp->removeEventFilter(this);
   stopPlayback();
+  proposeJob_.reset();  // cancels and waits for a run still going
 }
 
 void MainWindow::connectDocument() {
@@ -74,6 +82,12 @@ void MainWindow::connectDocument() {
   connect(&doc_, &ProjectDocument::projectReset, this, [this] {
     reloadTagKeysIfLimbsChanged();
     selectLimb(std::min(selectedLimb_, doc_.annotation().limbs.size() - 1));
+    // Another project: a run still going belongs to the old one, and so do its tracks.
+    ++proposeTicket_;
+    proposeJob_->cancel();
+    tracks_.clear();
+    setCurrentProposal(std::nullopt);
+    refillSeedLimbs();
   });
   connect(&doc_, &ProjectDocument::pathChanged, this, &MainWindow::updateTitle);
   connect(doc_.undoStack(), &QUndoStack::cleanChanged, this, &MainWindow::updateTitle);

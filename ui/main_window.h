@@ -9,9 +9,11 @@
 // journal), main_window_proxy.cpp (stepping proxy status), main_window_transport.cpp (play,
 // step, seek), main_window_tagging.cpp (tag keys, hidden spans), main_window_display.cpp
 // (report, title, status), main_window_scope.cpp (the Scope toolbar), main_window_export.cpp and
-// main_window_settings.cpp.
+// main_window_settings.cpp; main_window_seeds.cpp (foot seeds), main_window_propose.cpp (the
+// background proposal run) and main_window_review.cpp (reviewing proposals), issue 18 item 3.
 #include <QElapsedTimer>
 #include <QMainWindow>
+#include <QPointF>
 #include <QStringList>
 #include <QTimer>
 #include <cstdint>
@@ -24,9 +26,12 @@
 #include "ui/document/project_document.h"
 #include "ui/keys/key_bindings.h"
 #include "ui/session/analysis_runner.h"
+#include "ui/session/proposal_review.h"
 #include "ui/session/report_scope.h"
 #include "ui/session/video_source.h"
+#include "ui/widgets/proposal_dialogs.h"
 #include "ui/widgets/tag_keys.h"
+#include "vision/propose.h"
 
 class QAction;
 class QComboBox;
@@ -45,6 +50,8 @@ class FigureView;
 class ChecksList;
 class SummaryView;
 class ProjectLock;
+class ProposeJob;
+class FrameCrops;
 
 // What to do when a journal from a crashed session exists (tests choose without a dialog).
 enum class RecoveryPolicy { ask, recover, discard };
@@ -113,6 +120,40 @@ class MainWindow : public QMainWindow {
   // the last write succeeded.
   QString journalWarning() const;
   QProgressBar* proxyProgressBar() const { return proxyBar_; }
+
+  // --- foot seeds (main_window_seeds.cpp) ---
+  // Seeding mode: tag keys choose the limb, a click on the Viewer places its seed.
+  void setSeeding(bool on);
+  bool seeding() const;
+  int seedLimb() const { return seedLimb_; }
+  void setSeedLimb(int limb);
+  // The chosen limb's seed at the playhead's frame, at this pixel of the upright frame.
+  bool placeSeed(QPointF videoPixel);
+  bool removeSeedNear(QPointF videoPixel);
+  // --- proposing (main_window_propose.cpp) ---
+  // Starts vision::propose in the background from the project's seeds; false after showing
+  // why it cannot start. Review ▸ Propose events… asks for these settings first.
+  bool proposeEvents(const ProposeSettings& settings);
+  bool proposing() const;
+  void cancelProposing();
+  ProposeJob* proposeJob() const { return proposeJob_.get(); }
+  QProgressBar* proposeProgressBar() const { return proposeBar_; }
+  QPushButton* proposeCancelButton() const { return proposeCancel_; }
+  // The tracks of the newest run (kept in memory for display, not saved).
+  const std::vector<vision::FootTrack>& tracks() const { return tracks_; }
+  // --- review (main_window_review.cpp) ---
+  const std::optional<model::ProposedEvent>& currentProposal() const { return current_; }
+  // Makes `proposal` the one under review (highlighted, playhead on it); nothing: none.
+  void setCurrentProposal(std::optional<model::ProposedEvent> proposal);
+  void setReviewOrder(ReviewOrder order);
+  ReviewOrder reviewOrder() const { return order_; }
+  bool stepProposal(int direction);  // next (+1) or previous (-1); seeks to it
+  bool acceptCurrentProposal();
+  bool rejectCurrentProposal();
+  bool nudgeCurrentProposal(std::int64_t delta);
+  int acceptProposalsAbove(double minConfidence);
+  // "RF touchdown @ 132 proposed, confidence 0.83 (3 of 41)"; empty with no current proposal.
+  QString reviewText() const;
 
  protected:
   bool eventFilter(QObject* watched, QEvent* event) override;
@@ -190,6 +231,23 @@ class MainWindow : public QMainWindow {
   void buildScopeBar();
   void updateScopeChoices();
   void showScope();
+  // Seeds (main_window_seeds.cpp).
+  void buildReviewBar();
+  void refillSeedLimbs();
+  void showSeeds();
+  // Proposing (main_window_propose.cpp).
+  void buildProposeStatus();
+  void showProposeProgress(bool on);
+  void proposeDialog();
+  void onProposeFinished();
+  void attachCropReader();
+  // Review (main_window_review.cpp).
+  void afterReviewStep(const std::optional<model::ProposedEvent>& from);
+  void acceptAboveDialog();
+  void showReview();
+  void showTracks();
+  void fetchCrops();
+  void onCrops(quint64 ticket, const std::vector<QImage>& crops);
   // Export (main_window_export.cpp). File > Export…: saves first when needed, then opens the
   // Export dialog on the project file.
   void exportFigures();
@@ -232,6 +290,20 @@ class MainWindow : public QMainWindow {
   std::map<ActionId, QAction*> actions_;
   QProgressBar* proxyBar_ = nullptr;
   QPushButton* proxyCancel_ = nullptr;
+  // Seeds, proposing and review (issue 18 item 3).
+  QComboBox* seedLimbBox_ = nullptr;
+  int seedLimb_ = 0;
+  std::unique_ptr<ProposeJob> proposeJob_;
+  std::uint64_t proposeTicket_ = 0;  // grows on every project reset: a late run is dropped
+  std::uint64_t runTicket_ = 0;      // the ticket the running job started with
+  ProposeSettings proposeSettings_;
+  QProgressBar* proposeBar_ = nullptr;
+  QPushButton* proposeCancel_ = nullptr;
+  std::vector<vision::FootTrack> tracks_;
+  std::optional<model::ProposedEvent> current_;
+  ReviewOrder order_ = ReviewOrder::byFrame;
+  std::unique_ptr<FrameCrops> crops_;
+  std::uint64_t cropTicket_ = 0;
 
   std::int64_t playhead_ = 0;
   int selectedLimb_ = 0;

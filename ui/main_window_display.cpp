@@ -23,6 +23,15 @@ void MainWindow::onAnnotationChanged() {
   lanes_->update();
   updateTagKeyHints();
   updateStatus();
+  showSeeds();
+  // The proposal under review may have moved in the order, or gone (an undo): a gone one keeps
+  // its place for the next step but shows nothing.
+  if (current_ && doc_.findProposal(current_->event)) {
+    showReview();
+  } else if (current_) {
+    lanes_->setCurrentProposal(std::nullopt);
+    viewer_->setReviewStrip({});
+  }
 }
 
 void MainWindow::onReport(std::shared_ptr<const analysis::Report> report, std::uint64_t revision) {

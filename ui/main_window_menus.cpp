@@ -7,6 +7,7 @@
 #include <QMenu>
 #include <QMenuBar>
 #include <QSettings>
+#include <QStatusBar>
 #include <QToolBar>
 
 #include "ui/keys/cheat_sheet.h"
@@ -41,6 +42,7 @@ void MainWindow::buildActions() {
   menus.at(Menu::file)->insertMenu(action(ActionId::save), recentMenu_);
   rebuildRecentMenu();
   viewMenu_ = menus.at(Menu::view);
+  buildReviewBar();
   insertViewToggles();
   connectToggles();
 }
@@ -117,6 +119,29 @@ std::function<void()> MainWindow::handlerFor(ActionId id) {
       return [this] { goToDialog(); };
     case ActionId::setBigStep:
       return [this] { bigStepDialog(); };
+    case ActionId::proposeEvents:
+      return [this] { proposeDialog(); };
+    case ActionId::cancelProposing:
+      return [this] { cancelProposing(); };
+    case ActionId::previousProposal:
+      return [this] { stepProposal(-1); };
+    case ActionId::nextProposal:
+      return [this] { stepProposal(1); };
+    case ActionId::acceptProposal:
+      return [this] { acceptCurrentProposal(); };
+    case ActionId::rejectProposal:
+      return [this] { rejectCurrentProposal(); };
+    case ActionId::nudgeProposalEarlier:
+      return [this] { nudgeCurrentProposal(-1); };
+    case ActionId::nudgeProposalLater:
+      return [this] { nudgeCurrentProposal(1); };
+    case ActionId::acceptProposalsAbove:
+      return [this] { acceptAboveDialog(); };
+    case ActionId::acceptProposedHidden:
+      return [this] {
+        const int n = doc_.acceptProposedHiddenSpans();
+        statusBar()->showMessage(tr("%1 proposed hidden spans are hidden spans now.").arg(n), 8000);
+      };
     case ActionId::zoomLanesIn:
       return [this] { lanes_->setVisibleSpan(lanes_->visibleSpan() * 4 / 5); };
     case ActionId::zoomLanesOut:
@@ -138,6 +163,8 @@ std::function<void()> MainWindow::handlerFor(ActionId id) {
     case ActionId::undo:  // the undo stack's own actions
     case ActionId::redo:
     case ActionId::autoAdvance:  // on/off settings: connectToggles()
+    case ActionId::seedMode:
+    case ActionId::leastConfidentFirst:
     case ActionId::stepOnProxy:
     case ActionId::darkPalette:
       return {};
@@ -157,6 +184,19 @@ void MainWindow::connectToggles() {
   });
   action(ActionId::cancelProxy)->setEnabled(false);
   connect(action(ActionId::darkPalette), &QAction::toggled, this, &MainWindow::setTheme);
+  connect(action(ActionId::seedMode), &QAction::toggled, this, [this](bool on) {
+    viewer_->setSeeding(on);
+    legend_->setSeeding(on);
+    if (on) {
+      setSeedLimb(seedLimb_);  // says what a click does now
+    } else {
+      statusBar()->clearMessage();
+    }
+  });
+  connect(action(ActionId::leastConfidentFirst), &QAction::toggled, this, [this](bool on) {
+    order_ = on ? ReviewOrder::leastConfidentFirst : ReviewOrder::byFrame;
+    showReview();
+  });
 }
 
 // View starts with a switch for every dock and the toolbar.

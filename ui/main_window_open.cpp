@@ -276,6 +276,7 @@ void MainWindow::attachVideo(std::unique_ptr<VideoSource> video) {
     viewer_->setFrameCount(count);
     lanes_->setFrameCount(count);
   }
+  attachCropReader();
   playhead_ = -1;
   seek(0);
   updateTitle();

@@ -17,7 +17,7 @@ void MainWindow::setTheme(bool dark) {
 }
 
 void MainWindow::editTrialCard() {
-  const bool locked = !doc_.annotation().events.empty() || !doc_.annotation().hidden.empty();
+  const bool locked = doc_.limbSetLocked();
   TrialCardDialog dialog(doc_.project(), locked, this);
   dialog.setCurrentFrame(playhead_);
   if (dialog.exec() != QDialog::Accepted) return;

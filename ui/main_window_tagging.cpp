@@ -54,7 +54,13 @@ bool MainWindow::eventFilter(QObject* watched, QEvent* event) {
   if ((mods & ~Qt::ShiftModifier) != Qt::NoModifier || isTextInput(QApplication::focusWidget()))
     return QMainWindow::eventFilter(watched, event);
   if (const auto limb = keys_.limbFor(key->key())) {
-    if (!key->isAutoRepeat()) tagLimb(*limb, mods & Qt::ShiftModifier);
+    // While placing seeds a tag key chooses the limb to seed instead of tagging.
+    if (key->isAutoRepeat()) return true;
+    if (seeding()) {
+      setSeedLimb(*limb);
+    } else {
+      tagLimb(*limb, mods & Qt::ShiftModifier);
+    }
     return true;
   }
   return QMainWindow::eventFilter(watched, event);

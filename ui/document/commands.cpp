@@ -244,4 +244,88 @@ void AnnotationSettingsCommand::undo() {
   apply(before_);
 }
 
+// --- Seeds ---
+
+SeedCommand::SeedCommand(ProjectDocument* doc, int limb, std::int64_t frame,
+                         std::optional<model::FootSeed> after)
+    : EditCommand(doc, {}), limb_(limb), frame_(frame), after_(std::move(after)) {
+  for (const model::FootSeed& s : doc->project().seeds)
+    if (s.limb == limb && s.frame == frame) before_ = s;
+  const QString limbName = limbText(doc->project(), limb);
+  if (!after_) {
+    setText(QCoreApplication::translate("Stridemark", "Remove %1's seed at frame %2")
+                .arg(limbName)
+                .arg(frame));
+  } else {
+    setText((before_ ? QCoreApplication::translate("Stridemark", "Move %1's seed at frame %2")
+                     : QCoreApplication::translate("Stridemark", "Seed %1 at frame %2"))
+                .arg(limbName)
+                .arg(frame));
+  }
+}
+
+void SeedCommand::apply(const std::optional<model::FootSeed>& seed) {
+  auto& seeds = project().seeds;
+  std::erase_if(seeds,
+                [&](const model::FootSeed& s) { return s.limb == limb_ && s.frame == frame_; });
+  if (seed) {
+    const auto at = std::find_if(seeds.begin(), seeds.end(), [&](const model::FootSeed& s) {
+      return s.limb > seed->limb || (s.limb == seed->limb && s.frame > seed->frame);
+    });
+    seeds.insert(at, *seed);
+  }
+  finished();
+}
+
+// --- Proposals ---
+
+ProposalsCommand::ProposalsCommand(ProjectDocument* doc, const QString& text,
+                                   model::Proposals after, std::vector<model::Event> tagsAdded,
+                                   std::vector<model::HiddenSpan> hiddenAdded)
+    : EditCommand(doc, text),
+      before_(doc->project().proposals),
+      after_(std::move(after)),
+      tagsAdded_(std::move(tagsAdded)),
+      hiddenAdded_(std::move(hiddenAdded)) {}
+
+ProposalsCommand* ProposalsCommand::nudge(ProjectDocument* doc, const QString& text,
+                                          model::Proposals after, const model::Event& from,
+                                          const model::Event& to) {
+  auto* command = new ProposalsCommand(doc, text, std::move(after));
+  command->nudgedFrom_ = from;
+  command->nudgedTo_ = to;
+  return command;
+}
+
+void ProposalsCommand::redo() {
+  project().proposals = after_;
+  for (const auto& e : tagsAdded_) insertSorted(project().annotation.events, e);
+  auto& hidden = project().annotation.hidden;
+  hidden.insert(hidden.end(), hiddenAdded_.begin(), hiddenAdded_.end());
+  project().annotation.normalize();
+  finished();
+}
+
+void ProposalsCommand::undo() {
+  project().proposals = before_;
+  for (const auto& e : tagsAdded_) eraseExact(project().annotation.events, e);
+  for (const auto& h : hiddenAdded_) {
+    auto& hidden = project().annotation.hidden;
+    if (const auto it = std::find(hidden.begin(), hidden.end(), h); it != hidden.end())
+      hidden.erase(it);
+  }
+  finished();
+}
+
+bool ProposalsCommand::mergeWith(const QUndoCommand* other) {
+  const auto* next = dynamic_cast<const ProposalsCommand*>(other);
+  // Only a nudge of the proposal this one left behind continues the same gesture.
+  if (!next || !nudgedTo_ || next->nudgedFrom_ != nudgedTo_ || next->before_ != after_)
+    return false;
+  after_ = next->after_;
+  nudgedTo_ = next->nudgedTo_;
+  if (after_ == before_) setObsolete(true);
+  return true;
+}
+
 }  // namespace stridemark::ui

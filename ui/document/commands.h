@@ -3,6 +3,7 @@
 // what it needs to go both ways; consecutive nudges of the same events merge into one entry.
 #include <QUndoCommand>
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -127,6 +128,48 @@ class AnnotationSettingsCommand : public EditCommand {
  private:
   void apply(const AnnotationSettings& s);
   AnnotationSettings before_, after_;
+};
+
+// Sets, replaces or removes the seed of one limb on one frame (one seed per limb and frame):
+// where a person clicked the foot so proposals can track it (issue 18 item 3).
+class SeedCommand : public EditCommand {
+ public:
+  // `after` empty removes the seed of `limb` on `frame`.
+  SeedCommand(ProjectDocument* doc, int limb, std::int64_t frame,
+              std::optional<model::FootSeed> after);
+  void redo() override { apply(after_); }
+  void undo() override { apply(before_); }
+
+ private:
+  void apply(const std::optional<model::FootSeed>& seed);
+  int limb_;
+  std::int64_t frame_;
+  std::optional<model::FootSeed> before_, after_;
+};
+
+// Every change of the proposals under review: a run's result stored, an accept (the proposal
+// leaves the list and becomes a tag), a reject, a nudge, an accept of all above a confidence.
+// It keeps the proposals before and after and the tags it added, so undo restores both.
+// Consecutive nudges of the same proposal merge into one history entry.
+class ProposalsCommand : public EditCommand {
+ public:
+  static constexpr int kNudgeId = 0x5e02;
+  ProposalsCommand(ProjectDocument* doc, const QString& text, model::Proposals after,
+                   std::vector<model::Event> tagsAdded = {},
+                   std::vector<model::HiddenSpan> hiddenAdded = {});
+  // A nudge: the proposal moved from `from` to `to` (merges with the next nudge of `to`).
+  static ProposalsCommand* nudge(ProjectDocument* doc, const QString& text, model::Proposals after,
+                                 const model::Event& from, const model::Event& to);
+  void redo() override;
+  void undo() override;
+  int id() const override { return nudgedTo_ ? kNudgeId : -1; }
+  bool mergeWith(const QUndoCommand* other) override;
+
+ private:
+  model::Proposals before_, after_;
+  std::vector<model::Event> tagsAdded_;
+  std::vector<model::HiddenSpan> hiddenAdded_;
+  std::optional<model::Event> nudgedFrom_, nudgedTo_;  // set for nudges
 };
 
 }  // namespace stridemark::ui

@@ -140,6 +140,11 @@ bool ProjectDocument::moveEvents(const std::vector<model::Event>& events, std::i
   return true;
 }
 
+bool ProjectDocument::hasTagOn(int limb, std::int64_t frame) const {
+  return contains({frame, limb, model::EventKind::touchdown}) ||
+         contains({frame, limb, model::EventKind::liftoff});
+}
+
 void ProjectDocument::setTrialCard(const model::TrialCard& card) {
   if (card == project_.trial) return;
   undo_.push(new SetTrialCardCommand(this, card));
@@ -195,9 +200,15 @@ void ProjectDocument::setReferenceLimb(int limb) {
 bool ProjectDocument::setLimbSet(const model::LimbSet& limbs) {
   const auto& a = project_.annotation;
   if (limbs == a.limbs) return true;
-  if (!a.events.empty() || !a.hidden.empty()) return false;
+  if (limbSetLocked()) return false;
   undo_.push(new AnnotationSettingsCommand(this, {limbs, a.captureRate, limbs.defaultReference()}));
   return true;
+}
+
+bool ProjectDocument::limbSetLocked() const {
+  const auto& a = project_.annotation;
+  return !a.events.empty() || !a.hidden.empty() || !project_.seeds.empty() ||
+         !project_.proposals.events.empty() || !project_.proposals.hidden.empty();
 }
 
 void ProjectDocument::afterEdit(bool trialToo) {

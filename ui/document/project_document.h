@@ -61,11 +61,42 @@ class ProjectDocument : public QObject {
   void removeHiddenSpan(const model::HiddenSpan& span);
   void setCaptureRate(Rational rate);
   void setReferenceLimb(int limb);
-  // Only while nothing is tagged (events would lose their meaning); returns false otherwise.
+  // Only while nothing is tagged, seeded or proposed (limb numbers would lose their meaning);
+  // returns false otherwise.
   bool setLimbSet(const model::LimbSet& limbs);
+  bool limbSetLocked() const;
 
   // True when `event` (same limb, frame and kind) is present.
   bool contains(const model::Event& event) const;
+  // True when the limb has a tag of either kind on `frame`.
+  bool hasTagOn(int limb, std::int64_t frame) const;
+
+  // --- foot seeds and proposals (issue 18 item 3); each edit is one undo step ---
+  // Sets the seed of seed.limb on seed.frame, replacing one there; false for an unknown limb,
+  // a negative frame or an unchanged seed.
+  bool setSeed(const model::FootSeed& seed);
+  bool removeSeed(int limb, std::int64_t frame);
+  // Stores a run's result: earlier proposals of `limbs` inside `range` give way to it. A
+  // proposal equal to a tag already there is left out (nothing to review).
+  void storeProposals(const model::Proposals& result, const std::vector<int>& limbs,
+                      const model::FrameRange& range);
+  const model::ProposedEvent* findProposal(const model::Event& event) const;
+  enum class AcceptOutcome { accepted, missing, tagOnFrame };
+  // The proposal becomes a tag and leaves the list. Refused (tagOnFrame) when the limb has a
+  // tag on that frame already: one event per limb and frame, the person's tag wins.
+  AcceptOutcome acceptProposal(const model::Event& event);
+  bool rejectProposal(const model::Event& event);
+  // Moves a proposal by `delta` frames (inside the clip, not onto another proposal of the same
+  // limb and kind); returns where it is now. Consecutive nudges merge into one history entry.
+  std::optional<model::Event> nudgeProposal(const model::Event& event, std::int64_t delta);
+  // The proposals at or above `minConfidence` that accepting would turn into tags (in event
+  // order; those on a frame where their limb has a tag are not among them).
+  std::vector<model::ProposedEvent> acceptableFrom(double minConfidence) const;
+  // Accepts acceptableFrom(minConfidence) as one undo step; returns how many.
+  int acceptProposalsFrom(double minConfidence);
+  // The proposed hidden spans become hidden spans of the annotation (one undo step; a span
+  // already there is not added twice); returns how many were proposed.
+  int acceptProposedHiddenSpans();
 
   // Journal handling. writeJournal() is called after every edit; readJournal() returns the
   // journalled project if one exists for `journalFile`.

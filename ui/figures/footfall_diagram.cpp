@@ -63,6 +63,81 @@ void paintAxis(QPainter& p, const QRectF& rect, const FrameAxis& axis, const mod
   }
 }
 
+QPainterPath eventMark(const model::Event& e, double x, const QRectF& lane) {
+  // Touchdown ticks carry a down triangle, lift-off ticks an up triangle.
+  QPainterPath mark;
+  const double s = std::min(5.0, lane.height() * 0.18);
+  if (e.kind == model::EventKind::touchdown) {
+    mark.moveTo(x - s, lane.top() + 1);
+    mark.lineTo(x + s, lane.top() + 1);
+    mark.lineTo(x, lane.top() + 1 + s * 1.4);
+  } else {
+    mark.moveTo(x - s, lane.bottom() - 1);
+    mark.lineTo(x + s, lane.bottom() - 1);
+    mark.lineTo(x, lane.bottom() - 1 - s * 1.4);
+  }
+  mark.closeSubpath();
+  return mark;
+}
+
+// Proposed stance as an outline in the limb's colour, proposed hidden spans as a dotted box:
+// drawn first, so a person's bars cover them.
+void paintProposedSpans(QPainter& p, const QRectF& lane, const model::Annotation& a, int limb,
+                        const FrameAxis& axis, const FootfallOptions& o) {
+  if (!o.proposals) return;
+  const QColor colour = limbColour(limb).darker(115);
+  QPen dotted(colour, 1, Qt::DotLine);
+  p.setBrush(Qt::NoBrush);
+  for (const auto& span : o.proposals->hidden) {
+    if (span.limb != limb) continue;
+    p.setPen(dotted);
+    p.drawRect(QRectF(QPointF(axis.x(static_cast<double>(span.first)), lane.top() + 2),
+                      QPointF(axis.x(static_cast<double>(span.last + 1)), lane.bottom() - 2)));
+  }
+  model::Annotation proposed;
+  proposed.limbs = a.limbs;
+  proposed.clip = a.clip;
+  for (const auto& pe : o.proposals->events)
+    if (pe.event.limb == limb) proposed.events.push_back(pe.event);
+  proposed.normalize();
+  p.setPen(QPen(colour, 1.2, Qt::DashLine));
+  const double top = lane.top() + lane.height() * 0.3;
+  const double height = lane.height() * 0.4;
+  for (const auto& bar : stanceBars(proposed, limb, o.viewFirst, o.viewLast))
+    p.drawRect(QRectF(QPointF(axis.x(static_cast<double>(bar.first)), top),
+                      QPointF(axis.x(static_cast<double>(bar.last)), top + height)));
+}
+
+// Proposal ticks: dashed, lighter, with a hollow triangle; the current one in the highlight
+// colour with a band behind it so it is found at a glance.
+void paintProposalTicks(QPainter& p, const QRectF& lane, int limb, const FrameAxis& axis,
+                        const FootfallOptions& o, const FigureStyle& style) {
+  if (!o.proposals) return;
+  for (const auto& pe : o.proposals->events) {
+    const auto& e = pe.event;
+    if (e.limb != limb || e.frame < o.viewFirst || e.frame > o.viewLast + 1) continue;
+    const double x = axis.x(static_cast<double>(e.frame));
+    const bool current = o.currentProposal && *o.currentProposal == e;
+    QColor colour = current ? style.highlight : style.foreground;
+    if (!current) colour.setAlphaF(0.55);
+    if (current) {
+      // A tinted box around the tick, wider than the playhead line that often sits on it.
+      QColor band = style.highlight;
+      band.setAlphaF(0.18);
+      const QRectF box(x - 7, lane.top() + 1, 14, lane.height() - 2);
+      p.fillRect(box, band);
+      p.setPen(QPen(style.highlight, 1.5));
+      p.setBrush(Qt::NoBrush);
+      p.drawRect(box);
+    }
+    p.setPen(QPen(colour, current ? 2 : 1, current ? Qt::SolidLine : Qt::DashLine));
+    p.drawLine(QPointF(x, lane.top() + 2), QPointF(x, lane.bottom() - 2));
+    p.setPen(QPen(colour, current ? 1.6 : 1.1));
+    p.setBrush(Qt::NoBrush);
+    p.drawPath(eventMark(e, x, lane));
+  }
+}
+
 void paintLane(QPainter& p, const QRectF& lane, const model::Annotation& a, int limb,
                const FrameAxis& axis, const FootfallOptions& o, const FigureStyle& style) {
   const QColor colour = limbColour(limb);
@@ -74,6 +149,7 @@ void paintLane(QPainter& p, const QRectF& lane, const model::Annotation& a, int 
                    QPointF(axis.x(static_cast<double>(span.last + 1)), lane.bottom() - 1));
     p.fillRect(r, QBrush(style.muted, Qt::DiagCrossPattern));
   }
+  paintProposedSpans(p, lane, a, limb, axis, o);
   for (const auto& bar : stanceBars(a, limb, o.viewFirst, o.viewLast)) {
     QRectF r(QPointF(axis.x(static_cast<double>(bar.first)), barTop),
              QPointF(axis.x(static_cast<double>(bar.last)), barTop + barHeight));
@@ -87,26 +163,15 @@ void paintLane(QPainter& p, const QRectF& lane, const model::Annotation& a, int 
     p.drawRect(r);
   }
   if (!o.drawTicks) return;
+  paintProposalTicks(p, lane, limb, axis, o, style);
+  // A person's tags last: on top of every proposal.
   for (const auto& e : a.eventsOf(limb)) {
     if (e.frame < o.viewFirst || e.frame > o.viewLast + 1) continue;
     const double x = axis.x(static_cast<double>(e.frame));
     const bool sel = isSelected(o, e);
     p.setPen(QPen(sel ? style.highlight : style.foreground, sel ? 3 : 1.5));
     p.drawLine(QPointF(x, lane.top() + 2), QPointF(x, lane.bottom() - 2));
-    // Touchdown ticks carry a down triangle, lift-off ticks an up triangle.
-    QPainterPath mark;
-    const double s = std::min(5.0, lane.height() * 0.18);
-    if (e.kind == model::EventKind::touchdown) {
-      mark.moveTo(x - s, lane.top() + 1);
-      mark.lineTo(x + s, lane.top() + 1);
-      mark.lineTo(x, lane.top() + 1 + s * 1.4);
-    } else {
-      mark.moveTo(x - s, lane.bottom() - 1);
-      mark.lineTo(x + s, lane.bottom() - 1);
-      mark.lineTo(x, lane.bottom() - 1 - s * 1.4);
-    }
-    mark.closeSubpath();
-    p.fillPath(mark, sel ? style.highlight : style.foreground);
+    p.fillPath(eventMark(e, x, lane), sel ? style.highlight : style.foreground);
   }
 }
 

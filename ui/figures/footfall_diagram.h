@@ -44,6 +44,10 @@ struct FootfallOptions {
   std::vector<model::Event> selected;
   bool drawTicks = true;
   bool drawTimeAxis = true;  // frame / seconds ruler under the lanes
+  // Proposals under review (the desk's lanes only; figures never show them): hollow, lighter
+  // and under a person's tags, which are always drawn on top.
+  const model::Proposals* proposals = nullptr;
+  std::optional<model::Event> currentProposal;  // drawn highlighted
 };
 
 // Lane rectangle of limb `index` inside `rect` (shared with hit-testing in the widget).

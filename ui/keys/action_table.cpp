@@ -221,6 +221,90 @@ std::vector<ActionSpec> transportActions() {
   };
 }
 
+// Seeds, proposing and reviewing proposals (issue 18 item 3). Keys: Page Up / Page Down walk
+// the proposals, ; and ' (side by side under the right hand) accept and reject, Ctrl+, and
+// Ctrl+. nudge the proposal like , and . nudge selected tags.
+std::vector<ActionSpec> reviewActions() {
+  return {
+      {ActionId::seedMode,
+       Menu::review,
+       "review/seedMode",
+       QT_TRANSLATE_NOOP("Actions", "Place foot &seeds"),
+       {fixed("Ctrl+Shift+F")},
+       QT_TRANSLATE_NOOP("Actions",
+                         "on or off; a tag key picks the limb, a click on its foot in the Viewer "
+                         "places the seed"),
+       kCheckable},
+      {ActionId::proposeEvents,
+       Menu::review,
+       "review/propose",
+       QT_TRANSLATE_NOOP("Actions", "&Propose events…"),
+       {fixed("Ctrl+Shift+P")},
+       QT_TRANSLATE_NOOP("Actions", "from the seeds, for the whole clip or a range")},
+      {ActionId::cancelProposing,
+       Menu::review,
+       "review/cancelPropose",
+       QT_TRANSLATE_NOOP("Actions", "Cancel proposing"),
+       {}},
+      {ActionId::previousProposal,
+       Menu::review,
+       "review/previous",
+       QT_TRANSLATE_NOOP("Actions", "Previous proposal"),
+       {fixed("PgUp")},
+       nullptr,
+       kSeparatorBefore},
+      {ActionId::nextProposal,
+       Menu::review,
+       "review/next",
+       QT_TRANSLATE_NOOP("Actions", "Next proposal"),
+       {fixed("PgDown")}},
+      {ActionId::leastConfidentFirst,
+       Menu::review,
+       "review/leastConfidentFirst",
+       QT_TRANSLATE_NOOP("Actions", "&Least confident first"),
+       {fixed("Ctrl+Shift+L")},
+       QT_TRANSLATE_NOOP("Actions", "review order: on, by confidence; off, by frame"),
+       kCheckable},
+      {ActionId::acceptProposal,
+       Menu::review,
+       "review/accept",
+       QT_TRANSLATE_NOOP("Actions", "&Accept proposal"),
+       {fixed(";")},
+       QT_TRANSLATE_NOOP("Actions", "it becomes a tag; the next proposal follows"),
+       kSeparatorBefore},
+      {ActionId::rejectProposal,
+       Menu::review,
+       "review/reject",
+       QT_TRANSLATE_NOOP("Actions", "&Reject proposal"),
+       {fixed("'")},
+       QT_TRANSLATE_NOOP("Actions", "the next proposal follows")},
+      {ActionId::nudgeProposalEarlier,
+       Menu::review,
+       "review/nudgeEarlier",
+       QT_TRANSLATE_NOOP("Actions", "Nudge proposal earlier"),
+       {fixed("Ctrl+,")},
+       QT_TRANSLATE_NOOP("Actions", "by one frame")},
+      {ActionId::nudgeProposalLater,
+       Menu::review,
+       "review/nudgeLater",
+       QT_TRANSLATE_NOOP("Actions", "Nudge proposal later"),
+       {fixed("Ctrl+.")},
+       QT_TRANSLATE_NOOP("Actions", "by one frame")},
+      {ActionId::acceptProposalsAbove,
+       Menu::review,
+       "review/acceptAbove",
+       QT_TRANSLATE_NOOP("Actions", "Accept all a&bove a confidence…"),
+       {fixed("Ctrl+;")},
+       QT_TRANSLATE_NOOP("Actions", "shows how many would be accepted first")},
+      {ActionId::acceptProposedHidden,
+       Menu::review,
+       "review/acceptHidden",
+       QT_TRANSLATE_NOOP("Actions", "Accept proposed &hidden spans"),
+       {},
+       QT_TRANSLATE_NOOP("Actions", "where a foot could not be followed (dotted boxes)")},
+  };
+}
+
 std::vector<ActionSpec> viewActions() {
   return {
       {ActionId::zoomLanesIn,
@@ -298,8 +382,8 @@ std::vector<ActionSpec> settingsAndHelpActions() {
 const std::vector<ActionSpec>& actionTable() {
   static const std::vector<ActionSpec> table = [] {
     std::vector<ActionSpec> all;
-    for (auto part : {fileActions(), editActions(), transportActions(), viewActions(),
-                      settingsAndHelpActions()})
+    for (auto part : {fileActions(), editActions(), transportActions(), reviewActions(),
+                      viewActions(), settingsAndHelpActions()})
       all.insert(all.end(), part.begin(), part.end());
     return all;
   }();
@@ -324,6 +408,13 @@ const std::vector<GestureSpec>& gestureTable() {
        QT_TRANSLATE_NOOP("Actions", "scroll in time")},
       {Place::lanes, QT_TRANSLATE_NOOP("Actions", "Ctrl+wheel"),
        QT_TRANSLATE_NOOP("Actions", "zoom in time around the pointer")},
+      {Place::lanes, QT_TRANSLATE_NOOP("Actions", "Click a proposal's hollow tick"),
+       QT_TRANSLATE_NOOP("Actions", "make it the proposal under review")},
+      {Place::viewer, QT_TRANSLATE_NOOP("Actions", "Click while placing foot seeds"),
+       QT_TRANSLATE_NOOP("Actions",
+                         "place the chosen limb's seed on the foot, at the playhead's frame")},
+      {Place::viewer, QT_TRANSLATE_NOOP("Actions", "Right-click a seed while placing seeds"),
+       QT_TRANSLATE_NOOP("Actions", "remove that seed")},
       {Place::viewer, QT_TRANSLATE_NOOP("Actions", "Wheel"),
        QT_TRANSLATE_NOOP("Actions", "zoom the picture around the pointer (up to 32×)")},
       {Place::viewer, QT_TRANSLATE_NOOP("Actions", "Drag"),
@@ -370,6 +461,8 @@ QString menuTitle(Menu menu) {
       return QCoreApplication::translate("Actions", "&Edit");
     case Menu::transport:
       return QCoreApplication::translate("Actions", "&Transport");
+    case Menu::review:
+      return QCoreApplication::translate("Actions", "&Review");
     case Menu::view:
       return QCoreApplication::translate("Actions", "&View");
     case Menu::settings:

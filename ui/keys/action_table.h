@@ -10,8 +10,8 @@
 namespace stridemark::ui {
 
 // Menus in menu-bar order.
-enum class Menu { file, edit, transport, view, settings, help };
-inline constexpr Menu kMenus[] = {Menu::file, Menu::edit,     Menu::transport,
+enum class Menu { file, edit, transport, review, view, settings, help };
+inline constexpr Menu kMenus[] = {Menu::file, Menu::edit,     Menu::transport, Menu::review,
                                   Menu::view, Menu::settings, Menu::help};
 
 enum class ActionId {
@@ -44,6 +44,18 @@ enum class ActionId {
   goTo,
   setBigStep,
   autoAdvance,
+  seedMode,
+  proposeEvents,
+  cancelProposing,
+  previousProposal,
+  nextProposal,
+  leastConfidentFirst,
+  acceptProposal,
+  rejectProposal,
+  nudgeProposalEarlier,
+  nudgeProposalLater,
+  acceptProposalsAbove,
+  acceptProposedHidden,
   zoomLanesIn,
   zoomLanesOut,
   fitVideo,

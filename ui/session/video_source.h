@@ -35,6 +35,8 @@ class VideoSource : public QObject {
   ~VideoSource() override;
 
   const video::VideoInfo& info() const { return info_; }
+  // The frame index, for readers of their own (the review strip's crops).
+  std::shared_ptr<const video::FrameIndex> index() const { return index_; }
   QString path() const { return path_; }
   std::int64_t frameCount() const { return info_.frameCount; }
   // "size-headhash-tailhash": lets a moved video be recognised again.

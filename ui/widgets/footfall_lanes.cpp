@@ -99,6 +99,12 @@ void FootfallLanes::setSelectedHiddenSpan(std::optional<model::HiddenSpan> span)
   update();
 }
 
+void FootfallLanes::setCurrentProposal(std::optional<model::Event> proposal) {
+  if (proposal == currentProposal_) return;
+  currentProposal_ = proposal;
+  update();
+}
+
 void FootfallLanes::setSelectedLimb(int limb) {
   selectedLimb_ = limb;
   update();
@@ -167,6 +173,8 @@ figures::FootfallOptions FootfallLanes::options() const {
   o.labelWidth = labelWidth_;
   o.playhead = playhead_;
   o.selected = selection_;
+  o.proposals = &doc_->project().proposals;
+  o.currentProposal = currentProposal_;
   return o;
 }
 
@@ -257,6 +265,23 @@ std::optional<model::Event> FootfallLanes::eventAt(QPointF pos) const {
   return best;
 }
 
+std::optional<model::Event> FootfallLanes::proposalAt(QPointF pos) const {
+  const int limb = laneAt(pos);
+  if (limb < 0) return std::nullopt;
+  const auto ax = axis();
+  std::optional<model::Event> best;
+  double bestDist = kHitPixels;
+  for (const auto& p : doc_->project().proposals.events) {
+    if (p.event.limb != limb) continue;
+    const double d = std::abs(ax.x(static_cast<double>(p.event.frame)) - pos.x());
+    if (d <= bestDist) {
+      bestDist = d;
+      best = p.event;
+    }
+  }
+  return best;
+}
+
 std::optional<model::HiddenSpan> FootfallLanes::hiddenSpanAt(QPointF pos) const {
   const int limb = laneAt(pos);
   if (limb < 0) return std::nullopt;
@@ -296,6 +321,13 @@ void FootfallLanes::mousePressEvent(QMouseEvent* event) {
     drag_ = Drag::events;
     dragOrigin_ = frameAt(pos);
     dragDelta_ = 0;
+    return;
+  }
+  if (auto proposal = proposalAt(pos); proposal && !additive) {
+    setSelection({});
+    setSelectedLimb(proposal->limb);
+    emit limbSelected(proposal->limb);
+    emit proposalClicked(*proposal);
     return;
   }
   if (!additive) setSelection({});

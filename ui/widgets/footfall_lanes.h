@@ -2,7 +2,8 @@
 // Footfall lanes: one editable lane per limb (stance bars, event ticks), the playhead and the
 // Support strip. Click or drag on a lane to seek, drag a tick to move it, Ctrl+click to select
 // several, wheel to scroll, Ctrl+wheel to zoom. A click inside a hidden span selects it (Delete
-// removes it). Edits go through the document's commands.
+// removes it). Proposals (issue 18) are drawn hollow under the tags; a click on one makes it the
+// current proposal. Edits go through the document's commands.
 #include <QWidget>
 
 class QPainter;
@@ -37,6 +38,10 @@ class FootfallLanes : public QWidget {
   const std::optional<model::HiddenSpan>& selectedHiddenSpan() const { return selectedHidden_; }
   void setSelectedHiddenSpan(std::optional<model::HiddenSpan> span);
 
+  // The proposal under review, drawn highlighted (proposals are drawn hollow, under the tags).
+  void setCurrentProposal(std::optional<model::Event> proposal);
+  const std::optional<model::Event>& currentProposal() const { return currentProposal_; }
+
   // Keyboard edits of the selection (bound to actions by the main window). Delete removes the
   // selected events, or else the selected hidden span.
   bool nudgeSelection(std::int64_t delta);
@@ -51,6 +56,8 @@ class FootfallLanes : public QWidget {
   void seekRequested(qint64 frame);
   void limbSelected(int limb);
   void selectionChanged();
+  // A click on a proposal's tick (where no tag of a person is hit).
+  void proposalClicked(const model::Event& proposal);
 
  protected:
   void paintEvent(QPaintEvent* event) override;
@@ -68,6 +75,7 @@ class FootfallLanes : public QWidget {
   figures::FrameAxis axis() const;
   std::optional<model::Event> eventAt(QPointF pos) const;
   std::optional<model::HiddenSpan> hiddenSpanAt(QPointF pos) const;
+  std::optional<model::Event> proposalAt(QPointF pos) const;
   void paintHiddenSelection(QPainter& p, const figures::FigureStyle& style) const;
   int laneAt(QPointF pos) const;
   std::int64_t frameAt(QPointF pos) const;
@@ -84,6 +92,7 @@ class FootfallLanes : public QWidget {
   int selectedLimb_ = 0;
   std::vector<model::Event> selection_;
   std::optional<model::HiddenSpan> selectedHidden_;
+  std::optional<model::Event> currentProposal_;
   enum class Drag { none, scrub, events } drag_ = Drag::none;
   std::int64_t dragOrigin_ = 0;
   std::int64_t dragDelta_ = 0;

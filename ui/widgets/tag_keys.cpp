@@ -146,7 +146,13 @@ QString TagKeyLegend::nextText(NextTag next) {
 }
 
 // The cap's second line: what the key records, and the way to the other kind at a first tag.
+void TagKeyLegend::setSeeding(bool on) {
+  seeding_ = on;
+  update();
+}
+
 QString TagKeyLegend::capNote(int limb) const {
+  if (seeding_) return tr("seed this foot");
   QString note = nextText(next(limb));
   if (firstTag(limb) && next(limb) == NextTag::touchdown) note += tr(" · Shift: lift-off");
   return note;
@@ -206,7 +212,8 @@ void TagKeyLegend::paintEvent(QPaintEvent*) {
   const int header = metrics.height() + 6;
   p.setPen(palette().color(QPalette::WindowText));
   p.drawText(QRect(8, 2, width() - 16, metrics.height()), Qt::AlignLeft | Qt::AlignVCenter,
-             tr("A press at frame %1 records:").arg(frame_));
+             seeding_ ? tr("Placing seeds: a press chooses")
+                      : tr("A press at frame %1 records:").arg(frame_));
   int minRow = 4;
   for (int i = 0; i < limbs.size(); ++i) minRow = std::min(minRow, slotOf(limbs, i).first);
   for (int i = 0; i < limbs.size(); ++i) {
@@ -230,7 +237,8 @@ void TagKeyLegend::paintEvent(QPaintEvent*) {
     f.setBold(false);
     p.setFont(f);
     p.drawText(top, Qt::AlignVCenter | Qt::AlignRight, QString::fromStdString(limbs.label(i)));
-    if (next(i) == NextTag::taggedHere) p.setPen(palette().color(QPalette::PlaceholderText));
+    if (!seeding_ && next(i) == NextTag::taggedHere)
+      p.setPen(palette().color(QPalette::PlaceholderText));
     p.drawText(bottom, Qt::AlignVCenter | Qt::AlignLeft, capNote(i));
   }
 }

@@ -54,6 +54,8 @@ class TagKeyLegend : public QWidget {
   // stance).
   bool firstTag(int limb) const { return next_.at(static_cast<std::size_t>(limb)).first; }
   static QString nextText(NextTag next);  // "↓ touchdown"
+  // While placing foot seeds a press chooses the limb to seed: the caps say so.
+  void setSeeding(bool on);
   QSize sizeHint() const override;
 
  protected:
@@ -71,6 +73,7 @@ class TagKeyLegend : public QWidget {
   TagKeyMap keys_;
   std::vector<Next> next_;
   std::int64_t frame_ = 0;
+  bool seeding_ = false;
 };
 
 class TagKeyDialog : public QDialog {

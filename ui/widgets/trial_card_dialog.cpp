@@ -64,7 +64,9 @@ TrialCardDialog::TrialCardDialog(const model::Project& project, bool limbSetLock
   limbSet_->addItems(limbSetChoices(a.limbs));
   limbSet_->setCurrentText(QString::fromStdString(a.limbs.name()));
   limbSet_->setEnabled(!limbSetLocked);
-  if (limbSetLocked) limbSet_->setToolTip(tr("Delete all tags to change the limb set."));
+  if (limbSetLocked)
+    limbSet_->setToolTip(
+        tr("Delete all tags, hidden spans, foot seeds and proposals to change the limb set."));
   reference_ = new QComboBox;
   reference_->setAccessibleName(tr("Reference limb"));
   rate_ = textField(toString(a.captureRate), tr("Capture rate"));

@@ -3,13 +3,47 @@
 // shows the frame number and the time at the capture rate. At fit size it asks for frames
 // converted to its own pixel size (displayPixels), which it then draws without scaling: on a
 // 1080p clip that is cheaper than converting the full frame and scaling it in every paint.
+//
+// Over the picture (issue 18 item 3): foot seeds on their frame, each foot's track over nearby
+// frames, and for the proposal under review a strip of crops of the frames around it. These
+// are given in pixels of the upright video frame; videoPixelAt() maps back from the widget
+// through zoom, pan and the letterbox margins.
+
+#include <QColor>
 #include <QImage>
 #include <QWidget>
 #include <cstdint>
+#include <optional>
+#include <vector>
 
 #include "common/rational.h"
 
+class QPainter;
+
 namespace stridemark::ui {
+
+struct ViewerSeed {
+  std::int64_t frame = 0;
+  QPointF at;  // video pixels
+  QString label;
+  QColor colour;
+};
+
+struct ViewerTrack {
+  QString label;
+  QColor colour;
+  std::int64_t first = 0;                      // frame of points[0]
+  std::vector<std::optional<QPointF>> points;  // one per frame; empty where not visible
+  bool emphasised = false;                     // the foot of the proposal under review
+};
+
+// Small pictures of the frames around a proposal, left to right, one of them the proposal's.
+struct ReviewStrip {
+  std::vector<QImage> crops;      // a null image: not read yet
+  std::vector<QString> captions;  // one per crop ("-1", "132", "+1")
+  int centre = 0;                 // index of the proposal's frame
+  QString title;                  // "RF touchdown 132, confidence 0.83"
+};
 
 class Viewer : public QWidget {
   Q_OBJECT
@@ -24,6 +58,19 @@ class Viewer : public QWidget {
   void setSourceSize(QSize size);  // the video's frame size (pictures may arrive smaller)
   void resetView();                // back to fit-to-window
 
+  void setSeeds(std::vector<ViewerSeed> seeds);
+  const std::vector<ViewerSeed>& seeds() const { return seeds_; }
+  void setTracks(std::vector<ViewerTrack> tracks);
+  const std::vector<ViewerTrack>& tracks() const { return tracks_; }
+  void setReviewStrip(ReviewStrip strip);  // no crops: none shown
+  const ReviewStrip& reviewStrip() const { return strip_; }
+  // Seeding: a click (not a drag) reports the video pixel under it; the cursor is a cross.
+  void setSeeding(bool on);
+  bool seeding() const { return seeding_; }
+  // The point of the upright video frame under `widgetPos`, or nothing outside the picture.
+  std::optional<QPointF> videoPixelAt(QPointF widgetPos) const;
+  QPointF widgetPointOf(QPointF videoPixel) const;
+
   std::int64_t shownFrame() const { return shownFrame_; }
   std::int64_t playheadFrame() const { return playhead_; }
   double zoom() const { return zoom_; }
@@ -36,6 +83,8 @@ class Viewer : public QWidget {
  signals:
   void framePainted(qint64 frame);
   void displayPixelsChanged(QSize pixels, qreal devicePixelRatio);
+  void seedClicked(QPointF videoPixel);        // left click while seeding
+  void seedRemoveClicked(QPointF videoPixel);  // right click while seeding
 
  protected:
   void paintEvent(QPaintEvent* event) override;
@@ -51,6 +100,10 @@ class Viewer : public QWidget {
   QSizeF fittedSize() const;  // frame fitted to the widget, snapped to whole device pixels
   void announceDisplayPixels();
   QString statusText() const;
+  QRectF pictureRect() const;  // where the frame is drawn (also before a picture arrives)
+  void paintSeeds(QPainter& p) const;
+  void paintTracks(QPainter& p) const;
+  void paintReviewStrip(QPainter& p) const;
 
   QImage image_;
   QSize sourceSize_;
@@ -66,6 +119,11 @@ class Viewer : public QWidget {
   QPointF panAtDrag_;
   bool dragging_ = false;
   std::uint64_t painted_ = 0;
+  std::vector<ViewerSeed> seeds_;
+  std::vector<ViewerTrack> tracks_;
+  ReviewStrip strip_;
+  bool seeding_ = false;
+  QPoint pressAt_;
 };
 
 }  // namespace stridemark::ui
