@@ -58,8 +58,13 @@ ProposalScore scoreProposals(const std::vector<model::Event>& truth,
     wanted.push_back(e);
   }
   std::vector<model::Event> offered;
-  for (const auto& p : proposals.events)
-    if (inside(p.event.frame, scored)) offered.push_back(p.event);
+  std::vector<std::size_t> offeredIndex;  // into proposals.events
+  for (std::size_t i = 0; i < proposals.events.size(); ++i)
+    if (inside(proposals.events[i].event.frame, scored)) {
+      offered.push_back(proposals.events[i].event);
+      offeredIndex.push_back(i);
+    }
+  score.absoluteError.assign(proposals.events.size(), -1);
   score.truth = static_cast<int>(wanted.size());
   score.proposed = static_cast<int>(offered.size());
   // Every candidate pair within the window, closest first: greedy one-to-one matching.
@@ -75,6 +80,7 @@ ProposalScore scoreProposals(const std::vector<model::Event>& truth,
   for (const auto& [d, i, j] : pairs) {
     if (truthUsed[i] || offerUsed[j]) continue;
     truthUsed[i] = offerUsed[j] = true;
+    score.absoluteError[offeredIndex[j]] = d;
     ++score.matched;
     score.within0 += d == 0;
     score.within1 += d <= 1;

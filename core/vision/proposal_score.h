@@ -20,6 +20,8 @@ struct ProposalScore {
   int deferred = 0;  // truth events inside a proposed hidden span (left for a person)
   std::array<double, 2> signedErrorSum{};  // by EventKind (touchdown, liftoff)
   std::array<int, 2> signedErrorCount{};
+  // Per proposal (in the order given): its frame error when matched, -1 when not (or outside).
+  std::vector<std::int64_t> absoluteError;
 
   ProposalScore& operator+=(const ProposalScore& other);
   double share(int count) const { return truth ? static_cast<double>(count) / truth : 0.0; }

@@ -46,6 +46,7 @@ class Run {
   void backwardPass();
   void tick();
   void measureFlow(std::int64_t pair, const cv::Mat& first, const cv::Mat& second);
+  void unmergeTracks();
   // The ground's shift near a foot from frame `pair` to `pair` + 1, for the tracker's prior.
   std::optional<cv::Point2d> shiftNear(std::int64_t pair, cv::Point2d foot) const;
   cv::Point2d seedPoint(const model::FootSeed& seed) const;
@@ -328,6 +329,33 @@ std::vector<std::optional<detail::Vec2>> Run::groundUnder(int limb) const {
   return ground;
 }
 
+// Two trackers on one foot (one lost its own foot to a look-alike): neither can say which foot
+// it is, so both count as not seen there. A wrong limb's events are worse than a hidden span.
+void Run::unmergeTracks() {
+  constexpr std::size_t kShortestMerge = 2;  // frames
+  for (auto a = samples_.begin(); a != samples_.end(); ++a)
+    for (auto b = std::next(a); b != samples_.end(); ++b) {
+      auto& first = a->second;
+      auto& second = b->second;
+      std::size_t t = 0;
+      while (t < first.size()) {
+        auto together = [&](std::size_t k) {
+          return first[k].visible && second[k].visible &&
+                 cv::norm(first[k].at - second[k].at) < radius_;
+        };
+        if (!together(t)) {
+          ++t;
+          continue;
+        }
+        std::size_t end = t;
+        while (end < first.size() && together(end)) ++end;
+        if (end - t >= kShortestMerge)
+          for (std::size_t k = t; k < end; ++k) first[k].visible = second[k].visible = false;
+        t = end;
+      }
+    }
+}
+
 ProposeResult Run::collect() const {
   ProposeResult result;
   result.framesDecoded = decoded_;
@@ -374,9 +402,11 @@ ProposeResult Run::go() {
         top = std::min(top, seedPoint(seed).y);
         bottom = std::max(bottom, seedPoint(seed).y);
       }
-    grid_ = std::make_unique<detail::GroundFlow>(
-        maker_->size(), static_cast<int>(top) - 2 * radius_, static_cast<int>(bottom) + 6 * radius_,
-        std::max(4, radius_));
+    // Ground samples are taken just below the feet (groundShiftNear), so the grid covers the
+    // rows from the highest seed to a little below the lowest one.
+    grid_ = std::make_unique<detail::GroundFlow>(maker_->size(), static_cast<int>(top),
+                                                 static_cast<int>(bottom) + 4 * radius_,
+                                                 std::max(4, radius_));
   }
   std::int64_t start = span_.last, top = span_.first;
   for (const auto& [limb, list] : seeds_) {
@@ -386,6 +416,7 @@ ProposeResult Run::go() {
   total_ = (span_.last - start + 1) + (top - span_.first);
   forwardPass();
   backwardPass();
+  unmergeTracks();
   return collect();
 }
 

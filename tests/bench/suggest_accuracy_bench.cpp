@@ -4,7 +4,9 @@
 // Prints one JSON object: per condition and overall, the share of events within 0, 1 and 2
 // frames, missed and spurious shares, and the mean signed error per event kind.
 // Run: build/.../tests/bench/suggest_accuracy_bench [filter-substring]
+#include <array>
 #include <chrono>
+#include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
@@ -52,26 +54,70 @@ std::vector<Condition> conditions() {
   std::vector<Condition> list;
   auto add = [&](Condition c) { list.push_back(std::move(c)); };
   add({.name = "treadmill dog walk 240", .gaits = {"walk:4"}, .fps = 240});
-  add({.name = "treadmill horse trot 120 soft", .gaits = {"trot:4"}, .fps = 120, .feet = F::hoof,
-       .look = 3, .softLanding = true});
-  add({.name = "treadmill walk-trot 120 blur noise", .gaits = {"walk:3", "trot:3"}, .fps = 120,
-       .blur = true, .noise = 6});
-  add({.name = "treadmill trot 60 crf30 post", .gaits = {"trot:5"}, .fps = 60, .noise = 3,
-       .crf = 30, .occluder = true, .look = 7});
-  add({.name = "panning gallop 240 hoof", .gaits = {"transverse-gallop:3"},
-       .synthScene = S::panning, .scene = V::panning, .fps = 240, .feet = F::hoof});
-  add({.name = "panning walk 120 dark bush", .gaits = {"walk:4"}, .synthScene = S::panning,
-       .scene = V::panning, .fps = 120, .noise = 4, .occluder = true, .light = 0.3, .look = 11});
-  add({.name = "overground trot 120 post", .gaits = {"trot:3"}, .synthScene = S::overground,
-       .scene = V::overground, .fps = 120, .occluder = true, .look = 5});
-  add({.name = "panning biped toes walk 120", .limbs = "biped", .gaits = {"walk:4"},
-       .synthScene = S::panning, .scene = V::panning, .fps = 120, .feet = F::toes});
-  add({.name = "overground biped run 240 noise", .limbs = "biped", .gaits = {"run:3"},
-       .synthScene = S::overground, .scene = V::overground, .fps = 240, .noise = 8});
-  add({.name = "treadmill hexapod tripod 120", .limbs = "hexapod", .gaits = {"tripod:4"},
+  add({.name = "treadmill horse trot 120 soft",
+       .gaits = {"trot:4"},
+       .fps = 120,
+       .feet = F::hoof,
+       .look = 3,
+       .softLanding = true});
+  add({.name = "treadmill walk-trot 120 blur noise",
+       .gaits = {"walk:3", "trot:3"},
+       .fps = 120,
+       .blur = true,
+       .noise = 6});
+  add({.name = "treadmill trot 60 crf30 post",
+       .gaits = {"trot:5"},
+       .fps = 60,
+       .noise = 3,
+       .crf = 30,
+       .occluder = true,
+       .look = 7});
+  add({.name = "panning gallop 240 hoof",
+       .gaits = {"transverse-gallop:3"},
+       .synthScene = S::panning,
+       .scene = V::panning,
+       .fps = 240,
+       .feet = F::hoof});
+  add({.name = "panning walk 120 dark bush",
+       .gaits = {"walk:4"},
+       .synthScene = S::panning,
+       .scene = V::panning,
+       .fps = 120,
+       .noise = 4,
+       .occluder = true,
+       .light = 0.3,
+       .look = 11});
+  add({.name = "overground trot 120 post",
+       .gaits = {"trot:3"},
+       .synthScene = S::overground,
+       .scene = V::overground,
+       .fps = 120,
+       .occluder = true,
+       .look = 5});
+  add({.name = "panning biped toes walk 120",
+       .limbs = "biped",
+       .gaits = {"walk:4"},
+       .synthScene = S::panning,
+       .scene = V::panning,
+       .fps = 120,
+       .feet = F::toes});
+  add({.name = "overground biped run 240 noise",
+       .limbs = "biped",
+       .gaits = {"run:3"},
+       .synthScene = S::overground,
+       .scene = V::overground,
+       .fps = 240,
+       .noise = 8});
+  add({.name = "treadmill hexapod tripod 120",
+       .limbs = "hexapod",
+       .gaits = {"tripod:4"},
        .fps = 120});
-  add({.name = "treadmill hexapod wave 60 crf30", .limbs = "hexapod", .gaits = {"wave:6"},
-       .fps = 60, .crf = 30, .look = 2});
+  add({.name = "treadmill hexapod wave 60 crf30",
+       .limbs = "hexapod",
+       .gaits = {"wave:6"},
+       .fps = 60,
+       .crf = 30,
+       .look = 2});
   // The same scenes with foot markers: what the stance rule does when tracking is easy.
   const std::size_t plain = list.size();
   for (std::size_t i = 0; i < plain; ++i) {
@@ -131,10 +177,37 @@ std::string scoreJson(const vision::ProposalScore& s) {
 
 }  // namespace
 
+// Does confidence mean something? Per confidence quarter: proposals, and the share of them
+// within one frame of a true event.
+struct Calibration {
+  std::array<int, 4> count{}, hits{};
+  void add(const model::Proposals& p, const vision::ProposalScore& s) {
+    for (std::size_t i = 0; i < p.events.size(); ++i) {
+      const auto bin =
+          static_cast<std::size_t>(std::min(3.0, std::floor(p.events[i].confidence * 4)));
+      ++count[bin];
+      hits[bin] += s.absoluteError[i] >= 0 && s.absoluteError[i] <= 1;
+    }
+  }
+  std::string json() const {
+    std::string out = "[";
+    for (std::size_t b = 0; b < 4; ++b) {
+      char cell[96];
+      std::snprintf(cell, sizeof cell,
+                    "%s{\"confidence\": \"%.2f-%.2f\", \"proposals\": %d, \"within_1\": %.3f}",
+                    b ? ", " : "", b / 4.0, (b + 1) / 4.0, count[b],
+                    count[b] ? static_cast<double>(hits[b]) / count[b] : 0.0);
+      out += cell;
+    }
+    return out + "]";
+  }
+};
+
 int main(int argc, char** argv) {
   const std::string filter = argc > 1 ? argv[1] : "";
   const fs::path root = fs::temp_directory_path() / "stridemark-suggest-bench";
   vision::ProposalScore overall;
+  Calibration calibration;
   std::printf("{\n \"conditions\": [\n");
   bool firstRow = true;
   int index = 0;
@@ -176,6 +249,7 @@ int main(int argc, char** argv) {
       const vision::ProposalScore s =
           vision::scoreProposals(truth.events, result.proposals, {2, clip.frameCount - 3}, window);
       overall += s;
+      calibration.add(result.proposals, s);
       if (std::getenv("SUGGEST_BENCH_DUMP"))
         dumpTracks(o, truth, result, root / (std::to_string(index) + "-tracks.csv"));
       std::printf("%s  {\"name\": \"%s\", \"frames\": %lld, \"seconds\": %.2f, %s}",
@@ -189,6 +263,7 @@ int main(int argc, char** argv) {
     }
     std::fflush(stdout);
   }
-  std::printf("\n ],\n \"overall\": {%s}\n}\n", scoreJson(overall).c_str());
+  std::printf("\n ],\n \"overall\": {%s},\n \"calibration\": %s\n}\n", scoreJson(overall).c_str(),
+              calibration.json().c_str());
   return 0;
 }

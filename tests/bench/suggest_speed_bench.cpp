@@ -48,7 +48,8 @@ int main(int argc, char** argv) {
   request.video = clip.video;
   request.limbs = o.limbs;
   request.captureRate = o.timeline.captureRate;
-  request.scene = std::getenv("XSCENE") ? vision::parseScene(std::getenv("XSCENE")) : vision::Scene::treadmill;
+  request.scene =
+      std::getenv("XSCENE") ? vision::parseScene(std::getenv("XSCENE")) : vision::Scene::treadmill;
   request.seeds = formats::readSeedsCsv(o.outDir / "seeds.csv", o.limbs);
 
   const std::string decode =
