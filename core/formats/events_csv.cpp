@@ -89,6 +89,13 @@ Columns parseHeader(std::string_view line, std::string_view file, long lineNumbe
   if (count != 3 && line.find_first_of(";\t") != std::string_view::npos) {
     bad("separates columns with ';' or tabs, not commas");
   }
+  // Proposals from `stridemark suggest` are not tags until a person has reviewed them.
+  if (line.find("confidence") != std::string_view::npos)
+    failAt(file, lineNumber,
+           "header " + shown(line) +
+               " has a confidence column: these look like proposals from `stridemark suggest`, "
+               "which are not tags until reviewed — review them in the desk (Review menu), or "
+               "delete the confidence column to use them as tags as they are");
   if (count != 3 && count != kMostColumns)
     bad("has " + std::to_string(count) + (count == 1 ? " column" : " columns") + ", not 3");
   Columns columns;

@@ -55,6 +55,12 @@ TEST_F(SuggestCli, WritesEventsWithConfidenceAndAJsonSummary) {
     EXPECT_LE(e["confidence"].get<double>(), 1.0);
   }
   EXPECT_NE(json["caution"].get<std::string>().find("veterinarian"), std::string::npos);
+  // Issue 18 item 3 (proposals never count as tags until accepted): `score` refuses them and
+  // says how to use them.
+  const CliRun scored = runStridemark({"score", out("p.csv")});
+  EXPECT_EQ(scored.exitCode, 1);
+  EXPECT_NE(scored.err.find("look like proposals from `stridemark suggest`"), std::string::npos)
+      << scored.err;
 }
 
 // Issue 18 item 2: bad seeds and unreadable video exit 1 with a message saying what to fix.
