@@ -203,7 +203,9 @@ void Run::forwardPass() {
         ++decoded_;
         cv::Mat image = maker_->make(frame);
         const bool usable = !frame.damaged;
-        if (usable && previousFrame == t - 1) measureFlow(t - 1, previous, image);
+        // (previousFrame starts at -1: frame 0 has no pair before it.)
+        const bool follows = !previous.empty() && previousFrame == t - 1;
+        if (usable && follows) measureFlow(t - 1, previous, image);
         std::vector<int> stepping;
         for (const auto& [limb, list] : seeds_) {
           auto& tracker = trackers[limb];
@@ -222,7 +224,7 @@ void Run::forwardPass() {
           }
         }
         if (!stepping.empty()) {
-          const bool consecutive = previousFrame == t - 1;
+          const bool consecutive = follows;
           const auto steps = stepFeet(trackers, stepping, previous, image, [&](cv::Point2d foot) {
             return consecutive ? shiftNear(t - 1, foot) : std::nullopt;
           });
