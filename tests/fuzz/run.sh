@@ -9,7 +9,7 @@ set -euo pipefail
 cd "$(dirname "$0")/../.."
 seconds="${1:-60}"
 shift || true
-all=(fuzz_events_csv fuzz_project fuzz_report fuzz_journal fuzz_frame_index fuzz_video)
+all=(fuzz_events_csv fuzz_seeds_csv fuzz_project fuzz_report fuzz_journal fuzz_frame_index fuzz_video)
 [ $# -gt 0 ] && targets=("$@") || targets=("${all[@]}")
 
 if [ -z "${FUZZ_SKIP_BUILD:-}" ]; then  # set it to run targets already built
@@ -18,7 +18,7 @@ if [ -z "${FUZZ_SKIP_BUILD:-}" ]; then  # set it to run targets already built
 fi
 
 # Longest input per target: a little above the largest seed, so mutations stay fast.
-declare -A max_len=([fuzz_events_csv]=4096 [fuzz_project]=8192 [fuzz_report]=16384
+declare -A max_len=([fuzz_events_csv]=4096 [fuzz_seeds_csv]=2048 [fuzz_project]=8192 [fuzz_report]=16384
                     [fuzz_journal]=4096 [fuzz_frame_index]=4096 [fuzz_video]=16384)
 crashes=tests/fuzz/crashes
 mkdir -p "$crashes" build/fuzz/logs build/fuzz/tmp
