@@ -2,8 +2,11 @@
 
 #include <algorithm>
 #include <cmath>
+#include <utility>
 
 #include <opencv2/video/tracking.hpp>
+
+#include "vision/order_stats.h"
 
 namespace stridemark::vision::detail {
 
@@ -12,12 +15,6 @@ namespace {
 constexpr float kForwardBackwardLimit = 0.5f;  // pixels
 const cv::Size kWindow(11, 11);
 constexpr int kLevels = 2;
-
-double median(std::vector<double>& values) {
-  const auto middle = values.begin() + static_cast<std::ptrdiff_t>(values.size() / 2);
-  std::nth_element(values.begin(), middle, values.end());
-  return *middle;
-}
 
 }  // namespace
 
@@ -68,7 +65,7 @@ std::optional<cv::Point2d> groundShiftNear(const FlowField& field, cv::Point2d f
     dy.push_back(field.shift[i].y);
   }
   if (static_cast<int>(dx.size()) < minSamples) return std::nullopt;
-  return cv::Point2d(median(dx), median(dy));
+  return cv::Point2d(upperMedian(std::move(dx)), upperMedian(std::move(dy)));
 }
 
 }  // namespace stridemark::vision::detail

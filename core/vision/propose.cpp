@@ -8,12 +8,14 @@
 #include <functional>
 #include <map>
 #include <memory>
+#include <utility>
 
 #include "common/error.h"
 #include "video/frame_index.h"
 #include "video/frame_reader.h"
 #include "vision/foot_tracker.h"
 #include "vision/ground_flow.h"
+#include "vision/order_stats.h"
 #include "vision/stance_rule.h"
 #include "vision/work_image.h"
 
@@ -324,9 +326,8 @@ std::vector<std::optional<detail::Vec2>> Run::groundUnder(int limb) const {
       ys.push_back(raw[k]->y);
     }
     if (xs.empty()) continue;
-    std::nth_element(xs.begin(), xs.begin() + static_cast<std::ptrdiff_t>(xs.size() / 2), xs.end());
-    std::nth_element(ys.begin(), ys.begin() + static_cast<std::ptrdiff_t>(ys.size() / 2), ys.end());
-    ground[t] = detail::Vec2{xs[xs.size() / 2], ys[ys.size() / 2]};
+    ground[t] =
+        detail::Vec2{detail::upperMedian(std::move(xs)), detail::upperMedian(std::move(ys))};
   }
   return ground;
 }

@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cmath>
 
+#include "vision/order_stats.h"
+
 namespace stridemark::vision::detail {
 
 namespace {
@@ -29,13 +31,6 @@ struct Boundary {
 
 double length(Vec2 v) {
   return std::hypot(v.x, v.y);
-}
-
-double percentile(std::vector<double> values, double share) {
-  if (values.empty()) return 0;
-  const auto k = static_cast<std::size_t>(share * static_cast<double>(values.size() - 1));
-  std::nth_element(values.begin(), values.begin() + static_cast<std::ptrdiff_t>(k), values.end());
-  return values[k];
 }
 
 PairMotion relativeMotion(const FootMotion& m) {
