@@ -48,29 +48,6 @@ std::size_t splitFields(std::string_view line, Fields& fields) {
   }
 }
 
-// Walks the text line by line; a line ends at LF, CRLF or a lone CR (old Mac spreadsheets).
-class LineCursor {
- public:
-  explicit LineCursor(std::string_view text) : text_(text) {}
-  bool next(std::string_view& line) {
-    if (pos_ >= text_.size()) return false;
-    std::size_t end = text_.find_first_of("\r\n", pos_);
-    if (end == std::string_view::npos) end = text_.size();
-    line = text_.substr(pos_, end - pos_);
-    pos_ = end + 1;
-    if (end < text_.size() && text_[end] == '\r' && pos_ < text_.size() && text_[pos_] == '\n')
-      ++pos_;
-    ++number_;
-    return true;
-  }
-  long number() const { return number_; }
-
- private:
-  std::string_view text_;
-  std::size_t pos_ = 0;
-  long number_ = 0;
-};
-
 struct Columns {
   int limb = -1;
   int event = -1;
@@ -246,7 +223,7 @@ EventsCsv parseEventsCsv(std::string_view text, std::string_view fileName,
   if (text.substr(0, kBom.size()) == kBom) text.remove_prefix(kBom.size());
   requireText(text, fileName);
 
-  LineCursor cursor(text);
+  text::LineCursor cursor(text);
   std::string_view line;
   HeaderComments comments;
   std::optional<Columns> columns;

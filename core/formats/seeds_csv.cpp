@@ -14,19 +14,6 @@ namespace {
 
 constexpr std::string_view kHeader = "limb,frame,x,y";
 
-std::vector<std::string_view> splitLines(std::string_view text) {
-  std::vector<std::string_view> lines;
-  std::size_t start = 0;
-  for (std::size_t i = 0; i <= text.size(); ++i) {
-    if (i == text.size() || text[i] == '\n' || text[i] == '\r') {
-      lines.push_back(text.substr(start, i - start));
-      if (i + 1 < text.size() && text[i] == '\r' && text[i + 1] == '\n') ++i;
-      start = i + 1;
-    }
-  }
-  return lines;
-}
-
 std::vector<std::string_view> splitFields(std::string_view line) {
   std::vector<std::string_view> fields;
   std::size_t start = 0;
@@ -54,9 +41,10 @@ std::vector<model::FootSeed> parseSeedsCsv(std::string_view text, std::string_vi
                            std::string(kHeader)));
   std::vector<model::FootSeed> seeds;
   bool header = false;
-  long lineNo = 0;
-  for (const std::string_view raw : splitLines(text)) {
-    ++lineNo;
+  text::LineCursor cursor(text);
+  std::string_view raw;
+  while (cursor.next(raw)) {
+    const long lineNo = cursor.number();
     const std::string_view line = text::trim(raw);
     if (line.empty() || line.front() == '#') continue;
     auto fail = [&](const std::string& what) {
