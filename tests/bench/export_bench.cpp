@@ -17,6 +17,7 @@
 #include <vector>
 
 #include "analysis/analyse.h"
+#include "bench_timing.h"
 #include "model/annotation.h"
 #include "ui/export/clip_compositor.h"
 #include "ui/export/clip_overlay.h"
@@ -24,7 +25,8 @@
 
 namespace fs = std::filesystem;
 using namespace stridemark;
-using Clock = std::chrono::steady_clock;
+using stridemark::bench::Clock;
+using stridemark::bench::median;
 
 namespace {
 
@@ -69,11 +71,6 @@ void shell(const std::string& command) {
     std::cerr << "failed: " << command << '\n';
     std::exit(3);
   }
-}
-
-double median(std::vector<double> v) {
-  std::sort(v.begin(), v.end());
-  return v[v.size() / 2];
 }
 
 // An invented walk so the overlay has stance bars, a limb pad and stride labels to draw.

@@ -10,6 +10,8 @@
 #include <string>
 #include <vector>
 
+#include "bench_timing.h"
+
 #include "formats/seeds_csv.h"
 #include "synth/synth.h"
 #include "vision/propose.h"
@@ -17,16 +19,9 @@
 namespace {
 
 namespace fs = std::filesystem;
-using Clock = std::chrono::steady_clock;
-
-double secondsSince(Clock::time_point start) {
-  return std::chrono::duration<double>(Clock::now() - start).count();
-}
-
-double median(std::vector<double> v) {
-  std::sort(v.begin(), v.end());
-  return v[v.size() / 2];
-}
+using stridemark::bench::Clock;
+using stridemark::bench::median;
+using stridemark::bench::secondsSince;
 
 }  // namespace
 

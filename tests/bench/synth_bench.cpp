@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+#include "bench_timing.h"
+
 #include <opencv2/core.hpp>
 #include <opencv2/imgproc.hpp>
 
@@ -19,17 +21,10 @@
 
 namespace {
 
-using Clock = std::chrono::steady_clock;
+using stridemark::bench::Clock;
+using stridemark::bench::median;
+using stridemark::bench::secondsSince;
 namespace fs = std::filesystem;
-
-double secondsSince(Clock::time_point start) {
-  return std::chrono::duration<double>(Clock::now() - start).count();
-}
-
-double median(std::vector<double> v) {
-  std::sort(v.begin(), v.end());
-  return v[v.size() / 2];
-}
 
 }  // namespace
 
